@@ -1,0 +1,137 @@
+/**
+ * The compiled model: the contract between the Poise compiler (this folder)
+ * and the equilibrium solver (server/solver). It is plain data (JSON-safe) so
+ * it can be stored with a run, sent to a worker thread and diffed.
+ *
+ * Units everywhere in the model: concentrations in mol/L, pressures in atm,
+ * temperatures in degrees Celsius, enthalpies in kJ/mol, constants as log10.
+ */
+
+export type Phase = 'aq' | 's' | 'g'
+
+export type ComponentMode = 'total' | 'free' | 'pH' | 'pressure' | 'balance' | 'excess'
+
+export type ActivityModelName = 'ideal' | 'davies' | 'debye-huckel'
+
+export interface ModelComponent {
+  /** Name in caret form, as results show it: `Cu^2+`, `CO2(g)`, `CaCO3(s)`. */
+  name: string
+  charge: number
+  phase: Phase
+  mode: ComponentMode
+  /**
+   * total: analytical concentration, mol/L (for H+ it may be negative: a proton deficit);
+   * free: free concentration, mol/L; pH: the pH; pressure: partial pressure, atm;
+   * balance and excess: 0.
+   */
+  value: number
+  /** Element counts from the formula, e.g. { Cu: 1, N: 4, H: 12 }. */
+  elements: Record<string, number>
+  /** g/mol from IUPAC standard atomic weights. */
+  molarMass: number
+  /** 1-based source line of the `component` statement. */
+  line: number
+}
+
+/** Formation data shared by species, solids and gases. */
+export interface Formation {
+  /** Stoichiometry over `model.components`, same order and length. */
+  nu: number[]
+  /** log10 of the formation constant from components, at `model.temperatureC`. */
+  logK: number
+  /** log10 of the formation constant at `model.refTemperatureC`. */
+  logKRef: number
+  /**
+   * Standard enthalpy of the formation reaction from components, kJ/mol, or
+   * null when a reaction in its chain gave no dH (then taken as 0).
+   */
+  dH: number | null
+  /** 1-based source line of the defining reaction (or component statement). */
+  line: number
+}
+
+/** An aqueous species; every component's free form is one too (nu = unit vector, logK = 0). */
+export interface ModelSpecies extends Formation {
+  name: string
+  charge: number
+  elements: Record<string, number>
+  /** Index into model.components when this species is a component's free form. */
+  componentIndex: number | null
+}
+
+/**
+ * A solid. Its formation from components is `solid = Σ nu_j component_j`, so
+ * its saturation index is SI = logK + Σ nu_j log10 a_j (zero at saturation).
+ * For a dissolution reaction with pKsp P, logK = P.
+ */
+export interface ModelSolid extends Formation {
+  name: string
+  elements: Record<string, number>
+  /** `solid X(s) suppressed`: never precipitates, SI still reported. */
+  suppressed: boolean
+}
+
+/** A gas that is not a component: log10 p(atm) = logK + Σ nu_j log10 a_j, reported only. */
+export interface ModelGas extends Formation {
+  name: string
+  elements: Record<string, number>
+}
+
+export type ConstantKind =
+  | 'logK' | 'K' | 'pK'
+  | 'logbeta' | 'beta'
+  | 'pKa' | 'Ka'
+  | 'pKsp' | 'Ksp' | 'logKsp'
+  | 'pKw'
+  | 'logKH'
+
+/** A reaction as the file wrote it (for reports and model diffs). */
+export interface ModelReaction {
+  /** Normalised text in caret form, e.g. `Cu^2+ + 2 NH3 <=> Cu(NH3)2^2+`. */
+  equation: string
+  kind: ConstantKind
+  /** The number as written after the kind. */
+  value: number
+  /** log10 K of the reaction as written, at the reference temperature. */
+  logK: number
+  dH: number | null
+  /** The citation: the `cite "..."` text, or the full text of `source KEY`; null when none. */
+  cite: string | null
+  /** The species this reaction defines. */
+  defines: string
+  /** Library name when the reaction came from `use`; null for the file itself. */
+  library: string | null
+  line: number
+}
+
+export type SweepVariable = 'pH' | 'total' | 'temperature' | 'pressure'
+
+export interface ModelSweep {
+  variable: SweepVariable
+  /** Component name for `total` and `pressure` sweeps, else null. */
+  component: string | null
+  /** The points, in order: pH units; mol/L; degrees C; atm. */
+  values: number[]
+  log: boolean
+  line: number
+}
+
+export interface Model {
+  title: string
+  temperatureC: number
+  /** Temperature the constants are tabulated at (25 C). */
+  refTemperatureC: number
+  activity: ActivityModelName
+  /** `ionic-strength N UNIT`, mol/L; null when computed from the species. */
+  fixedIonicStrength: number | null
+  components: ModelComponent[]
+  species: ModelSpecies[]
+  solids: ModelSolid[]
+  gases: ModelGas[]
+  reactions: ModelReaction[]
+  sweep: ModelSweep | null
+  /** `source KEY "text"` entries, the file's and its libraries'. */
+  sources: Record<string, string>
+  /** Libraries resolved through `use`, with the revision actually used. */
+  libraries: { name: string; revision: number }[]
+}

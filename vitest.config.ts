@@ -1,0 +1,38 @@
+import { defineConfig } from 'vitest/config'
+import vue from '@vitejs/plugin-vue'
+
+// Three kinds of test, as DEVELOPERS.md explains:
+//  unit       plain TypeScript (language, solver, helpers), node environment, fast
+//  components Vue components in happy-dom
+//  nuxt       routes of the built server against the real MariaDB, and the browser (Chromium) tests
+export default defineConfig({
+  test: {
+    projects: [
+      {
+        test: {
+          name: 'unit',
+          include: ['tests/unit/**/*.test.ts'],
+          environment: 'node',
+        },
+      },
+      {
+        plugins: [vue()],
+        test: {
+          name: 'components',
+          include: ['tests/components/**/*.test.ts'],
+          environment: 'happy-dom',
+        },
+      },
+      {
+        test: {
+          name: 'nuxt',
+          include: ['tests/nuxt/**/*.test.ts', 'tests/e2e/**/*.test.ts'],
+          environment: 'node',
+          fileParallelism: false,
+          testTimeout: 60_000,
+          hookTimeout: 180_000,
+        },
+      },
+    ],
+  },
+})
