@@ -1,0 +1,163 @@
+#!/usr/bin/env node
+// A private MariaDB for this checkout: data under .data/mariadb, socket and
+// pid under .data/run, TCP on 127.0.0.1:3307 only. It never touches the
+// system instance (/etc/mysql, port 3306) because every call passes
+// --no-defaults. Usage: node scripts/db.mjs start|stop|status
+import { spawn, spawnSync } from 'node:child_process'
+import { existsSync, mkdirSync, readFileSync, openSync } from 'node:fs'
+import { dirname, join, resolve } from 'node:path'
+import { fileURLToPath } from 'node:url'
+
+const root = resolve(dirname(fileURLToPath(import.meta.url)), '..')
+const dataRoot = join(root, '.data')
+const dataDir = join(dataRoot, 'mariadb')
+const runDir = join(dataRoot, 'run')
+const socket = join(runDir, 'mysqld.sock')
+const pidFile = join(runDir, 'mysqld.pid')
+const errorLog = join(dataRoot, 'mysqld.err')
+// EQUIPOISE_DB_PORT lets a second checkout (a CI check beside a working copy) run its own instance.
+const port = Number(process.env.EQUIPOISE_DB_PORT || 3307)
+const appUser = 'equipoise'
+const appPassword = 'equipoise'
+const databases = ['equipoise', 'equipoise_test']
+
+const sleep = (ms) => new Promise((r) => setTimeout(r, ms))
+
+function which(cmd) {
+  return spawnSync('sh', ['-c', `command -v ${cmd}`], { encoding: 'utf8' }).status === 0
+}
+
+function ensureInstalled() {
+  if (which('mariadbd') || existsSync('/usr/sbin/mariadbd')) return
+  const isRoot = typeof process.getuid === 'function' && process.getuid() === 0
+  if (!isRoot) {
+    console.error('MariaDB is not installed. Install it once with:\n\n  sudo apt-get update && sudo apt-get install -y mariadb-server\n')
+    process.exit(1)
+  }
+  console.log('Installing mariadb-server with apt-get …')
+  for (const args of [['update'], ['install', '-y', 'mariadb-server']]) {
+    const r = spawnSync('apt-get', args, { stdio: 'inherit', env: { ...process.env, DEBIAN_FRONTEND: 'noninteractive' } })
+    if (r.status !== 0) {
+      console.error(`apt-get ${args.join(' ')} failed; install mariadb-server by hand and run again.`)
+      process.exit(1)
+    }
+  }
+}
+
+function mariadbdPath() {
+  return existsSync('/usr/sbin/mariadbd') ? '/usr/sbin/mariadbd' : 'mariadbd'
+}
+
+function readPid() {
+  try {
+    return Number(readFileSync(pidFile, 'utf8').trim()) || null
+  } catch {
+    return null
+  }
+}
+
+function alive(pid) {
+  if (!pid) return false
+  try {
+    process.kill(pid, 0)
+    return true
+  } catch {
+    return false
+  }
+}
+
+function ping() {
+  return spawnSync('mariadb-admin', ['--no-defaults', `--socket=${socket}`, '-uroot', 'ping'], { stdio: 'ignore' }).status === 0
+}
+
+function rootSql(sql) {
+  const r = spawnSync('mariadb', ['--no-defaults', `--socket=${socket}`, '-uroot', '-e', sql], { encoding: 'utf8' })
+  if (r.status !== 0) throw new Error(`SQL failed: ${r.stderr.trim()}`)
+}
+
+function initialise() {
+  if (existsSync(join(dataDir, 'mysql'))) return
+  mkdirSync(dataDir, { recursive: true })
+  console.log('Initialising a private MariaDB in .data/mariadb …')
+  const r = spawnSync('mariadb-install-db', [
+    '--no-defaults', `--datadir=${dataDir}`, '--user=root',
+    '--auth-root-authentication-method=socket', '--skip-test-db',
+  ], { encoding: 'utf8' })
+  if (r.status !== 0) {
+    console.error(r.stdout, r.stderr)
+    process.exit(1)
+  }
+}
+
+function provision() {
+  const statements = [
+    `CREATE USER IF NOT EXISTS '${appUser}'@'127.0.0.1' IDENTIFIED BY '${appPassword}'`,
+    `CREATE USER IF NOT EXISTS '${appUser}'@'localhost' IDENTIFIED BY '${appPassword}'`,
+  ]
+  for (const db of databases) {
+    statements.push(`CREATE DATABASE IF NOT EXISTS \`${db}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`)
+    statements.push(`GRANT ALL PRIVILEGES ON \`${db}\`.* TO '${appUser}'@'127.0.0.1'`)
+    statements.push(`GRANT ALL PRIVILEGES ON \`${db}\`.* TO '${appUser}'@'localhost'`)
+  }
+  rootSql(statements.join(';\n'))
+}
+
+async function start() {
+  ensureInstalled()
+  mkdirSync(runDir, { recursive: true })
+  if (alive(readPid()) && ping()) {
+    provision()
+    console.log(`MariaDB already running on 127.0.0.1:${port}`)
+    return
+  }
+  initialise()
+  const log = openSync(errorLog, 'a')
+  const child = spawn(mariadbdPath(), [
+    '--no-defaults', '--user=root', `--datadir=${dataDir}`, `--socket=${socket}`,
+    `--pid-file=${pidFile}`, `--port=${port}`, '--bind-address=127.0.0.1',
+    '--skip-name-resolve', `--log-error=${errorLog}`, '--innodb-buffer-pool-size=64M',
+    '--character-set-server=utf8mb4', '--collation-server=utf8mb4_unicode_ci',
+  ], { detached: true, stdio: ['ignore', log, log] })
+  child.unref()
+  const deadline = Date.now() + 30_000
+  while (!ping()) {
+    if (Date.now() > deadline || child.exitCode !== null) {
+      console.error(`MariaDB did not start; see ${errorLog}`)
+      process.exit(1)
+    }
+    await sleep(100)
+  }
+  provision()
+  console.log(`MariaDB running on 127.0.0.1:${port} (data in .data/mariadb)`)
+}
+
+async function stop() {
+  const pid = readPid()
+  if (!alive(pid)) {
+    console.log('MariaDB is not running')
+    return
+  }
+  spawnSync('mariadb-admin', ['--no-defaults', `--socket=${socket}`, '-uroot', 'shutdown'], { stdio: 'inherit' })
+  const deadline = Date.now() + 30_000
+  while (alive(pid) && Date.now() < deadline) await sleep(100)
+  console.log(alive(pid) ? `MariaDB (pid ${pid}) is still stopping` : 'MariaDB stopped')
+}
+
+function status() {
+  const pid = readPid()
+  if (alive(pid) && ping()) {
+    console.log(`MariaDB running (pid ${pid}) on 127.0.0.1:${port}`)
+  } else {
+    console.log('MariaDB is not running')
+    process.exitCode = 3
+  }
+}
+
+const command = process.argv[2]
+if (command === 'start') await start()
+else if (command === 'stop') await stop()
+else if (command === 'status') status()
+else {
+  console.error('Usage: node scripts/db.mjs start|stop|status')
+  process.exit(2)
+}

@@ -1,0 +1,122 @@
+/**
+ * Every table of Equipoise, with its relations, in one place. Migrations are
+ * generated from this file by drizzle-kit (`npm run db:generate`) into
+ * server/database/migrations/ and committed.
+ */
+import { relations, sql } from 'drizzle-orm'
+import {
+  boolean, datetime, index, int, json, longtext, mysqlEnum, mysqlTable, primaryKey,
+  text, uniqueIndex, varchar,
+} from 'drizzle-orm/mysql-core'
+import { LAB_ROLES } from '../../shared/utils/roles'
+
+const createdAt = datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`)
+
+export const users = mysqlTable('users', {
+  id: int('id').autoincrement().primaryKey(),
+  email: varchar('email', { length: 254 }).notNull(),
+  name: varchar('name', { length: 120 }).notNull(),
+  passwordHash: varchar('password_hash', { length: 255 }).notNull(),
+  isAdmin: boolean('is_admin').notNull().default(false),
+  createdAt,
+}, (t) => [uniqueIndex('users_email_unique').on(t.email)])
+
+export const labs = mysqlTable('labs', {
+  id: int('id').autoincrement().primaryKey(),
+  slug: varchar('slug', { length: 64 }).notNull(),
+  name: varchar('name', { length: 120 }).notNull(),
+  createdBy: int('created_by').references(() => users.id, { onDelete: 'set null' }),
+  createdAt,
+}, (t) => [uniqueIndex('labs_slug_unique').on(t.slug)])
+
+export const labMembers = mysqlTable('lab_members', {
+  labId: int('lab_id').notNull().references(() => labs.id, { onDelete: 'cascade' }),
+  userId: int('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  role: mysqlEnum('role', LAB_ROLES).notNull(),
+  createdAt,
+}, (t) => [
+  primaryKey({ columns: [t.labId, t.userId] }),
+  index('lab_members_user_idx').on(t.userId),
+])
+
+export const systems = mysqlTable('systems', {
+  id: int('id').autoincrement().primaryKey(),
+  labId: int('lab_id').notNull().references(() => labs.id, { onDelete: 'cascade' }),
+  slug: varchar('slug', { length: 64 }).notNull(),
+  title: varchar('title', { length: 200 }).notNull(),
+  /** A library system holds curated constants that other systems import. */
+  isLibrary: boolean('is_library').notNull().default(false),
+  createdBy: int('created_by').references(() => users.id, { onDelete: 'set null' }),
+  createdAt,
+}, (t) => [uniqueIndex('systems_lab_slug_unique').on(t.labId, t.slug)])
+
+export const revisions = mysqlTable('revisions', {
+  id: int('id').autoincrement().primaryKey(),
+  systemId: int('system_id').notNull().references(() => systems.id, { onDelete: 'cascade' }),
+  number: int('number').notNull(),
+  /** The revision this one was edited from (null for revision 1). */
+  parentId: int('parent_id'),
+  source: longtext('source').notNull(),
+  sha256: varchar('sha256', { length: 64 }).notNull(),
+  authorId: int('author_id').references(() => users.id, { onDelete: 'set null' }),
+  message: varchar('message', { length: 500 }).notNull().default(''),
+  createdAt,
+}, (t) => [uniqueIndex('revisions_system_number_unique').on(t.systemId, t.number)])
+
+export const runs = mysqlTable('runs', {
+  id: int('id').autoincrement().primaryKey(),
+  revisionId: int('revision_id').notNull().references(() => revisions.id, { onDelete: 'cascade' }),
+  solverVersion: varchar('solver_version', { length: 40 }).notNull(),
+  options: json('options').notNull(),
+  result: longtext('result'),
+  status: mysqlEnum('status', ['ok', 'failed', 'diverged']).notNull(),
+  timingMs: int('timing_ms').notNull().default(0),
+  createdBy: int('created_by').references(() => users.id, { onDelete: 'set null' }),
+  createdAt,
+}, (t) => [index('runs_revision_idx').on(t.revisionId)])
+
+export const auditLog = mysqlTable('audit_log', {
+  id: int('id').autoincrement().primaryKey(),
+  actorId: int('actor_id').references(() => users.id, { onDelete: 'set null' }),
+  labId: int('lab_id').references(() => labs.id, { onDelete: 'set null' }),
+  action: varchar('action', { length: 64 }).notNull(),
+  /** What the action was about, as a short JSON object (ids, slugs, roles). */
+  detail: text('detail'),
+  createdAt,
+}, (t) => [index('audit_log_lab_idx').on(t.labId)])
+
+export const usersRelations = relations(users, ({ many }) => ({
+  memberships: many(labMembers),
+}))
+
+export const labsRelations = relations(labs, ({ many }) => ({
+  members: many(labMembers),
+  systems: many(systems),
+}))
+
+export const labMembersRelations = relations(labMembers, ({ one }) => ({
+  lab: one(labs, { fields: [labMembers.labId], references: [labs.id] }),
+  user: one(users, { fields: [labMembers.userId], references: [users.id] }),
+}))
+
+export const systemsRelations = relations(systems, ({ one, many }) => ({
+  lab: one(labs, { fields: [systems.labId], references: [labs.id] }),
+  revisions: many(revisions),
+}))
+
+export const revisionsRelations = relations(revisions, ({ one, many }) => ({
+  system: one(systems, { fields: [revisions.systemId], references: [systems.id] }),
+  author: one(users, { fields: [revisions.authorId], references: [users.id] }),
+  runs: many(runs),
+}))
+
+export const runsRelations = relations(runs, ({ one }) => ({
+  revision: one(revisions, { fields: [runs.revisionId], references: [revisions.id] }),
+}))
+
+export type User = typeof users.$inferSelect
+export type Lab = typeof labs.$inferSelect
+export type LabMember = typeof labMembers.$inferSelect
+export type System = typeof systems.$inferSelect
+export type Revision = typeof revisions.$inferSelect
+export type Run = typeof runs.$inferSelect
