@@ -1,0 +1,207 @@
+/**
+ * The equilibrium solver: `solve` for one state of a model, `sweep` for the
+ * study the model declares. Plain TypeScript with explicit imports, shared by
+ * the server routes, the worker, the CLI, the tests and the benchmark.
+ */
+import type { Model } from '../../shared/poise/model'
+import type { Result, SweepResult } from '../../shared/types/result'
+import { Workspace, type Limits, type SolverState } from './newton'
+import { solveWithPhases } from './phases'
+import { MODE_BALANCE, MODE_TOTAL, buildProblem, setComponent, setTemperature, type Problem } from './problem'
+import { buildResult } from './report'
+
+/** Stored with every run, so a result can be traced to the solver that made it. */
+export const SOLVER_VERSION = '1.0.0'
+
+/** Hard ceilings the server may rely on whatever a caller asks for. */
+export const SOLVER_LIMITS = { maxIterations: 2000, timeBudgetMs: 60_000 } as const
+
+export interface SolveOptions {
+  /** Newton iterations allowed for one solve, all solid sets together (default 300). */
+  maxIterations?: number
+  /** Wall-clock budget in ms for this call (a whole sweep for `sweep`); default 10 s. */
+  timeBudgetMs?: number
+  /** Absolute deadline as a Date.now() value; the earlier of this and timeBudgetMs applies. */
+  deadline?: number
+}
+
+const DEFAULT_ITERATIONS = 300
+const DEFAULT_BUDGET_MS = 10_000
+/** Cold guesses of log10 a(H+) tried in turn when a solve fails. */
+const PROTON_GUESSES = [-7, -3, -11]
+
+function deadlineOf(options: SolveOptions | undefined): number {
+  const budget = Math.min(options?.timeBudgetMs ?? DEFAULT_BUDGET_MS, SOLVER_LIMITS.timeBudgetMs)
+  let end = performance.now() + Math.max(0, budget)
+  if (options?.deadline !== undefined && Number.isFinite(options.deadline)) {
+    end = Math.min(end, performance.now() + (options.deadline - Date.now()))
+  }
+  return end
+}
+
+function iterationsOf(options: SolveOptions | undefined): number {
+  const n = Math.floor(options?.maxIterations ?? DEFAULT_ITERATIONS)
+  return Math.max(1, Math.min(Number.isFinite(n) ? n : DEFAULT_ITERATIONS, SOLVER_LIMITS.maxIterations))
+}
+
+function newState(p: Problem): SolverState {
+  return { x: new Float64Array(p.nc), n: new Float64Array(p.nsol), active: new Uint8Array(p.nsol), u: 0 }
+}
+
+function copyState(to: SolverState, from: SolverState): void {
+  to.x.set(from.x); to.n.set(from.n); to.active.set(from.active); to.u = from.u
+}
+
+/** Starting point: free forms at their totals, H+ at the given log activity, √I from the totals. */
+function coldStart(p: Problem, state: SolverState, logH: number): void {
+  let half = 0
+  for (let j = 0; j < p.nc; j++) {
+    const c = p.model.components[j]
+    if (p.mode[j] === MODE_TOTAL || p.mode[j] === MODE_BALANCE) {
+      const t = p.total[j]
+      state.x[j] = j === p.hIndex ? logH : p.mode[j] === MODE_TOTAL && t > 0 ? Math.log10(t) : -10
+      if (t > 0) half += c.charge * c.charge * t
+    } else if (c.mode === 'free') {
+      half += c.charge * c.charge * c.value
+    }
+  }
+  state.n.fill(0)
+  state.active.fill(0)
+  state.u = Math.min(Math.sqrt(0.5 * half), 3)
+}
+
+interface Attempt { result: Result; ok: boolean }
+
+function attempt(ws: Workspace, state: SolverState, limits: Limits, iterationsBefore: number): Attempt {
+  const out = solveWithPhases(ws, state, limits)
+  const result = buildResult(ws, state, {
+    converged: out.ok,
+    iterations: iterationsBefore + out.iterations,
+    reason: out.ok ? undefined : `Did not converge: ${out.reason}.`,
+    notes: out.notes,
+  })
+  return { result, ok: out.ok }
+}
+
+/** Solves from `warm` if given, then from cold guesses, keeping the first success (or the last failure). */
+function solveProblem(ws: Workspace, state: SolverState, limits: Limits, warm: SolverState | null): Attempt {
+  let spent = 0
+  let last: Attempt | null = null
+  if (warm) {
+    copyState(state, warm)
+    last = attempt(ws, state, limits, 0)
+    if (last.ok) return last
+    spent = last.result.iterations
+  }
+  for (const logH of PROTON_GUESSES) {
+    if (performance.now() > limits.deadline) break
+    coldStart(ws.p, state, logH)
+    last = attempt(ws, state, limits, spent)
+    if (last.ok) return last
+    spent = last.result.iterations
+    if (ws.p.hIndex < 0 || ws.p.mode[ws.p.hIndex] > MODE_BALANCE) break
+  }
+  return last ?? attempt(ws, state, limits, spent)
+}
+
+/** A Result for a model that could not be set up at all. */
+function unsolvable(model: Model | null | undefined, reason: string): Result {
+  return {
+    converged: false, iterations: 0,
+    temperatureC: Number.isFinite(model?.temperatureC) ? (model as Model).temperatureC : 25,
+    pH: 0, ionicStrength: 0, species: [], solids: [], gases: [], components: [],
+    residuals: { maxScaled: 0 }, reason,
+  }
+}
+
+function internalFailure(model: Model, error: unknown): Result {
+  const what = error instanceof Error ? error.message : String(error)
+  return unsolvable(model, `The solver stopped on an internal error (${what}); please report this model.`)
+}
+
+/** Equilibrium of the model at its own conditions. Never throws. */
+export function solve(model: Model, options?: SolveOptions): Result {
+  try {
+    const built = buildProblem(model)
+    if ('error' in built) return unsolvable(model, built.error)
+    const ws = new Workspace(built.problem)
+    const limits = { maxIterations: iterationsOf(options), deadline: deadlineOf(options) }
+    return solveProblem(ws, newState(built.problem), limits, null).result
+  } catch (error) {
+    return internalFailure(model, error)
+  }
+}
+
+/** Moves the problem to sweep value v; returns why it cannot, or null. */
+function applySweepValue(p: Problem, variable: string, j: number, v: number): string | null {
+  if (!Number.isFinite(v)) return `the sweep value ${v} is not a number`
+  switch (variable) {
+    case 'pH':
+      setComponent(p, j, 'pH', v)
+      return null
+    case 'total':
+      if (v < 0) return `a total of ${v} mol/L is negative`
+      setComponent(p, j, 'total', v)
+      return null
+    case 'pressure':
+      if (v <= 0) return `a pressure of ${v} atm is not positive`
+      setComponent(p, j, 'pressure', v)
+      return null
+    case 'temperature':
+      if (v <= -273.15) return `${v} °C is below absolute zero`
+      setTemperature(p, v)
+      return null
+    default:
+      return `the sweep variable ${variable} is not known`
+  }
+}
+
+function sweepComponentIndex(model: Model): { index: number } | { error: string } {
+  const sw = model.sweep!
+  if (sw.variable === 'temperature') return { index: -1 }
+  const name = sw.variable === 'pH' ? 'H+' : sw.component
+  const index = model.components.findIndex((c) => c.name === name)
+  if (index < 0) return { error: `the sweep names ${name ?? 'no component'}, which is not a component of the model` }
+  return { index }
+}
+
+/**
+ * The model's sweep: each point starts from the previous converged point
+ * (continuation); a point that fails is marked converged:false with its
+ * reason and the sweep goes on. Never throws.
+ */
+export function sweep(model: Model, options?: SolveOptions): SweepResult {
+  const sw = model?.sweep
+  const values = Array.isArray(sw?.values) ? sw.values : []
+  const base: SweepResult = { variable: sw?.variable ?? 'pH', component: sw?.component ?? null, values, points: [] }
+  if (!sw) return { ...base, points: [unsolvable(model, 'The model declares no sweep.')] }
+  try {
+    const built = buildProblem(model)
+    if ('error' in built) return { ...base, points: values.map(() => unsolvable(model, built.error)) }
+    const p = built.problem
+    const target = sweepComponentIndex(model)
+    if ('error' in target) return { ...base, points: values.map(() => unsolvable(model, `The sweep cannot run: ${target.error}.`)) }
+    const ws = new Workspace(p)
+    const state = newState(p)
+    const previous = newState(p)
+    let havePrevious = false
+    const maxIterations = iterationsOf(options)
+    const deadline = deadlineOf(options)
+    for (const v of values) {
+      const bad = applySweepValue(p, sw.variable, target.index, v)
+      if (bad) { base.points.push(unsolvable(model, `This sweep point cannot be solved: ${bad}.`)); continue }
+      if (performance.now() > deadline) {
+        base.points.push(unsolvable(model, 'The time limit for the sweep ran out before this point.'))
+        continue
+      }
+      const out = solveProblem(ws, state, { maxIterations, deadline }, havePrevious ? previous : null)
+      if (out.ok) { copyState(previous, state); havePrevious = true }
+      base.points.push(out.result)
+    }
+    return base
+  } catch (error) {
+    return { ...base, points: [internalFailure(model, error)] }
+  }
+}
+
+export type { Result, SweepResult }

@@ -1,0 +1,390 @@
+/**
+ * Damped Newton–Raphson for one active set of solids. Unknowns: log10 a of
+ * the components under a mass or charge balance, the amounts of the present
+ * solids, and u = √I when the activity model needs it (so ionic strength is
+ * solved with everything else, not iterated around it).
+ */
+import { LuDecomposition, Matrix } from 'ml-matrix'
+import { dLogGammaDu, logGamma } from './activity'
+import {
+  MODE_BALANCE, MODE_FIXED_CONCENTRATION, MODE_TOTAL, type Problem,
+} from './problem'
+
+/** Every scaled residual must fall below this. */
+export const RESIDUAL_TOLERANCE = 1e-10
+/** And the last Newton step below this, in log10 units. */
+export const STEP_TOLERANCE = 1e-12
+/** Largest change of any log10 a in one iteration. */
+const MAX_LOG_STEP = 1.5
+/** Largest change of √I in one iteration. */
+const MAX_ROOT_I_STEP = 0.5
+/** Iterations spent below the residual tolerance without the step shrinking: the rounding floor. */
+const FLOOR_ITERATIONS = 3
+/** log10 c is clamped here so an overshooting guess gives a huge residual, never Infinity. */
+const MAX_LOG_CONCENTRATION = 300
+
+export interface SolverState {
+  /** log10 activity of every component (fixed ones filled in by the solver). */
+  x: Float64Array
+  /** mol/L of each solid (0 when absent). */
+  n: Float64Array
+  active: Uint8Array
+  /** √I, mol^½ L^−½. */
+  u: number
+}
+
+export interface Limits {
+  maxIterations: number
+  /** performance.now() value after which the solve gives up. */
+  deadline: number
+}
+
+export interface NewtonOutcome {
+  ok: boolean
+  iterations: number
+  maxScaled: number
+  /** Row of the worst residual (see Workspace.rowName). */
+  worstRow: number
+  reason?: string
+  singular?: boolean
+}
+
+/** Scratch arrays sized once per problem, reused by every iteration and every sweep point. */
+export class Workspace {
+  readonly lc: Float64Array
+  readonly c: Float64Array
+  readonly g: Float64Array
+  /** d log10 c_i / du at fixed unknowns. */
+  readonly dlc: Float64Array
+  /** d log10 a_j / du of each fixed-concentration component. */
+  readonly dxdu: Float64Array
+  readonly rowComponent: Int32Array
+  readonly rowSolid: Int32Array
+  readonly F: Float64Array
+  readonly scale: Float64Array
+  readonly Ftrial: Float64Array
+  readonly scaleTrial: Float64Array
+  readonly delta: Float64Array
+  readonly x0: Float64Array
+  readonly n0: Float64Array
+  nUnknownComponents = 0
+  nActive = 0
+  hasU = false
+  dim = 0
+  private readonly matrices = new Map<number, Matrix>()
+  private readonly rhs = new Map<number, Matrix>()
+
+  constructor(readonly p: Problem) {
+    const rows = p.nc + p.nsol + 1
+    this.lc = new Float64Array(p.nsp)
+    this.c = new Float64Array(p.nsp)
+    this.g = new Float64Array(p.nsp)
+    this.dlc = new Float64Array(p.nsp)
+    this.dxdu = new Float64Array(p.nc)
+    this.rowComponent = new Int32Array(p.nc)
+    this.rowSolid = new Int32Array(p.nsol)
+    this.F = new Float64Array(rows)
+    this.scale = new Float64Array(rows)
+    this.Ftrial = new Float64Array(rows)
+    this.scaleTrial = new Float64Array(rows)
+    this.delta = new Float64Array(rows)
+    this.x0 = new Float64Array(p.nc)
+    this.n0 = new Float64Array(p.nsol)
+  }
+
+  /** Lays out the rows for the present solids. */
+  layout(state: SolverState): void {
+    const p = this.p
+    let r = 0
+    for (let j = 0; j < p.nc; j++) if (p.mode[j] === MODE_TOTAL || p.mode[j] === MODE_BALANCE) this.rowComponent[r++] = j
+    this.nUnknownComponents = r
+    let a = 0
+    for (let s = 0; s < p.nsol; s++) if (state.active[s]) this.rowSolid[a++] = s
+    this.nActive = a
+    this.hasU = p.activity !== 0 && p.fixedRootI < 0
+    this.dim = r + a + (this.hasU ? 1 : 0)
+  }
+
+  matrix(dim: number): Matrix {
+    let m = this.matrices.get(dim)
+    if (!m) { m = new Matrix(dim, dim); this.matrices.set(dim, m) }
+    return m
+  }
+
+  column(dim: number): Matrix {
+    let m = this.rhs.get(dim)
+    if (!m) { m = new Matrix(dim, 1); this.rhs.set(dim, m) }
+    return m
+  }
+
+  /** Plain words for an equation row. */
+  rowName(row: number): string {
+    const p = this.p
+    if (row < this.nUnknownComponents) {
+      const j = this.rowComponent[row]
+      const name = p.model.components[j].name
+      return p.mode[j] === MODE_BALANCE ? `the charge balance (solved for ${name})` : `the mass balance of ${name}`
+    }
+    if (row < this.nUnknownComponents + this.nActive) {
+      return `the saturation of ${p.model.solids[this.rowSolid[row - this.nUnknownComponents]].name}`
+    }
+    return 'the ionic strength'
+  }
+}
+
+/**
+ * Fills the fixed components' activities, then log10 c, c and log10 γ of every
+ * species, and d log10 c/du, at (x, u).
+ */
+export function computeSpecies(ws: Workspace, x: Float64Array, u: number): void {
+  const p = ws.p
+  const { nc, nsp, nu, logK } = p
+  const uu = p.fixedRootI >= 0 ? p.fixedRootI : u
+  for (let i = 0; i < nsp; i++) {
+    const ba = p.B * p.ionSize[i]
+    ws.g[i] = logGamma(p.activity, p.A, ba, p.z2[i], uu)
+    ws.dlc[i] = -dLogGammaDu(p.activity, p.A, ba, p.z2[i], uu)
+  }
+  // A `free` component holds its concentration, so its activity moves with γ:
+  // log10 a_j = log10 c_j + log10 γ_j(u); dxdu carries that dependence.
+  const dxdu = ws.dxdu
+  for (let j = 0; j < nc; j++) {
+    dxdu[j] = 0
+    const m = p.mode[j]
+    if (m === MODE_TOTAL || m === MODE_BALANCE) continue
+    x[j] = p.fixedLog[j]
+    const k = p.componentSpecies[j]
+    if (m === MODE_FIXED_CONCENTRATION && k >= 0) {
+      x[j] += ws.g[k]
+      dxdu[j] = -ws.dlc[k]
+    }
+  }
+  for (let i = 0; i < nsp; i++) {
+    let l = logK[i] - ws.g[i]
+    let d = ws.dlc[i]
+    const row = i * nc
+    for (let j = 0; j < nc; j++) {
+      const v = nu[row + j]
+      if (v !== 0) { l += v * x[j]; d += v * dxdu[j] }
+    }
+    if (l > MAX_LOG_CONCENTRATION) l = MAX_LOG_CONCENTRATION
+    ws.lc[i] = l
+    ws.c[i] = Math.pow(10, l)
+    ws.dlc[i] = d
+  }
+}
+
+/** Residuals F and their natural scales at the species last computed, for the current layout. */
+export function computeResiduals(ws: Workspace, x: Float64Array, n: Float64Array, u: number, F: Float64Array, scale: Float64Array): void {
+  const p = ws.p
+  const { nc, nsp, nu, charge, z2 } = p
+  const c = ws.c
+  const nr = ws.nUnknownComponents
+  for (let r = 0; r < nr; r++) {
+    const j = ws.rowComponent[r]
+    let sum = 0
+    let mag = 0
+    if (p.mode[j] === MODE_BALANCE) {
+      for (let i = 0; i < nsp; i++) { const q = charge[i] * c[i]; sum += q; mag += Math.abs(q) }
+    } else {
+      for (let i = 0; i < nsp; i++) {
+        const v = nu[i * nc + j]
+        if (v !== 0) { const q = v * c[i]; sum += q; mag += Math.abs(q) }
+      }
+      for (let a = 0; a < ws.nActive; a++) {
+        const s = ws.rowSolid[a]
+        const q = p.solidNu[s * nc + j] * n[s]
+        sum += q; mag += Math.abs(q)
+      }
+      sum -= p.total[j]
+      mag = Math.max(mag, Math.abs(p.total[j]))
+    }
+    F[r] = sum
+    scale[r] = mag > 0 ? mag : 1e-300
+  }
+  for (let a = 0; a < ws.nActive; a++) {
+    const s = ws.rowSolid[a]
+    let si = p.solidLogK[s]
+    for (let j = 0; j < nc; j++) si += p.solidNu[s * nc + j] * x[j]
+    F[nr + a] = si
+    scale[nr + a] = 1
+  }
+  if (ws.hasU) {
+    let half = 0
+    for (let i = 0; i < nsp; i++) half += z2[i] * c[i]
+    half *= 0.5
+    const row = nr + ws.nActive
+    F[row] = u * u - half
+    const mag = Math.max(u * u, half)
+    scale[row] = mag > 0 ? mag : 1e-300
+  }
+}
+
+/** The Jacobian of F over the unknowns, each row divided by scale, into J. */
+function assembleJacobian(ws: Workspace, x: Float64Array, u: number, scale: Float64Array, J: Matrix): void {
+  const p = ws.p
+  const { nc, nsp, nu, charge, z2 } = p
+  const nr = ws.nUnknownComponents
+  const na = ws.nActive
+  const dim = ws.dim
+  const uCol = nr + na
+  const data = (J as unknown as { data: Float64Array[] }).data
+  for (let r = 0; r < dim; r++) data[r].fill(0)
+  for (let i = 0; i < nsp; i++) {
+    const w = Math.LN10 * ws.c[i]
+    if (w === 0) continue
+    const base = i * nc
+    for (let r = 0; r < nr; r++) {
+      const j = ws.rowComponent[r]
+      const rc = p.mode[j] === MODE_BALANCE ? charge[i] : nu[base + j]
+      if (rc === 0) continue
+      const row = data[r]
+      const wr = w * rc
+      for (let k = 0; k < nr; k++) {
+        const v = nu[base + ws.rowComponent[k]]
+        if (v !== 0) row[k] += wr * v
+      }
+      if (ws.hasU) row[uCol] += wr * ws.dlc[i]
+    }
+    if (ws.hasU && z2[i] !== 0) {
+      const row = data[uCol]
+      const wr = -0.5 * w * z2[i]
+      for (let k = 0; k < nr; k++) {
+        const v = nu[base + ws.rowComponent[k]]
+        if (v !== 0) row[k] += wr * v
+      }
+      row[uCol] += wr * ws.dlc[i]
+    }
+  }
+  for (let a = 0; a < na; a++) {
+    const s = ws.rowSolid[a]
+    for (let r = 0; r < nr; r++) {
+      const j = ws.rowComponent[r]
+      if (p.mode[j] === MODE_TOTAL) data[r][nr + a] = p.solidNu[s * nc + j]
+    }
+    const row = data[nr + a]
+    for (let k = 0; k < nr; k++) row[k] = p.solidNu[s * nc + ws.rowComponent[k]]
+    if (ws.hasU) {
+      let d = 0
+      for (let j = 0; j < nc; j++) d += p.solidNu[s * nc + j] * ws.dxdu[j]
+      row[uCol] = d
+    }
+  }
+  if (ws.hasU) data[uCol][uCol] += 2 * u
+  for (let r = 0; r < dim; r++) {
+    const inv = 1 / scale[r]
+    const row = data[r]
+    for (let k = 0; k < dim; k++) row[k] *= inv
+  }
+}
+
+function maxScaledOf(ws: Workspace, F: Float64Array, scale: Float64Array): { max: number; row: number } {
+  let max = 0
+  let row = 0
+  for (let r = 0; r < ws.dim; r++) {
+    const v = Math.abs(F[r] / scale[r])
+    if (!(v <= max)) { max = Number.isNaN(v) ? Infinity : v; row = r }
+  }
+  return { max, row }
+}
+
+function meritOf(ws: Workspace, F: Float64Array, scale: Float64Array): number {
+  let m = 0
+  for (let r = 0; r < ws.dim; r++) { const v = F[r] / scale[r]; m += v * v }
+  return Number.isNaN(m) ? Infinity : m
+}
+
+/** Writes the unknowns plus t·delta into (x, n) from (x0, n0); returns the new u. */
+function applyStep(ws: Workspace, state: SolverState, u0: number, t: number): number {
+  const nr = ws.nUnknownComponents
+  for (let r = 0; r < nr; r++) { const j = ws.rowComponent[r]; state.x[j] = ws.x0[j] + t * ws.delta[r] }
+  for (let a = 0; a < ws.nActive; a++) { const s = ws.rowSolid[a]; state.n[s] = ws.n0[s] + t * ws.delta[nr + a] }
+  return ws.hasU ? Math.max(0, u0 + t * ws.delta[nr + ws.nActive]) : u0
+}
+
+/** Solves J·delta = −F/scale; false when J is singular. */
+function newtonDirection(ws: Workspace, state: SolverState): boolean {
+  const dim = ws.dim
+  const J = ws.matrix(dim)
+  assembleJacobian(ws, state.x, state.u, ws.scale, J)
+  const b = ws.column(dim)
+  for (let r = 0; r < dim; r++) b.set(r, 0, -ws.F[r] / ws.scale[r])
+  const lu = new LuDecomposition(J)
+  if (lu.isSingular()) return false
+  const sol = lu.solve(b)
+  for (let r = 0; r < dim; r++) {
+    const v = sol.get(r, 0)
+    if (!Number.isFinite(v)) return false
+    ws.delta[r] = v
+  }
+  return true
+}
+
+/** Size of the step for the convergence test: log units for activities, relative for amounts and √I. */
+function stepSize(ws: Workspace, state: SolverState): number {
+  const p = ws.p
+  const nr = ws.nUnknownComponents
+  let m = 0
+  for (let r = 0; r < nr; r++) m = Math.max(m, Math.abs(ws.delta[r]))
+  for (let a = 0; a < ws.nActive; a++) {
+    const s = ws.rowSolid[a]
+    let ref = Math.abs(state.n[s])
+    for (let j = 0; j < p.nc; j++) ref = Math.max(ref, Math.abs(p.solidNu[s * p.nc + j] * p.total[j]))
+    m = Math.max(m, Math.abs(ws.delta[nr + a]) / (ref > 0 ? ref : 1))
+  }
+  if (ws.hasU) m = Math.max(m, Math.abs(ws.delta[nr + ws.nActive]) / Math.max(state.u, 1e-12))
+  return m
+}
+
+/**
+ * Newton iterations from `state` (updated in place) for the active set in it.
+ * Converged when every scaled residual < RESIDUAL_TOLERANCE and the Newton
+ * step < STEP_TOLERANCE, or when the residuals have stayed below tolerance for
+ * FLOOR_ITERATIONS iterations while rounding keeps the step from shrinking.
+ */
+export function newton(ws: Workspace, state: SolverState, limits: Limits): NewtonOutcome {
+  ws.layout(state)
+  const nr = ws.nUnknownComponents
+  let belowTolerance = 0
+  let worst = { max: Infinity, row: 0 }
+  for (let it = 0; it <= limits.maxIterations; it++) {
+    computeSpecies(ws, state.x, state.u)
+    computeResiduals(ws, state.x, state.n, state.u, ws.F, ws.scale)
+    worst = maxScaledOf(ws, ws.F, ws.scale)
+    if (ws.dim === 0) return { ok: true, iterations: it, maxScaled: 0, worstRow: 0 }
+    if (worst.max < RESIDUAL_TOLERANCE) belowTolerance++
+    if (it === limits.maxIterations || performance.now() > limits.deadline) break
+    if (!newtonDirection(ws, state)) {
+      return {
+        ok: false, iterations: it, maxScaled: worst.max, worstRow: worst.row, singular: true,
+        reason: `the equations became dependent (singular Jacobian) near ${ws.rowName(worst.row)}`,
+      }
+    }
+    if (worst.max < RESIDUAL_TOLERANCE && (stepSize(ws, state) < STEP_TOLERANCE || belowTolerance >= FLOOR_ITERATIONS)) {
+      return { ok: true, iterations: it, maxScaled: worst.max, worstRow: worst.row }
+    }
+    let cap = 1
+    for (let r = 0; r < nr; r++) cap = Math.min(cap, MAX_LOG_STEP / Math.max(Math.abs(ws.delta[r]), 1e-300))
+    if (ws.hasU) cap = Math.min(cap, MAX_ROOT_I_STEP / Math.max(Math.abs(ws.delta[nr + ws.nActive]), 1e-300))
+    ws.x0.set(state.x)
+    ws.n0.set(state.n)
+    const u0 = state.u
+    const merit0 = meritOf(ws, ws.F, ws.scale)
+    // Backtracking on the residuals scaled as at the current point, so an overshoot
+    // shows as a larger merit instead of saturating at 1.
+    let t = cap
+    for (let k = 0; k < 40; k++) {
+      state.u = applyStep(ws, state, u0, t)
+      computeSpecies(ws, state.x, state.u)
+      computeResiduals(ws, state.x, state.n, state.u, ws.Ftrial, ws.scaleTrial)
+      const merit = meritOf(ws, ws.Ftrial, ws.scale)
+      if (merit <= (1 - 2e-4 * t) * merit0 || merit0 < 1e-28) break
+      t *= 0.5
+    }
+  }
+  const stoppedBy = performance.now() > limits.deadline ? 'the time limit ran out' : `${limits.maxIterations} iterations`
+  return {
+    ok: false, iterations: limits.maxIterations, maxScaled: worst.max, worstRow: worst.row,
+    reason: `${ws.rowName(worst.row)} did not close after ${stoppedBy}: scaled residual ${worst.max.toExponential(2)}`,
+  }
+}

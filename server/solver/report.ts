@@ -1,0 +1,106 @@
+/**
+ * Turns the solved state into the Result JSON: every aqueous species, every
+ * solid with its saturation index, gases, component totals, residuals and
+ * warnings. Nothing here may put NaN or Infinity into the output.
+ */
+import type { ComponentResult, GasResult, Result, SolidResult, SpeciesResult } from '../../shared/types/result'
+import { ACTIVITY_RANGE_LIMIT } from './activity'
+import { computeResiduals, computeSpecies, type SolverState, type Workspace } from './newton'
+import { saturationIndex } from './phases'
+import { MODE_FIXED_ACTIVITY } from './problem'
+
+/** Finite stand-in for values that overflowed or are undefined (never NaN in JSON). */
+const safe = (v: number, fallback = 0) => (Number.isFinite(v) ? v : fallback)
+
+export interface ReportInput {
+  converged: boolean
+  iterations: number
+  reason?: string
+  notes: string[]
+}
+
+export function buildResult(ws: Workspace, state: SolverState, info: ReportInput): Result {
+  const p = ws.p
+  const m = p.model
+  ws.layout(state)
+  computeSpecies(ws, state.x, state.u)
+  computeResiduals(ws, state.x, state.n, state.u, ws.F, ws.scale)
+  const equations: { name: string; scaled: number }[] = []
+  let maxScaled = 0
+  for (let r = 0; r < ws.dim; r++) {
+    const v = safe(Math.abs(ws.F[r] / ws.scale[r]), 1)
+    equations.push({ name: ws.rowName(r), scaled: v })
+    maxScaled = Math.max(maxScaled, v)
+  }
+  const species: SpeciesResult[] = []
+  let ionic = 0
+  for (let i = 0; i < p.nsp; i++) {
+    const s = m.species[p.speciesIndex[i]]
+    const c = ws.c[i]
+    const gamma = Math.pow(10, ws.g[i])
+    ionic += 0.5 * p.z2[i] * c
+    species.push({
+      name: s.name, charge: s.charge,
+      concentration: safe(c), log10: safe(ws.lc[i], -400),
+      activity: safe(c * gamma), gamma: safe(gamma, 1),
+    })
+  }
+  const ionicStrength = p.fixedRootI >= 0 ? p.fixedRootI * p.fixedRootI : ionic
+  const solids: SolidResult[] = m.solids.map((s, k) => ({
+    name: s.name,
+    present: state.active[k] === 1,
+    amount: state.active[k] === 1 ? safe(state.n[k]) : 0,
+    saturationIndex: safe(saturationIndex(p, state.x, k), -999),
+    ...(s.suppressed ? { suppressed: true } : {}),
+  }))
+  const components: ComponentResult[] = m.components.map((comp, j) => {
+    let dissolved = 0
+    for (let i = 0; i < p.nsp; i++) dissolved += p.nu[i * p.nc + j] * ws.c[i]
+    let inSolids = 0
+    for (let k = 0; k < p.nsol; k++) if (state.active[k]) inSolids += p.solidNu[k * p.nc + j] * state.n[k]
+    const own = p.componentSpecies[j]
+    const free = own >= 0 ? ws.c[own] : Math.pow(10, state.x[j])
+    return { name: comp.name, mode: comp.mode, total: safe(dissolved + inSolids), free: safe(free), dissolved: safe(dissolved) }
+  })
+  m.components.forEach((comp, j) => {
+    if (comp.mode === 'excess' && p.mode[j] === MODE_FIXED_ACTIVITY && !solids.some((s) => s.name === comp.name)) {
+      solids.push({ name: comp.name, present: true, amount: components[j].dissolved ?? 0, saturationIndex: 0 })
+    }
+  })
+  const gases: GasResult[] = m.gases.map((g, k) => {
+    let l = p.gasLogK[k]
+    for (let j = 0; j < p.nc; j++) l += p.gasNu[k * p.nc + j] * state.x[j]
+    return { name: g.name, pressure: safe(Math.pow(10, l)), log10: safe(l, -400) }
+  })
+  const warnings = [...info.notes, ...rangeWarnings(ws, ionicStrength)]
+  const hasH = p.hIndex >= 0
+  if (!hasH) warnings.push('The system has no H+ component, so pH is not defined (reported as 0).')
+  const result: Result = {
+    converged: info.converged,
+    iterations: info.iterations,
+    temperatureC: p.temperatureC,
+    pH: hasH ? safe(-state.x[p.hIndex]) : 0,
+    ionicStrength: safe(ionicStrength),
+    species, solids, gases, components,
+    residuals: { maxScaled, equations },
+  }
+  if (!info.converged) result.reason = info.reason ?? 'the solver stopped without closing every equation'
+  if (warnings.length > 0) result.warnings = warnings
+  return result
+}
+
+function rangeWarnings(ws: Workspace, ionicStrength: number): string[] {
+  const out: string[] = []
+  const name = ws.p.model.activity
+  if (name === 'davies' || name === 'debye-huckel') {
+    const limit = ACTIVITY_RANGE_LIMIT[name]
+    if (ionicStrength > limit) {
+      out.push(`Ionic strength ${ionicStrength.toPrecision(3)} mol/L is above the usual range of the ${name} model (about ${limit} mol/L); activity coefficients are rough there.`)
+    }
+  } else if (ionicStrength > 0.01) {
+    out.push(`Ionic strength ${ionicStrength.toPrecision(3)} mol/L with ideal activities: concentrations and activities differ noticeably above about 0.01 mol/L.`)
+  }
+  const t = ws.p.temperatureC
+  if (t < 0 || t > 100) out.push(`Temperature ${t} °C is outside 0–100 °C, where the water properties behind the Debye–Hückel parameters hold.`)
+  return out
+}
