@@ -1,0 +1,259 @@
+/**
+ * Sweep results → plot-ready series for the three diagrams the trade reads:
+ * distribution (fraction of a component's dissolved total in each species),
+ * log concentration of every species, and solubility (the component's
+ * dissolved total). Pure data, no plotting library: the diagram component
+ * draws what this returns, and the tests check it.
+ *
+ * A point whose solve failed is a gap (NaN), never a zero: a zero would draw
+ * a plausible-looking curve through a value nobody computed.
+ */
+
+import type { Result, SweepResult } from '../types/result'
+import { dissolvedTotal, speciesShares, type StoichiometryModel } from './share'
+import { typesetFormula } from './typeset'
+
+export type DiagramKind = 'distribution' | 'logConcentration' | 'solubility'
+
+/** The kinds in the order the segmented control shows them, with their words. */
+export const DIAGRAM_KINDS: { kind: DiagramKind; label: string }[] = [
+  { kind: 'distribution', label: 'Distribution' },
+  { kind: 'logConcentration', label: 'Log concentration' },
+  { kind: 'solubility', label: 'Solubility' },
+]
+
+export function isDiagramKind(value: unknown): value is DiagramKind {
+  return DIAGRAM_KINDS.some((k) => k.kind === value)
+}
+
+/**
+ * The colour-blind-safe palette of Okabe & Ito (2008), "Color Universal
+ * Design (CUD): how to make figures and presentations that are friendly to
+ * colorblind people", in its published order.
+ */
+export const OKABE_ITO = [
+  '#000000', // black
+  '#E69F00', // orange
+  '#56B4E9', // sky blue
+  '#009E73', // bluish green
+  '#F0E442', // yellow
+  '#0072B2', // blue
+  '#D55E00', // vermillion
+  '#CC79A7', // reddish purple
+] as const
+
+/** Past eight species the colours repeat with a different dash, so no two series look alike. */
+const DASHES = [null, '6 3', '2 2', '8 3 2 3'] as const
+
+export interface SeriesStyle {
+  color: string
+  /** SVG stroke-dasharray, or null for a solid line. */
+  dash: string | null
+}
+
+/** The style of the species at `index` in the model: the same in every diagram of the system. */
+export function styleForIndex(index: number): SeriesStyle {
+  const i = Math.max(0, index)
+  return {
+    color: OKABE_ITO[i % OKABE_ITO.length],
+    dash: DASHES[Math.floor(i / OKABE_ITO.length) % DASHES.length],
+  }
+}
+
+/** Log-concentration curves that stay below this (mol/L) are hidden unless asked for. */
+export const DEFAULT_CONCENTRATION_FLOOR = 1e-14
+/** Distribution curves whose fraction stays below this are hidden unless asked for. */
+export const DISTRIBUTION_FLOOR = 1e-3
+
+export interface DiagramSeries {
+  /** Species name in caret form (or a description for the solubility lines). */
+  key: string
+  label: string
+  color: string
+  dash: string | null
+  /** One value per sweep point; NaN where the point failed. */
+  values: number[]
+}
+
+export interface DiagramData {
+  kind: DiagramKind
+  xLabel: string
+  yLabel: string
+  /** True when the swept values span decades (a log sweep of a total or pressure). */
+  xLog: boolean
+  /** Fixed y range where the kind has one (fractions 0..1), else null. */
+  yDomain: [number, number] | null
+  x: number[]
+  series: DiagramSeries[]
+  /** Series left out because they stay below the floor (caret names). */
+  hidden: string[]
+  /** Indices of the points whose solve failed. */
+  failedPoints: number[]
+}
+
+export interface DiagramOptions {
+  kind: DiagramKind
+  /** Component for distribution and solubility (ignored by log concentration). */
+  component: string | null
+  /** mol/L; default 1e-14. */
+  floor?: number
+  /** Show the series below the floor too. */
+  showAll?: boolean
+}
+
+/** Axis label of the swept variable, in words with its unit. */
+export function sweepAxisLabel(sweep: Pick<SweepResult, 'variable' | 'component'>): string {
+  const name = sweep.component ? typesetFormula(sweep.component) : ''
+  switch (sweep.variable) {
+    case 'pH':
+      return 'pH'
+    case 'total':
+      return `Total ${name} (mol/L)`
+    case 'temperature':
+      return 'Temperature (°C)'
+    case 'pressure':
+      return `Partial pressure of ${name} (atm)`
+  }
+}
+
+function spansDecades(values: number[]): boolean {
+  if (values.length < 2 || values.some((v) => !(v > 0))) return false
+  return Math.max(...values) / Math.min(...values) >= 100
+}
+
+function valueAt(point: Result | undefined, read: (r: Result) => number): number {
+  if (!point || !point.converged) return Number.NaN
+  const value = read(point)
+  return Number.isFinite(value) ? value : Number.NaN
+}
+
+function maxFinite(values: number[]): number {
+  let max = -Infinity
+  for (const v of values) if (Number.isFinite(v) && v > max) max = v
+  return max
+}
+
+function speciesIndex(model: StoichiometryModel, name: string): number {
+  const i = model.species.findIndex((s) => s.name === name)
+  return i < 0 ? model.species.length : i
+}
+
+/** Every species named in the sweep, model order first, so colours stay put between runs. */
+function sweepSpecies(sweep: SweepResult, model: StoichiometryModel): string[] {
+  const seen = new Set<string>()
+  for (const point of sweep.points) for (const s of point.species) seen.add(s.name)
+  return [...seen].sort((a, b) => speciesIndex(model, a) - speciesIndex(model, b))
+}
+
+function seriesFor(model: StoichiometryModel, name: string, values: number[]): DiagramSeries {
+  return { key: name, label: typesetFormula(name), ...styleForIndex(speciesIndex(model, name)), values }
+}
+
+function concentrationOf(result: Result, name: string): number {
+  return result.species.find((s) => s.name === name)?.concentration ?? Number.NaN
+}
+
+function distribution(sweep: SweepResult, model: StoichiometryModel, component: string): DiagramSeries[] {
+  const j = model.components.findIndex((c) => c.name === component)
+  if (j < 0) return []
+  const holders = new Set(model.species.filter((s) => s.nu[j] > 0).map((s) => s.name))
+  const shares = sweep.points.map((p) => (p.converged ? speciesShares(p, model, component) : null))
+  return sweepSpecies(sweep, model)
+    .filter((name) => holders.has(name))
+    .map((name) =>
+      seriesFor(
+        model,
+        name,
+        sweep.points.map((p, k) => {
+          const i = p.species.findIndex((s) => s.name === name)
+          const share = shares[k]?.[i]
+          return share !== undefined && Number.isFinite(share) ? share : Number.NaN
+        }),
+      ),
+    )
+}
+
+function logConcentration(sweep: SweepResult, model: StoichiometryModel): DiagramSeries[] {
+  return sweepSpecies(sweep, model).map((name) =>
+    seriesFor(
+      model,
+      name,
+      sweep.points.map((p) => valueAt(p, (r) => Math.log10(concentrationOf(r, name)))),
+    ),
+  )
+}
+
+function solubility(sweep: SweepResult, model: StoichiometryModel, component: string): DiagramSeries[] {
+  if (!model.components.some((c) => c.name === component)) return []
+  const name = typesetFormula(component)
+  const analytical = (r: Result) => r.components.find((c) => c.name === component)?.total ?? Number.NaN
+  return [
+    {
+      key: 'dissolved',
+      label: `Dissolved ${name}`,
+      ...styleForIndex(0),
+      values: sweep.points.map((p) => valueAt(p, (r) => Math.log10(dissolvedTotal(r, model, component)))),
+    },
+    {
+      key: 'total',
+      label: `Total ${name}, dissolved and solid`,
+      color: OKABE_ITO[0],
+      dash: DASHES[1],
+      values: sweep.points.map((p) => valueAt(p, (r) => Math.log10(analytical(r)))),
+    },
+  ]
+}
+
+/** Map a sweep to the series of one diagram kind. */
+export function diagramData(sweep: SweepResult, model: StoichiometryModel, options: DiagramOptions): DiagramData {
+  const component = options.component ?? ''
+  const componentName = typesetFormula(component)
+  let series: DiagramSeries[]
+  let yLabel: string
+  let yDomain: [number, number] | null = null
+  let floor = -Infinity
+  switch (options.kind) {
+    case 'distribution':
+      series = distribution(sweep, model, component)
+      yLabel = `Fraction of dissolved ${componentName}`
+      yDomain = [0, 1]
+      floor = DISTRIBUTION_FLOOR
+      break
+    case 'logConcentration':
+      series = logConcentration(sweep, model)
+      yLabel = 'log₁₀ of concentration in mol/L'
+      floor = Math.log10(options.floor ?? DEFAULT_CONCENTRATION_FLOOR)
+      break
+    case 'solubility':
+      series = solubility(sweep, model, component)
+      yLabel = `log₁₀ of ${componentName} in mol/L`
+      break
+  }
+  const below = series.filter((s) => !(maxFinite(s.values) >= floor))
+  const shown = options.showAll ? series : series.filter((s) => !below.includes(s))
+  return {
+    kind: options.kind,
+    xLabel: sweepAxisLabel(sweep),
+    yLabel,
+    xLog: (sweep.variable === 'total' || sweep.variable === 'pressure') && spansDecades(sweep.values),
+    yDomain,
+    x: sweep.values,
+    series: shown,
+    hidden: options.showAll ? [] : below.map((s) => s.key),
+    failedPoints: sweep.points.flatMap((p, k) => (p.converged ? [] : [k])),
+  }
+}
+
+/** One row per series per point, the tidy shape a plotting library takes. y is NaN in a gap. */
+export interface DiagramRow {
+  x: number
+  y: number
+  key: string
+  label: string
+}
+
+export function diagramRows(data: DiagramData): DiagramRow[] {
+  return data.series.flatMap((s) =>
+    data.x.map((x, k) => ({ x, y: s.values[k] ?? Number.NaN, key: s.key, label: s.label })),
+  )
+}

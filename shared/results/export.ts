@@ -1,0 +1,133 @@
+/**
+ * Files a chemist takes away: CSV of one result (a tidy table, one quantity
+ * a row, so every line has the same columns as RFC 4180 asks) and of a sweep
+ * (one row a point), and the JSON as the solver wrote it. Numbers keep full
+ * precision: JavaScript's shortest round-trip form, never the rounded table
+ * display.
+ */
+
+import type { Result, SweepResult } from '../types/result'
+
+/** Quote a field when it holds a comma, a quote or a line break (RFC 4180 §2.6–2.7). */
+export function csvField(value: string): string {
+  return /[",\r\n]/.test(value) ? `"${value.replace(/"/g, '""')}"` : value
+}
+
+/** Lines end in CRLF (RFC 4180 §2.1); the last line too. */
+export function csvLines(rows: string[][]): string {
+  return rows.map((row) => row.map(csvField).join(',') + '\r\n').join('')
+}
+
+/**
+ * A number in full precision. NaN (nothing computed) is an empty cell;
+ * infinities are written so that `Number()` reads them back.
+ */
+export function csvNumber(value: number | undefined | null): string {
+  if (value === undefined || value === null || Number.isNaN(value)) return ''
+  return String(value)
+}
+
+const RESULT_HEADER = ['section', 'name', 'quantity', 'value', 'unit']
+
+/** One result as a tidy CSV: conditions, species, solids, gases and components. */
+export function resultCsv(result: Result): string {
+  const rows: string[][] = [RESULT_HEADER]
+  const add = (section: string, name: string, quantity: string, value: string, unit = '') =>
+    rows.push([section, name, quantity, value, unit])
+
+  add('conditions', '', 'converged', String(result.converged))
+  if (result.reason) add('conditions', '', 'reason', result.reason)
+  add('conditions', '', 'iterations', String(result.iterations))
+  add('conditions', '', 'temperature', csvNumber(result.temperatureC), '°C')
+  add('conditions', '', 'pH', csvNumber(result.pH))
+  add('conditions', '', 'ionic strength', csvNumber(result.ionicStrength), 'mol/L')
+  add('conditions', '', 'max scaled residual', csvNumber(result.residuals.maxScaled))
+  for (const s of result.species) {
+    add('species', s.name, 'charge', String(s.charge))
+    add('species', s.name, 'concentration', csvNumber(s.concentration), 'mol/L')
+    add('species', s.name, 'log10 concentration', csvNumber(s.log10), 'log10(mol/L)')
+    add('species', s.name, 'activity', csvNumber(s.activity), 'mol/L')
+    add('species', s.name, 'activity coefficient', csvNumber(s.gamma))
+  }
+  for (const s of result.solids) {
+    add('solid', s.name, 'present', String(s.present))
+    add('solid', s.name, 'amount', csvNumber(s.amount), 'mol/L')
+    add('solid', s.name, 'saturation index', csvNumber(s.saturationIndex))
+    if (s.suppressed) add('solid', s.name, 'suppressed', 'true')
+  }
+  for (const g of result.gases ?? []) {
+    add('gas', g.name, 'partial pressure', csvNumber(g.pressure), 'atm')
+    add('gas', g.name, 'log10 partial pressure', csvNumber(g.log10), 'log10(atm)')
+  }
+  for (const c of result.components) {
+    add('component', c.name, 'mode', c.mode)
+    add('component', c.name, 'total', csvNumber(c.total), 'mol/L')
+    add('component', c.name, 'free', csvNumber(c.free), 'mol/L')
+    if (c.dissolved !== undefined) add('component', c.name, 'dissolved', csvNumber(c.dissolved), 'mol/L')
+  }
+  for (const w of result.warnings ?? []) add('conditions', '', 'warning', w)
+  return csvLines(rows)
+}
+
+/** Header of the swept variable's column, with its unit. */
+function sweepVariableHeader(sweep: SweepResult): string {
+  switch (sweep.variable) {
+    case 'pH':
+      return 'swept pH'
+    case 'total':
+      return `total ${sweep.component ?? ''} (mol/L)`
+    case 'temperature':
+      return 'temperature (°C)'
+    case 'pressure':
+      return `pressure ${sweep.component ?? ''} (atm)`
+  }
+}
+
+/**
+ * A sweep as CSV, one row a point: the swept value, whether it converged,
+ * pH, ionic strength and every species' concentration. A failed point keeps
+ * its row with empty numbers and the reason, so row k is always point k.
+ */
+export function sweepCsv(sweep: SweepResult): string {
+  const names: string[] = []
+  for (const point of sweep.points) for (const s of point.species) if (!names.includes(s.name)) names.push(s.name)
+  const header = [
+    sweepVariableHeader(sweep),
+    'converged',
+    'pH',
+    'ionic strength (mol/L)',
+    ...names.map((n) => `${n} (mol/L)`),
+    'reason',
+  ]
+  const rows = sweep.values.map((x, k) => {
+    const point = sweep.points[k]
+    if (!point || !point.converged) {
+      return [csvNumber(x), 'false', '', '', ...names.map(() => ''), point?.reason ?? 'no result for this point']
+    }
+    const byName = new Map(point.species.map((s) => [s.name, s.concentration]))
+    return [
+      csvNumber(x),
+      'true',
+      csvNumber(point.pH),
+      csvNumber(point.ionicStrength),
+      ...names.map((n) => csvNumber(byName.get(n))),
+      '',
+    ]
+  })
+  return csvLines([header, ...rows])
+}
+
+/** The JSON export: the object as the solver produced it, indented for reading. */
+export function jsonExport(value: Result | SweepResult): string {
+  return JSON.stringify(value, null, 2) + '\n'
+}
+
+/** A file name safe on every common file system, from a title or slug; never empty. */
+export function safeFileName(base: string): string {
+  const cleaned = base
+    .normalize('NFKD')
+    .replace(/[^\w.-]+/g, '-')
+    .replace(/-{2,}/g, '-')
+    .replace(/^[-.]+|[-.]+$/g, '')
+  return cleaned.slice(0, 120) || 'equipoise-result'
+}
