@@ -1,0 +1,102 @@
+import { describe, expect, it } from 'vitest'
+import { csvField, csvLines, csvNumber, jsonExport, resultCsv, safeFileName, sweepCsv } from '../../../shared/results/export'
+import { carbonateSweep, copperAmmoniaResult } from './fixtures'
+import { parseCsv } from './csvParse'
+
+describe('CSV quoting (RFC 4180)', () => {
+  it('quotes fields with commas, quotes and line breaks, and doubles inner quotes', () => {
+    expect(csvField('plain')).toBe('plain')
+    expect(csvField('a,b')).toBe('"a,b"')
+    expect(csvField('say "hi"')).toBe('"say ""hi"""')
+    expect(csvField('two\nlines')).toBe('"two\nlines"')
+  })
+
+  it('reads back exactly what was written, awkward text included', () => {
+    const rows = [
+      ['name', 'note'],
+      ['Cu(NH3)4^2+', 'a "deep blue", complex'],
+      ['x', 'line one\r\nline two'],
+    ]
+    expect(parseCsv(csvLines(rows))).toEqual(rows)
+  })
+})
+
+describe('resultCsv', () => {
+  const result = copperAmmoniaResult()
+  const rows = parseCsv(resultCsv(result))
+
+  it('has one header with a unit column and the same number of fields on every line', () => {
+    expect(rows[0]).toEqual(['section', 'name', 'quantity', 'value', 'unit'])
+    expect(rows.every((r) => r.length === 5)).toBe(true)
+  })
+
+  it('writes five rows a species, and concentrations in full precision with their unit', () => {
+    const species = rows.filter((r) => r[0] === 'species')
+    expect(species.length).toBe(result.species.length * 5)
+    for (const s of result.species) {
+      const row = species.find((r) => r[1] === s.name && r[2] === 'concentration')!
+      expect(Number(row[3])).toBe(s.concentration)
+      expect(row[4]).toBe('mol/L')
+    }
+  })
+
+  it('writes the conditions and the components', () => {
+    const pH = rows.find((r) => r[0] === 'conditions' && r[2] === 'pH')!
+    expect(Number(pH[3])).toBe(result.pH)
+    const cu = rows.find((r) => r[0] === 'component' && r[1] === 'Cu^2+' && r[2] === 'total')!
+    expect(Number(cu[3])).toBe(result.components[1].total)
+  })
+
+  it('writes a failed run with its reason, quoted when it holds a comma', () => {
+    const failed = { ...result, converged: false, reason: 'mass balance of NH3 did not close, last residual 0.2' }
+    const back = parseCsv(resultCsv(failed))
+    expect(back.find((r) => r[2] === 'converged')![3]).toBe('false')
+    expect(back.find((r) => r[2] === 'reason')![3]).toBe(failed.reason)
+  })
+})
+
+describe('sweepCsv', () => {
+  const sweep = carbonateSweep()
+  const rows = parseCsv(sweepCsv(sweep))
+
+  it('has a header with units and one row a point', () => {
+    expect(rows[0].slice(0, 4)).toEqual(['swept pH', 'converged', 'pH', 'ionic strength (mol/L)'])
+    expect(rows[0]).toContain('HCO3- (mol/L)')
+    expect(rows.length).toBe(sweep.values.length + 1)
+  })
+
+  it('round-trips every concentration through parsing', () => {
+    const column = rows[0].indexOf('H2CO3 (mol/L)')
+    sweep.points.forEach((p, k) => {
+      if (!p.converged) return
+      expect(Number(rows[k + 1][column])).toBe(p.species.find((s) => s.name === 'H2CO3')!.concentration)
+    })
+  })
+
+  it('keeps a failed point as a row with empty numbers and the reason', () => {
+    const k = sweep.values.indexOf(9)
+    const row = rows[k + 1]
+    expect(row[0]).toBe('9')
+    expect(row[1]).toBe('false')
+    expect(row.slice(2, -1).every((cell) => cell === '')).toBe(true)
+    expect(row.at(-1)).toBe('mass balance of CO3^2- did not close')
+  })
+})
+
+describe('numbers and names', () => {
+  it('writes NaN as an empty cell and infinities so Number() reads them back', () => {
+    expect(csvNumber(Number.NaN)).toBe('')
+    expect(Number(csvNumber(-Infinity))).toBe(-Infinity)
+    expect(Number(csvNumber(1.2345678901234567e-9))).toBe(1.2345678901234567e-9)
+  })
+
+  it('exports JSON as it is', () => {
+    const result = copperAmmoniaResult()
+    expect(JSON.parse(jsonExport(result))).toEqual(result)
+  })
+
+  it('makes a safe file name from a title', () => {
+    expect(safeFileName('Rinse tank / Cu·NH3, rev 4')).toBe('Rinse-tank-Cu-NH3-rev-4')
+    expect(safeFileName('///')).toBe('equipoise-result')
+  })
+})
