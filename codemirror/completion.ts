@@ -1,0 +1,126 @@
+/**
+ * Completion for Poise. Position decides what a word is (a unit follows a
+ * number, a constant kind follows a reaction's last species), so the source
+ * lexes the line up to the cursor and offers what may stand there. Every
+ * word offered comes from the language's own lists (KEYWORDS, UNITS,
+ * CONSTANT_KINDS) or from the last compile's symbols.
+ */
+import type { Completion, CompletionContext, CompletionResult } from '@codemirror/autocomplete'
+import type { EditorState } from '@codemirror/state'
+import type { PoiseSymbol } from '../shared/poise/index'
+import { CONSTANT_KINDS, KEYWORDS, UNITS } from '../shared/poise/tokens'
+import { poiseSymbolsField } from './analysis'
+import { lexLine, type LineToken } from './language'
+
+/** Words that open a statement, in the order a file usually has them. */
+const STATEMENT_WORDS = ['system', 'temperature', 'activity', 'ionic-strength', 'component', 'reaction', 'solid', 'source', 'use', 'sweep']
+const COMPONENT_SPECS = ['total', 'free', 'pH', 'pressure', 'balance', 'excess']
+const ACTIVITY_MODELS = ['ideal', 'davies', 'debye-huckel']
+const REACTION_TAIL = ['dH', 'cite']
+const SWEEP_VARIABLES = ['pH', 'total', 'temperature', 'pressure']
+const SWEEP_WORDS = ['from', 'to', 'step', 'points', 'log']
+
+/** The part of a word already typed: formulas, keywords with `-`, units such as `mmol/L`, `°C`. */
+const WORD_BEFORE_CURSOR = /[A-Za-z°µ][\w°µ/()^·:+-]*$/
+
+export type CompletionKind = 'keyword' | 'unit' | 'constantKind' | 'symbol'
+
+export interface CompletionPlan {
+  kind: CompletionKind
+  words: string[]
+}
+
+/** Only the words the language itself lists, so completion never offers a word the compiler rejects. */
+function known(words: readonly string[], list: readonly string[]): string[] {
+  return words.filter((word) => list.includes(word))
+}
+
+function symbolNames(symbols: readonly PoiseSymbol[], kinds?: PoiseSymbol['kind'][]): string[] {
+  return symbols.filter((s) => !kinds || kinds.includes(s.kind)).map((s) => s.name)
+}
+
+/**
+ * What may be typed after `before` (the tokens of the line left of the word
+ * being typed). Null when nothing useful can be offered there.
+ */
+export function planCompletion(before: LineToken[], symbols: readonly PoiseSymbol[]): CompletionPlan | null {
+  const last = before[before.length - 1]
+  if (!last) return { kind: 'keyword', words: known(STATEMENT_WORDS, KEYWORDS) }
+  if (last.role === 'comment') return null
+  const statement = before[0]!.image
+  if (statement === 'reaction') return planReaction(before, symbols)
+  if (last.role === 'number') return { kind: 'unit', words: [...UNITS] }
+  switch (statement) {
+    case 'component':
+      if (before.length === 1) return { kind: 'symbol', words: symbolNames(symbols) }
+      if (before.length === 2) return { kind: 'keyword', words: known(COMPONENT_SPECS, KEYWORDS) }
+      return null
+    case 'activity':
+      return before.length === 1 ? { kind: 'keyword', words: known(ACTIVITY_MODELS, KEYWORDS) } : null
+    case 'solid':
+      if (before.length === 1) return { kind: 'symbol', words: symbolNames(symbols, ['solid']) }
+      return before.length === 2 ? { kind: 'keyword', words: known(['suppressed'], KEYWORDS) } : null
+    case 'sweep':
+      if (before.length === 1) return { kind: 'keyword', words: known(SWEEP_VARIABLES, KEYWORDS) }
+      if (last.image === 'total' || last.image === 'pressure') return { kind: 'symbol', words: symbolNames(symbols, ['component']) }
+      return { kind: 'keyword', words: known(SWEEP_WORDS, KEYWORDS) }
+    default:
+      return null
+  }
+}
+
+function planReaction(before: LineToken[], symbols: readonly PoiseSymbol[]): CompletionPlan | null {
+  const last = before[before.length - 1]!
+  const kindAt = before.findIndex((t) => t.role === 'constantKind')
+  if (kindAt >= 0) {
+    if (last.role === 'number') {
+      const afterEnthalpy = before[before.length - 2]?.image === 'dH'
+      return afterEnthalpy ? { kind: 'unit', words: [...UNITS] } : { kind: 'keyword', words: known(REACTION_TAIL, KEYWORDS) }
+    }
+    return last.role === 'unit' ? { kind: 'keyword', words: known(REACTION_TAIL, KEYWORDS) } : null
+  }
+  // Before the constant: species are joined by `+`, a number is a coefficient.
+  const hasArrow = before.some((t) => t.role === 'arrow')
+  if (last.role === 'formula' && hasArrow) return { kind: 'constantKind', words: [...CONSTANT_KINDS] }
+  if (before.length === 1 || last.role === 'plus' || last.role === 'arrow' || last.role === 'number') {
+    return { kind: 'symbol', words: symbolNames(symbols) }
+  }
+  return null
+}
+
+const COMPLETION_TYPE: Record<CompletionKind, string> = {
+  keyword: 'keyword',
+  unit: 'unit',
+  constantKind: 'constant',
+  symbol: 'variable',
+}
+
+function toOptions(plan: CompletionPlan, symbols: readonly PoiseSymbol[]): Completion[] {
+  return [...new Set(plan.words)].map((word) => ({
+    label: word,
+    type: COMPLETION_TYPE[plan.kind],
+    detail: plan.kind === 'symbol' ? symbols.find((s) => s.name === word)?.kind : plan.kind === 'constantKind' ? 'constant' : undefined,
+  }))
+}
+
+/** The completions at `pos`, or null; split out of the source so it can be checked on a bare state. */
+export function completionsAt(state: EditorState, pos: number, explicit: boolean): CompletionResult | null {
+  const line = state.doc.lineAt(pos)
+  const textBefore = line.text.slice(0, pos - line.from)
+  const typed = WORD_BEFORE_CURSOR.exec(textBefore)
+  const wordFrom = typed ? textBefore.length - typed[0].length : textBefore.length
+  if (!typed && !explicit && !/\s$/.test(textBefore)) return null
+  const before = lexLine(textBefore.slice(0, wordFrom))
+  const symbols = state.field(poiseSymbolsField, false) ?? []
+  const plan = planCompletion(before, symbols)
+  if (!plan || plan.words.length === 0) return null
+  return {
+    from: line.from + wordFrom,
+    options: toOptions(plan, symbols),
+    validFor: /^[\w°µ/()^·:+-]*$/,
+  }
+}
+
+export function poiseCompletionSource(context: CompletionContext): CompletionResult | null {
+  return completionsAt(context.state, context.pos, context.explicit)
+}

@@ -1,0 +1,97 @@
+/**
+ * Hover on a formula: what the compiler made of that species — composition
+ * and charge read from the formula, molar mass, and the log10 formation
+ * constant from the components after the reactions were chained.
+ */
+import { hoverTooltip, type Tooltip } from '@codemirror/view'
+import type { EditorState } from '@codemirror/state'
+import type { PoiseSymbol } from '../shared/poise/index'
+import { parseFormula } from '../shared/poise/formula'
+import { poiseSymbolsField } from './analysis'
+import { lexLine } from './language'
+import { typesetFormula } from './typeset'
+
+export interface SymbolDescription {
+  /** Typeset name, e.g. `Cu(NH₃)₄²⁺`. */
+  title: string
+  kind: PoiseSymbol['kind']
+  /** Element counts in the order the formula gives them. */
+  composition: { element: string; count: number }[]
+  /** Signed charge as chemists write it: `+2`, `0`, `−1`. */
+  charge: string
+  molarMass: string
+  /** `log₁₀ β = 13.10`, or the reason there is no constant. */
+  formation: string
+}
+
+export function formatCharge(charge: number): string {
+  if (charge > 0) return `+${charge}`
+  if (charge < 0) return `−${-charge}`
+  return '0'
+}
+
+export function describeSymbol(symbol: PoiseSymbol): SymbolDescription {
+  return {
+    title: typesetFormula(symbol.name),
+    kind: symbol.kind,
+    composition: Object.entries(symbol.elements).map(([element, count]) => ({ element, count })),
+    charge: formatCharge(symbol.charge),
+    molarMass: `${symbol.molarMass.toFixed(3)} g/mol`,
+    formation: describeFormation(symbol),
+  }
+}
+
+function describeFormation(symbol: PoiseSymbol): string {
+  if (symbol.kind === 'component') return 'a component (its own basis, log₁₀ β = 0)'
+  if (symbol.logK === null) return 'formation constant not resolved (see the diagnostics)'
+  const label = symbol.kind === 'species' ? 'log₁₀ β' : 'log₁₀ K'
+  return `${label} = ${symbol.logK.toFixed(2)} (formation from the components)`
+}
+
+/** The symbol a formula written in the document stands for, whichever way it is written (`Ca²⁺`, `Ca^2+`). */
+export function findSymbol(symbols: readonly PoiseSymbol[], written: string): PoiseSymbol | undefined {
+  const name = parseFormula(written).formula?.name ?? written
+  return symbols.find((symbol) => symbol.name === name)
+}
+
+/** The description of the species under document position `pos`, with the formula's range. */
+export function symbolAt(state: EditorState, pos: number): { from: number; to: number; description: SymbolDescription } | null {
+  const line = state.doc.lineAt(pos)
+  const offset = pos - line.from
+  const token = lexLine(line.text).find((t) => t.role === 'formula' && t.from <= offset && offset <= t.to)
+  if (!token) return null
+  const symbol = findSymbol(state.field(poiseSymbolsField, false) ?? [], token.image)
+  if (!symbol) return null
+  return { from: line.from + token.from, to: line.from + token.to, description: describeSymbol(symbol) }
+}
+
+function renderDescription(description: SymbolDescription): HTMLElement {
+  const dom = document.createElement('div')
+  dom.className = 'cm-poise-hover'
+  const title = dom.appendChild(document.createElement('div'))
+  title.className = 'cm-poise-hover-title'
+  title.textContent = `${description.title} · ${description.kind}`
+  const rows: [string, string][] = [
+    ['composition', description.composition.map((c) => `${c.element} ${c.count}`).join(', ')],
+    ['charge', description.charge],
+    ['molar mass', description.molarMass],
+    ['formation', description.formation],
+  ]
+  const table = dom.appendChild(document.createElement('dl'))
+  for (const [label, value] of rows) {
+    table.appendChild(document.createElement('dt')).textContent = label
+    table.appendChild(document.createElement('dd')).textContent = value
+  }
+  return dom
+}
+
+export const poiseHover = hoverTooltip((view, pos): Tooltip | null => {
+  const found = symbolAt(view.state, pos)
+  if (!found) return null
+  return {
+    pos: found.from,
+    end: found.to,
+    above: true,
+    create: () => ({ dom: renderDescription(found.description) }),
+  }
+})

@@ -1,0 +1,81 @@
+import { describe, expect, it } from 'vitest'
+import { EditorState } from '@codemirror/state'
+import type { PoiseSymbol } from '../../../shared/poise/index'
+import { poiseSymbolsField, setPoiseSymbols } from '../../../codemirror/analysis'
+import { completionsAt } from '../../../codemirror/completion'
+
+const range = { from: 0, to: 0, line: 1, column: 1, endLine: 1, endColumn: 1 }
+const symbol = (name: string, kind: PoiseSymbol['kind']): PoiseSymbol => ({
+  name, kind, elements: {}, charge: 0, molarMass: 0, logK: kind === 'component' ? 0 : 1, definedAt: range,
+})
+/** What the last compile of a copper–ammonia file would have declared. */
+const declared = [symbol('Cu^2+', 'component'), symbol('NH3', 'component'), symbol('CuNH3^2+', 'species'), symbol('Cu(OH)2(s)', 'solid')]
+
+/** Labels offered with the cursor at `|` in `text`. */
+function offered(text: string, explicit = false): string[] | null {
+  const pos = text.indexOf('|')
+  const doc = text.replace('|', '')
+  let state = EditorState.create({ doc, extensions: [poiseSymbolsField] })
+  state = state.update({ effects: setPoiseSymbols.of(declared) }).state
+  const result = completionsAt(state, pos, explicit)
+  return result ? result.options.map((o) => o.label) : null
+}
+
+describe('Poise completion', () => {
+  it('offers units after a number', () => {
+    const labels = offered('component NH3 total 120 |')!
+    expect(labels).toContain('mmol/L')
+    expect(labels).toContain('mg/L')
+    expect(labels).not.toContain('logK')
+  })
+
+  it('offers units while one is being typed, replacing the typed part', () => {
+    const doc = 'component NH3 total 120 mm'
+    const state = EditorState.create({ doc, extensions: [poiseSymbolsField] })
+    const result = completionsAt(state, doc.length, false)!
+    expect(result.from).toBe(doc.length - 2)
+    expect(result.options.map((o) => o.label)).toContain('mmol/L')
+  })
+
+  it('offers constant kinds after the last species of a reaction', () => {
+    const labels = offered('reaction Cu^2+ + NH3 <=> CuNH3^2+ |')!
+    expect(labels).toEqual(expect.arrayContaining(['logK', 'logbeta', 'pKa', 'pKsp', 'K']))
+    expect(labels).not.toContain('mmol/L')
+  })
+
+  it('offers no constant kind on the left of the arrow', () => {
+    expect(offered('reaction Cu^2+ |')).toBeNull()
+  })
+
+  it('offers the declared species after + and after the arrow', () => {
+    expect(offered('reaction Cu^2+ + |')).toEqual(['Cu^2+', 'NH3', 'CuNH3^2+', 'Cu(OH)2(s)'])
+    expect(offered('reaction Cu(OH)2(s) <=> C|')).toContain('Cu^2+')
+  })
+
+  it('reads a number before a species as a coefficient, not a quantity with a unit', () => {
+    const labels = offered('reaction Cu^2+ + 2 |')!
+    expect(labels).toContain('NH3')
+    expect(labels).not.toContain('mmol/L')
+  })
+
+  it('offers enthalpy units after dH and the tail keywords after the constant', () => {
+    expect(offered('reaction NH4+ <=> NH3 + H+ pKa 9.24 dH 52.2 |')).toContain('kJ/mol')
+    expect(offered('reaction NH4+ <=> NH3 + H+ pKa 9.24 |')).toEqual(['dH', 'cite'])
+  })
+
+  it('offers statement words at the start of a line and specifications after a component', () => {
+    const start = offered('|', true)!
+    expect(start).toContain('component')
+    expect(start).not.toContain('total')
+    expect(offered('component Cu^2+ |')).toEqual(['total', 'free', 'pH', 'pressure', 'balance', 'excess'])
+  })
+
+  it('offers activity models and only solids after `solid`', () => {
+    expect(offered('activity d|')).toEqual(['ideal', 'davies', 'debye-huckel'])
+    expect(offered('solid |')).toEqual(['Cu(OH)2(s)'])
+  })
+
+  it('offers nothing inside a comment', () => {
+    expect(offered('# total 12 |')).toBeNull()
+  })
+})
