@@ -299,7 +299,8 @@ function applyStep(ws: Workspace, state: SolverState, u0: number, t: number): nu
   const nr = ws.nUnknownComponents
   for (let r = 0; r < nr; r++) { const j = ws.rowComponent[r]; state.x[j] = ws.x0[j] + t * ws.delta[r] }
   for (let a = 0; a < ws.nActive; a++) { const s = ws.rowSolid[a]; state.n[s] = ws.n0[s] + t * ws.delta[nr + a] }
-  return ws.hasU ? Math.max(0, u0 + t * ws.delta[nr + ws.nActive]) : u0
+  // √I may shrink tenfold at most in one step: it must stay positive.
+  return ws.hasU ? Math.max(0.1 * u0, u0 + t * ws.delta[nr + ws.nActive]) : u0
 }
 
 /** Solves J·delta = −F/scale; false when J is singular. */
@@ -336,6 +337,26 @@ function stepSize(ws: Workspace, state: SolverState): number {
   return m
 }
 
+/** Largest √I a starting point may take (I = 25 mol/L): guesses far off must not blow γ up. */
+const MAX_START_ROOT_I = 5
+
+/**
+ * A few fixed-point passes u ← √I(u) at the starting activities. Near u = 0
+ * the ionic-strength equation u² − I(u) first falls, so Newton started below
+ * its root would step the wrong way; from the fixed point it does not.
+ */
+function settleIonicStrength(ws: Workspace, state: SolverState): void {
+  const p = ws.p
+  for (let pass = 0; pass < 4; pass++) {
+    computeSpecies(ws, state.x, state.u)
+    let half = 0
+    for (let i = 0; i < p.nsp; i++) half += p.z2[i] * ws.c[i]
+    const next = Math.min(Math.sqrt(0.5 * half), MAX_START_ROOT_I)
+    if (!Number.isFinite(next) || Math.abs(next - state.u) <= 1e-3 * next) { if (Number.isFinite(next)) state.u = next; return }
+    state.u = next
+  }
+}
+
 /**
  * Newton iterations from `state` (updated in place) for the active set in it.
  * Converged when every scaled residual < RESIDUAL_TOLERANCE and the Newton
@@ -344,6 +365,7 @@ function stepSize(ws: Workspace, state: SolverState): number {
  */
 export function newton(ws: Workspace, state: SolverState, limits: Limits): NewtonOutcome {
   ws.layout(state)
+  if (ws.hasU) settleIonicStrength(ws, state)
   const nr = ws.nUnknownComponents
   let belowTolerance = 0
   let worst = { max: Infinity, row: 0 }

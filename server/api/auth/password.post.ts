@@ -1,0 +1,16 @@
+import { eq } from 'drizzle-orm'
+import { PasswordChangeBody } from '#shared/utils/account-schemas'
+
+/** Change one's own password; the current one must be given again. */
+export default defineEventHandler(async (event) => {
+  const user = await requireUser(event)
+  const body = await validateBody(event, PasswordChangeBody)
+  const db = useDb()
+  const [row] = await db.select({ passwordHash: tables.users.passwordHash }).from(tables.users).where(eq(tables.users.id, user.id))
+  if (!row || !(await verifyPassword(row.passwordHash, body.currentPassword))) {
+    throw createError({ statusCode: 400, message: 'currentPassword: The current password is not correct', data: { issues: [{ path: 'currentPassword', message: 'The current password is not correct' }] } })
+  }
+  await db.update(tables.users).set({ passwordHash: await hashPassword(body.newPassword) }).where(eq(tables.users.id, user.id))
+  await recordAudit({ actorId: user.id, labId: null, action: 'user.password-change' })
+  return { changed: true }
+})

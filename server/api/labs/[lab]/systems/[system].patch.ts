@@ -1,0 +1,47 @@
+import { eq } from 'drizzle-orm'
+import { SystemParams, SystemUpdateBody } from '#shared/utils/lab-schemas'
+
+/**
+ * An editor renames a system and/or saves a new source as the next revision.
+ * A source edited from an older revision than the latest is refused (409) so
+ * nobody overwrites a colleague's save without seeing it.
+ */
+export default defineEventHandler(async (event) => {
+  const params = validateParams(event, SystemParams)
+  const { system, latest, user, lab } = await requireSystem(event, params.lab, params.system, 'editor')
+  const body = await validateBody(event, SystemUpdateBody)
+  const db = useDb()
+  if (body.source !== undefined && body.baseRevision !== latest.number) {
+    throw createError({
+      statusCode: 409,
+      message: `Revision ${latest.number} was saved after the revision ${body.baseRevision} you edited; reload it and apply your change again`,
+      data: { latestRevision: latest.number },
+    })
+  }
+  if (body.title !== undefined && body.title !== system.title) {
+    await db.update(tables.systems).set({ title: body.title }).where(eq(tables.systems.id, system.id))
+    await recordAudit({ actorId: user.id, labId: lab.id, action: 'system.rename', detail: { slug: system.slug, from: system.title, to: body.title } })
+  }
+  let current = latest
+  let authorName: string | null = null
+  if (body.source !== undefined) {
+    current = await addRevision({
+      systemId: system.id,
+      number: latest.number + 1,
+      parentId: latest.id,
+      source: body.source,
+      authorId: user.id,
+      message: body.message ?? '',
+    }).catch((error) => {
+      // Two saves from the same base at once: the unique (system, number) index lets one win.
+      if (isDuplicateKey(error)) throw createError({ statusCode: 409, message: 'Someone saved this system at the same moment; reload it and apply your change again' })
+      throw error
+    })
+    authorName = user.name
+    await recordAudit({ actorId: user.id, labId: lab.id, action: 'system.revise', detail: { slug: system.slug, number: current.number } })
+  } else if (latest.authorId) {
+    const [author] = await db.select({ name: tables.users.name }).from(tables.users).where(eq(tables.users.id, latest.authorId))
+    authorName = author?.name ?? null
+  }
+  return { system: { slug: system.slug, title: body.title ?? system.title, isLibrary: system.isLibrary, latest: revisionView(current, authorName) } }
+})

@@ -1,0 +1,21 @@
+import { LabCreateBody } from '#shared/utils/lab-schemas'
+
+/** Create a lab; its creator becomes its first owner. */
+export default defineEventHandler(async (event) => {
+  const user = await requireUser(event)
+  const body = await validateBody(event, LabCreateBody)
+  const db = useDb()
+  const labId = await db.transaction(async (tx) => {
+    const [inserted] = await tx.insert(tables.labs).values({ slug: body.slug, name: body.name, createdBy: user.id }).$returningId()
+    await tx.insert(tables.labMembers).values({ labId: inserted!.id, userId: user.id, role: 'owner' })
+    return inserted!.id
+  }).catch((error) => {
+    if (isDuplicateKey(error)) {
+      throw createError({ statusCode: 409, message: `The address "${body.slug}" is taken by another lab; choose another`, data: { issues: [{ path: 'slug', message: 'Taken by another lab; choose another' }] } })
+    }
+    throw error
+  })
+  await recordAudit({ actorId: user.id, labId, action: 'lab.create', detail: { slug: body.slug } })
+  setResponseStatus(event, 201)
+  return { lab: { slug: body.slug, name: body.name, role: 'owner' as const } }
+})
