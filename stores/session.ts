@@ -1,0 +1,44 @@
+/**
+ * Who is signed in, loaded once per page load from GET /api/me (on the
+ * server during SSR, forwarding the cookie) and updated by sign-in/out.
+ */
+import { defineStore } from 'pinia'
+import type { LoginInput, RegisterInput } from '#shared/utils/account-schemas'
+
+export interface SessionUser {
+  id: number
+  email: string
+  name: string
+  isAdmin: boolean
+}
+
+export const useSessionStore = defineStore('session', {
+  state: () => ({ user: null as SessionUser | null, loaded: false }),
+  getters: {
+    signedIn: (state) => state.user !== null,
+  },
+  actions: {
+    async refresh() {
+      const fetcher = useRequestFetch()
+      try {
+        const answer = await fetcher<{ user: SessionUser }>('/api/me')
+        this.user = answer.user
+      } catch {
+        this.user = null
+      }
+      this.loaded = true
+    },
+    async login(input: LoginInput) {
+      const answer = await $fetch<{ user: SessionUser }>('/api/auth/login', { method: 'POST', body: input })
+      this.user = answer.user
+    },
+    async register(input: RegisterInput) {
+      const answer = await $fetch<{ user: SessionUser }>('/api/auth/register', { method: 'POST', body: input })
+      this.user = answer.user
+    },
+    async logout() {
+      await $fetch('/api/auth/logout', { method: 'POST' })
+      this.user = null
+    },
+  },
+})
