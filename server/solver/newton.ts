@@ -383,7 +383,11 @@ export function newton(ws: Workspace, state: SolverState, limits: Limits): Newto
       }
     }
     if (worst.max < RESIDUAL_TOLERANCE && (stepSize(ws, state) < STEP_TOLERANCE || belowTolerance >= FLOOR_ITERATIONS)) {
-      return { ok: true, iterations: it, maxScaled: worst.max, worstRow: worst.row }
+      // Take the last, tiny step too: it brings the answer to rounding level.
+      ws.x0.set(state.x)
+      ws.n0.set(state.n)
+      state.u = applyStep(ws, state, state.u, 1)
+      return { ok: true, iterations: it + 1, maxScaled: worst.max, worstRow: worst.row }
     }
     let cap = 1
     for (let r = 0; r < nr; r++) cap = Math.min(cap, MAX_LOG_STEP / Math.max(Math.abs(ws.delta[r]), 1e-300))
