@@ -1,0 +1,300 @@
+/**
+ * The compiler: statements → checks → the model the solver takes. Every
+ * problem becomes a diagnostic; nothing here throws to the caller (index.ts
+ * turns even an internal bug into a diagnostic).
+ */
+import type { Model, ModelComponent, ModelGas, ModelReaction, ModelSolid, ModelSpecies, ModelSweep, ActivityModelName, ConstantKind } from './model'
+import type { Diagnostic, SourceRange } from './diagnostics'
+import { parseFormula, type ParsedFormula } from './formula'
+import { Reporter } from './report'
+import { parseFile, type Statement, type Tok } from './statements'
+import { checkComponent, dependentComponents } from './components'
+import { checkBalance, kindMismatch, logKFromConstant, resolveReactions, type Known, type PreparedReaction, type PreparedTerm, type ReactionStatement } from './reactions'
+import { compileSweep } from './sweep'
+import { convert, unitInfo, UNIT_HINTS } from './units'
+import { REFERENCE_TEMPERATURE_C, vantHoff } from './thermo'
+
+export interface CompileOptions {
+  /** Returns a library's source, or null when it (or that revision) does not exist. Synchronous. */
+  resolveLibrary?: (name: string, revision: number | null) => { source: string; revision: number } | null
+}
+
+export interface PoiseSymbol {
+  name: string
+  kind: 'component' | 'species' | 'solid' | 'gas'
+  elements: Record<string, number>
+  charge: number
+  molarMass: number | null
+  logK: number | null
+  definedAt: SourceRange
+}
+
+export interface CompileResult { model: Model | null; diagnostics: Diagnostic[]; symbols: PoiseSymbol[] }
+
+const MAX_LIBRARY_DEPTH = 8
+
+function formulaOf(t: Tok, report: Reporter | null): ParsedFormula | null {
+  const r = parseFormula(t.image)
+  if (r.problem && report) {
+    const p = r.problem
+    const fixes = p.fixes?.map((insert) => ({ label: `write ${insert}`, from: t.from, to: t.to, insert }))
+    report.error(p.code, p.message, { from: t.from + p.from, to: t.from + Math.max(p.to, p.from + 1) }, fixes)
+  }
+  return r.formula
+}
+
+interface LibraryContent { reactions: PreparedReaction[]; sources: Record<string, string>; libraries: { name: string; revision: number }[] }
+
+export function compileSource(source: string, options: CompileOptions, stack: string[] = []): CompileResult & { library: LibraryContent } {
+  const report = new Reporter(source)
+  const parsed = parseFile(source)
+  for (const p of parsed.problems) report.error(p.code, p.message, p)
+  let incomplete = parsed.incomplete
+  const st = parsed.statements
+  const of = <K extends Statement['kind']>(kind: K) => st.filter((s): s is Extract<Statement, { kind: K }> => s.kind === kind)
+
+  // system: required, once, first.
+  const systems = of('system')
+  if (systems.length === 0 && !parsed.problems.length) report.error('P003', 'a file starts with `system "TITLE"`: add it as the first line', { from: 0, to: 0 })
+  if (systems.length > 0 && st[0] !== systems[0]) report.error('P003', '`system` must be the first statement of the file', systems[0]!.keyword)
+  for (const dup of systems.slice(1)) report.error('P004', '`system` is given twice: keep one', dup.keyword)
+  for (const kind of ['temperature', 'activity', 'ionicStrength', 'sweep'] as const) {
+    for (const dup of of(kind).slice(1)) report.error('P004', `\`${dup.keyword.image}\` is given twice: keep one (one ${dup.keyword.image} a file)`, dup.keyword)
+  }
+
+  let temperatureC = REFERENCE_TEMPERATURE_C
+  const tStmt = of('temperature')[0]
+  if (tStmt) {
+    const q = tStmt.quantity
+    const t = q.unit ? convert(q.value, q.unit.image, 'temperature') : null
+    if (!q.unit) report.error('P050', `expected ${UNIT_HINTS.temperature} after ${q.number.image}`, q.number)
+    else if (t === null) report.error('P050', `${q.unit.image} is not ${UNIT_HINTS.temperature}`, q.unit)
+    else if (t <= -273.15) report.error('P081', 'a temperature must be above absolute zero', q.number)
+    else temperatureC = t
+  }
+  const activity: ActivityModelName = of('activity')[0]?.model ?? 'ideal'
+  let fixedIonicStrength: number | null = null
+  const iStmt = of('ionicStrength')[0]
+  if (iStmt) {
+    const q = iStmt.quantity
+    const info = q.unit ? unitInfo(q.unit.image) : null
+    if (!q.unit || !info || info.dimension !== 'concentration') report.error('P050', `expected a molar concentration unit (mol/L, mmol/L, M) after ${q.number.image}`, q.unit ?? q.number)
+    else if (q.value < 0) report.error('P052', 'an ionic strength cannot be negative', q.number)
+    else fixedIonicStrength = q.value * info.factor
+  }
+
+  const sources: Record<string, string> = {}
+  for (const s of of('source')) {
+    if (Object.prototype.hasOwnProperty.call(sources, s.key.image)) report.error('P031', `source ${s.key.image} is defined twice`, s.key)
+    sources[s.key.image] = s.text
+  }
+
+  // use: libraries bring reactions and sources.
+  const libraryReactions: PreparedReaction[] = []
+  const libraries: { name: string; revision: number }[] = []
+  for (const u of of('use')) {
+    const rev = u.revision?.value ?? null
+    if (rev !== null && (!Number.isInteger(rev) || rev < 1)) { report.error('P071', 'a revision is a whole number from 1', u.revision!.number); continue }
+    if (!options.resolveLibrary) { report.error('P070', `libraries cannot be loaded here: "${u.name}" needs the lab's library store (open the file in the workbench)`, u.nameTok); incomplete = true; continue }
+    if (stack.includes(u.name)) { report.error('P070', `library "${u.name}" uses itself (through ${stack.join(' → ')}): remove the loop`, u.nameTok); continue }
+    if (stack.length >= MAX_LIBRARY_DEPTH) { report.error('P070', `libraries are nested too deeply at "${u.name}"`, u.nameTok); continue }
+    const found = options.resolveLibrary(u.name, rev)
+    if (!found) {
+      const latest = rev !== null ? options.resolveLibrary(u.name, null) : null
+      if (latest) report.error('P071', `library "${u.name}" has no revision ${rev} (its latest is ${latest.revision})`, u.revision!.number)
+      else report.error('P070', `there is no library "${u.name}": check its name`, u.nameTok)
+      incomplete = true
+      continue
+    }
+    const lib = compileSource(found.source, options, [...stack, u.name])
+    const errors = lib.diagnostics.filter((d) => d.severity === 'error')
+    if (errors.length) {
+      const e = errors[0]!
+      report.error('P072', `library "${u.name}" has ${errors.length} error${errors.length > 1 ? 's' : ''}; first, line ${e.range.line}: ${e.message}`, u.nameTok)
+      incomplete = true
+      continue
+    }
+    libraries.push({ name: u.name, revision: found.revision }, ...lib.library.libraries)
+    for (const r of lib.library.reactions) libraryReactions.push({ ...r, library: r.library ?? u.name })
+    for (const [k, v] of Object.entries(lib.library.sources)) if (!(k in sources)) sources[k] = v
+  }
+
+  // components
+  const components: ModelComponent[] = []
+  const componentTok = new Map<string, Tok>()
+  for (const c of of('component')) {
+    const f = formulaOf(c.formula, report)
+    if (!f) { incomplete = true; continue }
+    if (componentTok.has(f.name)) { report.error('P031', `${f.name} is declared as a component twice: keep one`, c.formula); continue }
+    const m = checkComponent(c, f, report)
+    componentTok.set(f.name, c.formula)
+    if (m) components.push(m)
+    else incomplete = true
+  }
+  const dependent = new Set(dependentComponents(components))
+  for (const i of dependent) {
+    report.error('P060', `${components[i]!.name} is a combination of the components above it (and water): it cannot be a component too. Remove it, or remove one of the components it is made of`, componentTok.get(components[i]!.name)!)
+  }
+  const balances = components.filter((c) => c.mode === 'balance')
+  for (const b of balances.slice(1)) report.error('P055', `only one component can be balance: ${balances[0]!.name} already is`, componentTok.get(b.name)!)
+
+  // reactions
+  const isComponent = (name: string) => componentTok.has(name)
+  const prepared: PreparedReaction[] = []
+  for (const r of of('reaction')) {
+    const p = prepareReaction(r, report, sources, isComponent)
+    if (p) prepared.push(p)
+    else incomplete = true
+  }
+
+  const width = components.length
+  const known = new Map<string, Known>()
+  components.forEach((c, j) => {
+    const nu = new Array<number>(width).fill(0)
+    nu[j] = 1
+    known.set(c.name, { formation: { nu, logK: 0, dH: 0 }, formula: { name: c.name, elements: c.elements, charge: c.charge, phase: c.phase, molarMass: c.molarMass }, line: c.line, byReaction: null })
+  })
+  const water = parseFormula('H2O').formula!
+  known.set('H2O', { formation: { nu: new Array<number>(width).fill(0), logK: 0, dH: 0 }, formula: water, line: 0, byReaction: null })
+  for (const name of componentTok.keys()) {
+    // A component that failed its checks still counts as known, so its reactions do not cascade into errors.
+    if (!known.has(name)) known.set(name, { formation: { nu: new Array<number>(width).fill(0), logK: 0, dH: 0 }, formula: water, line: 0, byReaction: null })
+  }
+  const resolution = resolveReactions(prepared, libraryReactions, known, width, report, incomplete)
+
+  // warnings
+  if (!incomplete) {
+    const mentioned = new Set(prepared.flatMap((r) => [...r.left, ...r.right].map((t) => t.formula.name)))
+    for (const lr of resolution.used) if (lr.library) for (const t of [...lr.left, ...lr.right]) mentioned.add(t.formula.name)
+    for (const c of components) {
+      if (!mentioned.has(c.name)) report.warning('W101', `component ${c.name} is used by no reaction: only its free form will be present. Remove it, or add its reactions`, componentTok.get(c.name)!)
+    }
+  }
+  const suppressed = new Set<string>()
+  for (const s of of('solid')) {
+    const f = formulaOf(s.formula, report)
+    if (!f) continue
+    if (f.phase !== 's') { report.error('P056', `suppressed applies to a solid, written with (s): ${f.name} is not one`, s.formula); continue }
+    const k = known.get(f.name)
+    if (!k || !k.byReaction) report.warning('W102', `${f.name} is suppressed but no reaction defines it: the line has no effect`, s.formula)
+    suppressed.add(f.name)
+  }
+  const hPlus = components.find((c) => c.name === 'H+')
+  if (balances.length === 0 && hPlus && hPlus.mode === 'total') {
+    report.warning('W104', 'no component is balance and H+ is given as a total: the pH follows from that proton total, not from electroneutrality. Write `component H+ balance` to let the charge balance set the pH', componentTok.get('H+')!)
+  }
+  const sweepStmt = of('sweep')[0]
+  const withoutDH = resolution.used.filter((r) => r.dH === null)
+  if (withoutDH.length > 0 && (Math.abs(temperatureC - REFERENCE_TEMPERATURE_C) > 1e-9 || sweepStmt?.variable === 'temperature')) {
+    const lines = withoutDH.map((r) => (r.library ? `${r.library}:${r.line}` : String(r.line))).join(', ')
+    const at = sweepStmt?.variable === 'temperature' ? sweepStmt.keyword : tStmt!.keyword
+    report.warning('W103', `${withoutDH.length} reaction${withoutDH.length > 1 ? 's have' : ' has'} no dH, so ${withoutDH.length > 1 ? 'their constants stay' : 'its constant stays'} at the 25 C value (line ${lines}): add dH to move ${withoutDH.length > 1 ? 'them' : 'it'} with temperature`, at)
+  }
+
+  let sweep: ModelSweep | null = null
+  if (sweepStmt && !incomplete) sweep = compileSweep(sweepStmt, components, report)
+  else if (sweepStmt && incomplete) incomplete = true
+
+  const model = buildModel()
+  const symbols = buildSymbols()
+  const library: LibraryContent = { reactions: prepared, sources, libraries }
+  return { model: report.hasErrors ? null : model, diagnostics: report.diagnostics, symbols, library }
+
+  function buildModel(): Model {
+    const species: ModelSpecies[] = []
+    const solids: ModelSolid[] = []
+    const gases: ModelGas[] = []
+    components.forEach((c, j) => {
+      if (c.phase !== 'aq') return
+      const nu = new Array<number>(width).fill(0)
+      nu[j] = 1
+      species.push({ name: c.name, charge: c.charge, elements: c.elements, componentIndex: j, nu, logK: 0, logKRef: 0, dH: 0, line: c.line })
+    })
+    for (const r of resolution.used) {
+      const name = resolution.defines.get(r)!
+      const k = known.get(name)!
+      const f = k.formula
+      const formation = { nu: k.formation.nu, logK: vantHoff(k.formation.logK, k.formation.dH, temperatureC), logKRef: k.formation.logK, dH: k.formation.dH, line: r.line }
+      if (f.phase === 's') solids.push({ name, elements: f.elements, suppressed: suppressed.has(name), ...formation })
+      else if (f.phase === 'g') gases.push({ name, elements: f.elements, ...formation })
+      else species.push({ name, charge: f.charge, elements: f.elements, componentIndex: null, ...formation })
+    }
+    const reactions: ModelReaction[] = resolution.used.map((r) => ({
+      equation: `${sideText(r.left)} <=> ${sideText(r.right)}`,
+      kind: r.kind, value: r.value, logK: r.logK, dH: r.dH, cite: r.cite,
+      defines: resolution.defines.get(r)!, library: r.library, line: r.line,
+    }))
+    return {
+      title: of('system')[0]?.title ?? '', temperatureC, refTemperatureC: REFERENCE_TEMPERATURE_C, activity, fixedIonicStrength,
+      components, species, solids, gases, reactions, sweep, sources, libraries,
+    }
+  }
+
+  function buildSymbols(): PoiseSymbol[] {
+    const out: PoiseSymbol[] = []
+    for (const c of components) {
+      const t = componentTok.get(c.name)!
+      out.push({ name: c.name, kind: 'component', elements: c.elements, charge: c.charge, molarMass: c.molarMass || null, logK: 0, definedAt: report.range(t.from, t.to) })
+    }
+    for (const r of resolution.used) {
+      if (r.library) continue
+      const name = resolution.defines.get(r)!
+      const k = known.get(name)!
+      const term = [...r.left, ...r.right].find((t) => t.formula.name === name)!
+      const kind = k.formula.phase === 's' ? 'solid' : k.formula.phase === 'g' ? 'gas' : 'species'
+      out.push({ name, kind, elements: k.formula.elements, charge: k.formula.charge, molarMass: k.formula.molarMass, logK: vantHoff(k.formation.logK, k.formation.dH, temperatureC), definedAt: report.range(term.tok.from, term.tok.to) })
+    }
+    return out
+  }
+}
+
+function sideText(terms: PreparedTerm[]): string {
+  return terms.map((t) => (t.coefficient === 1 ? t.formula.name : `${t.coefficient} ${t.formula.name}`)).join(' + ')
+}
+
+function prepareReaction(r: ReactionStatement, report: Reporter, sources: Record<string, string>, isComponent: (n: string) => boolean): PreparedReaction | null {
+  let ok = true
+  const side = (terms: ReactionStatement['left']): PreparedTerm[] => terms.flatMap((t) => {
+    const f = formulaOf(t.formula, report)
+    if (!f) { ok = false; return [] }
+    if (!(t.coefficient > 0) || !Number.isFinite(t.coefficient)) {
+      report.error('P010', 'a coefficient must be a positive number', t.coefficientTok ?? t.formula)
+      ok = false
+      return []
+    }
+    return [{ coefficient: t.coefficient, formula: f, tok: t.formula }]
+  })
+  const left = side(r.left)
+  const right = side(r.right)
+  if (!ok) return null
+  if (!checkBalance(left, right, r, report)) return null
+  const kind = r.constantKind.image as ConstantKind
+  const mismatch = kindMismatch(kind, left, right, isComponent)
+  if (mismatch) { report.error('P040', mismatch, r.constantKind); return null }
+  const logK = logKFromConstant(kind, r.constantValue.value)
+  if (logK === null || !Number.isFinite(logK)) { report.error('P041', `${kind} must be a positive, finite number (or write its log with logK)`, r.constantValue.number); return null }
+  let dH: number | null = null
+  for (const e of r.enthalpies.slice(1)) report.error('P004', 'dH is given twice: keep one', e.tok)
+  const e = r.enthalpies[0]
+  if (e) {
+    const q = e.quantity
+    const v = q.unit ? convert(q.value, q.unit.image, 'enthalpy') : null
+    if (v === null) { report.error('P050', q.unit ? `${q.unit.image} is not ${UNIT_HINTS.enthalpy}` : `expected ${UNIT_HINTS.enthalpy} after ${q.number.image}`, q.unit ?? q.number); return null }
+    dH = v
+  }
+  for (const c of r.cites.slice(1)) report.error('P004', 'cite is given twice: keep one', c.tok)
+  let cite: string | null = null
+  const c = r.cites[0]
+  if (c) {
+    if (c.key) {
+      if (!Object.prototype.hasOwnProperty.call(sources, c.key.image)) {
+        report.error('P034', `source ${c.key.image} is not defined: add \`source ${c.key.image} "full reference"\``, c.key)
+        return null
+      }
+      cite = sources[c.key.image]!
+    } else cite = c.text
+  } else {
+    report.warning('W105', 'this constant has no cite: add cite "where it comes from" (a handbook, a paper, or "from memory")', r.constantKind)
+  }
+  return { left, right, kind, value: r.constantValue.value, logK, dH, cite, library: null, line: report.lineOf(r.from), stmt: r }
+}

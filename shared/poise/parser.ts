@@ -1,0 +1,213 @@
+/**
+ * The Poise grammar, one statement at a time (the compiler hands the parser
+ * one line's tokens, so a mistake on one line never hides the others).
+ * The parser is built once (a singleton): building it costs far more than
+ * parsing a file. grammar/diagrams.html is generated from this grammar.
+ */
+import { CstParser, EOF, type CstNode, type IParserErrorMessageProvider, type IToken, type TokenType } from 'chevrotain'
+import * as T from './tokens'
+
+function describe(token: IToken): string {
+  return token.tokenType === EOF ? 'the end of the line' : `'${token.image}'`
+}
+
+function labelOf(type: TokenType): string {
+  return type.LABEL ?? type.name
+}
+
+function alternatives(paths: TokenType[][][]): string {
+  const firsts = new Set<string>()
+  for (const alt of paths) for (const path of alt) if (path[0]) firsts.add(labelOf(path[0]))
+  const list = [...firsts]
+  return list.length <= 1 ? (list[0] ?? 'something else') : `${list.slice(0, -1).join(', ')} or ${list[list.length - 1]}`
+}
+
+const RULE_NAMES: Record<string, string> = {
+  statement: 'a statement (system, temperature, activity, ionic-strength, component, reaction, solid, source, use or sweep)',
+  componentSpec: 'a component spec (total, free, pH, pressure, balance or excess)',
+  sweepVariable: 'a sweep variable (pH, total F, temperature or pressure F)',
+}
+
+const messages: IParserErrorMessageProvider = {
+  buildMismatchTokenMessage: ({ expected, actual, previous }) =>
+    `expected ${labelOf(expected)}${previous && previous.tokenType !== EOF && previous.image ? ` after '${previous.image}'` : ''}, found ${describe(actual)}`,
+  buildNotAllInputParsedMessage: ({ firstRedundant }) =>
+    `unexpected ${describe(firstRedundant)}: one statement a line, and nothing after its end (comments start with #)`,
+  buildNoViableAltMessage: ({ expectedPathsPerAlt, actual, previous, ruleName }) =>
+    `expected ${RULE_NAMES[ruleName] ?? alternatives(expectedPathsPerAlt)}${previous && previous.tokenType !== EOF && previous.image ? ` after '${previous.image}'` : ''}, found ${describe(actual)}`,
+  buildEarlyExitMessage: ({ expectedIterationPaths, actual }) =>
+    `expected ${alternatives([expectedIterationPaths])}, found ${describe(actual)}`,
+}
+
+class PoiseParser extends CstParser {
+  constructor() {
+    super(T.allTokens, { recoveryEnabled: true, errorMessageProvider: messages, maxLookahead: 2 })
+    this.performSelfAnalysis()
+  }
+
+  public statement = this.RULE('statement', () => {
+    this.OR([
+      { ALT: () => this.SUBRULE(this.systemStatement) },
+      { ALT: () => this.SUBRULE(this.temperatureStatement) },
+      { ALT: () => this.SUBRULE(this.activityStatement) },
+      { ALT: () => this.SUBRULE(this.ionicStrengthStatement) },
+      { ALT: () => this.SUBRULE(this.componentStatement) },
+      { ALT: () => this.SUBRULE(this.reactionStatement) },
+      { ALT: () => this.SUBRULE(this.solidStatement) },
+      { ALT: () => this.SUBRULE(this.sourceStatement) },
+      { ALT: () => this.SUBRULE(this.useStatement) },
+      { ALT: () => this.SUBRULE(this.sweepStatement) },
+    ])
+  })
+
+  private systemStatement = this.RULE('systemStatement', () => {
+    this.CONSUME(T.SystemKeyword)
+    this.CONSUME(T.StringLiteral)
+  })
+
+  private temperatureStatement = this.RULE('temperatureStatement', () => {
+    this.CONSUME(T.TemperatureKeyword)
+    this.SUBRULE(this.quantity)
+  })
+
+  private activityStatement = this.RULE('activityStatement', () => {
+    this.CONSUME(T.ActivityKeyword)
+    this.OR([
+      { ALT: () => this.CONSUME(T.IdealKeyword) },
+      { ALT: () => this.CONSUME(T.DaviesKeyword) },
+      { ALT: () => this.CONSUME(T.DebyeHuckelKeyword) },
+    ])
+  })
+
+  private ionicStrengthStatement = this.RULE('ionicStrengthStatement', () => {
+    this.CONSUME(T.IonicStrengthKeyword)
+    this.SUBRULE(this.quantity)
+  })
+
+  private componentStatement = this.RULE('componentStatement', () => {
+    this.CONSUME(T.ComponentKeyword)
+    this.CONSUME(T.Formula)
+    this.OPTION(() => this.SUBRULE(this.componentSpec))
+  })
+
+  private componentSpec = this.RULE('componentSpec', () => {
+    this.OR([
+      { ALT: () => { this.CONSUME(T.TotalKeyword); this.SUBRULE1(this.quantity) } },
+      { ALT: () => { this.CONSUME(T.FreeKeyword); this.SUBRULE2(this.quantity) } },
+      { ALT: () => { this.CONSUME(T.PHKeyword); this.CONSUME(T.NumberLiteral) } },
+      { ALT: () => { this.CONSUME(T.PressureKeyword); this.SUBRULE3(this.quantity) } },
+      { ALT: () => this.CONSUME(T.BalanceKeyword) },
+      { ALT: () => this.CONSUME(T.ExcessKeyword) },
+    ])
+  })
+
+  private reactionStatement = this.RULE('reactionStatement', () => {
+    this.CONSUME(T.ReactionKeyword)
+    this.SUBRULE1(this.reactionSide)
+    this.CONSUME(T.Arrow)
+    this.SUBRULE2(this.reactionSide)
+    this.SUBRULE(this.constant)
+    this.MANY(() => {
+      this.OR([
+        { ALT: () => this.SUBRULE(this.enthalpy) },
+        { ALT: () => this.SUBRULE(this.citation) },
+      ])
+    })
+  })
+
+  private reactionSide = this.RULE('reactionSide', () => {
+    this.SUBRULE1(this.term)
+    this.MANY(() => {
+      this.CONSUME(T.Plus)
+      this.SUBRULE2(this.term)
+    })
+  })
+
+  private term = this.RULE('term', () => {
+    this.OPTION(() => this.CONSUME(T.NumberLiteral))
+    this.CONSUME(T.Formula)
+  })
+
+  private constant = this.RULE('constant', () => {
+    this.CONSUME(T.ConstantKind)
+    this.CONSUME(T.NumberLiteral)
+  })
+
+  private enthalpy = this.RULE('enthalpy', () => {
+    this.CONSUME(T.EnthalpyKeyword)
+    this.SUBRULE(this.quantity)
+  })
+
+  private citation = this.RULE('citation', () => {
+    this.CONSUME(T.CiteKeyword)
+    this.OR([
+      { ALT: () => this.CONSUME(T.StringLiteral) },
+      { ALT: () => this.CONSUME(T.Word) },
+      { ALT: () => this.CONSUME(T.Formula) },
+    ])
+  })
+
+  private solidStatement = this.RULE('solidStatement', () => {
+    this.CONSUME(T.SolidKeyword)
+    this.CONSUME(T.Formula)
+    this.CONSUME(T.SuppressedKeyword)
+  })
+
+  private sourceStatement = this.RULE('sourceStatement', () => {
+    this.CONSUME(T.SourceKeyword)
+    this.OR([
+      { ALT: () => this.CONSUME(T.Word) },
+      { ALT: () => this.CONSUME(T.Formula) },
+    ])
+    this.CONSUME(T.StringLiteral)
+  })
+
+  private useStatement = this.RULE('useStatement', () => {
+    this.CONSUME(T.UseKeyword)
+    this.CONSUME(T.StringLiteral)
+    this.OPTION(() => {
+      this.CONSUME(T.At)
+      this.CONSUME(T.NumberLiteral)
+    })
+  })
+
+  private sweepStatement = this.RULE('sweepStatement', () => {
+    this.CONSUME(T.SweepKeyword)
+    this.SUBRULE(this.sweepVariable)
+    this.CONSUME(T.FromKeyword)
+    this.SUBRULE1(this.quantity)
+    this.CONSUME(T.ToKeyword)
+    this.SUBRULE2(this.quantity)
+    this.OR([
+      { ALT: () => { this.CONSUME(T.StepKeyword); this.SUBRULE3(this.quantity) } },
+      { ALT: () => { this.CONSUME(T.PointsKeyword); this.CONSUME(T.NumberLiteral) } },
+    ])
+    this.OPTION(() => this.CONSUME(T.LogKeyword))
+  })
+
+  private sweepVariable = this.RULE('sweepVariable', () => {
+    this.OR([
+      { ALT: () => this.CONSUME(T.PHKeyword) },
+      { ALT: () => { this.CONSUME(T.TotalKeyword); this.CONSUME1(T.Formula) } },
+      { ALT: () => this.CONSUME(T.TemperatureKeyword) },
+      { ALT: () => { this.CONSUME(T.PressureKeyword); this.CONSUME2(T.Formula) } },
+    ])
+  })
+
+  private quantity = this.RULE('quantity', () => {
+    this.CONSUME(T.NumberLiteral)
+    this.OPTION(() => this.CONSUME(T.Unit))
+  })
+}
+
+/** The one parser instance; chevrotain parsers are reusable by resetting `input`. */
+export const poiseParser = new PoiseParser()
+
+export interface ParsedLine { cst: CstNode | null; errors: { message: string; token: IToken }[] }
+
+export function parseStatement(tokens: IToken[]): ParsedLine {
+  poiseParser.input = tokens
+  const cst = poiseParser.statement()
+  const errors = poiseParser.errors.map((e) => ({ message: e.message, token: e.token }))
+  return { cst: errors.length ? null : cst, errors }
+}

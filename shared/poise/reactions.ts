@@ -1,0 +1,221 @@
+/**
+ * Reactions: balance and constant-kind checks, then resolution. Each reaction
+ * introduces exactly one new species; the resolver solves it for that species
+ * and substitutes, in whatever order the file wrote them, until every species
+ * is a product of components: log a(X) = logK(X) + Σ nu_j log a(component j).
+ */
+import type { ConstantKind } from './model'
+import type { ParsedFormula } from './formula'
+import type { Reporter } from './report'
+import type { Statement, Tok } from './statements'
+
+export type ReactionStatement = Extract<Statement, { kind: 'reaction' }>
+
+export interface PreparedTerm { coefficient: number; formula: ParsedFormula; tok: Tok }
+export interface PreparedReaction {
+  left: PreparedTerm[]
+  right: PreparedTerm[]
+  kind: ConstantKind
+  value: number
+  /** log10 K of the reaction as written, at the reference temperature. */
+  logK: number
+  dH: number | null
+  cite: string | null
+  library: string | null
+  line: number
+  stmt: ReactionStatement
+}
+
+export interface FormationData { nu: number[]; logK: number; dH: number | null }
+export interface Known { formation: FormationData; formula: ParsedFormula; line: number; byReaction: PreparedReaction | null }
+
+const WATER = 'H2O'
+
+/** log10 K of the reaction as written, from the constant's kind and value; null when K ≤ 0. */
+export function logKFromConstant(kind: ConstantKind, value: number): number | null {
+  switch (kind) {
+    case 'logK': case 'logbeta': case 'logKsp': case 'logKH': return value
+    case 'pK': case 'pKa': case 'pKsp': case 'pKw': return -value
+    case 'K': case 'beta': case 'Ka': case 'Ksp': return value > 0 ? Math.log10(value) : null
+  }
+}
+
+function sideSum(terms: PreparedTerm[]): { elements: Map<string, number>; charge: number } {
+  const elements = new Map<string, number>()
+  let charge = 0
+  for (const t of terms) {
+    for (const [el, n] of Object.entries(t.formula.elements)) elements.set(el, (elements.get(el) ?? 0) + n * t.coefficient)
+    charge += t.formula.charge * t.coefficient
+  }
+  return { elements, charge }
+}
+
+const fmt = (n: number) => String(Number(n.toPrecision(10)))
+
+/** Reports element and charge imbalance; true when the reaction balances. */
+export function checkBalance(left: PreparedTerm[], right: PreparedTerm[], stmt: ReactionStatement, report: Reporter): boolean {
+  const l = sideSum(left)
+  const r = sideSum(right)
+  const diffs: string[] = []
+  const symbols = [...new Set([...l.elements.keys(), ...r.elements.keys()])].sort()
+  for (const el of symbols) {
+    const d = (l.elements.get(el) ?? 0) - (r.elements.get(el) ?? 0)
+    if (Math.abs(d) > 1e-9) diffs.push(d > 0 ? `left side has ${fmt(d)} more ${el} than right` : `right side has ${fmt(-d)} more ${el} than left`)
+  }
+  let ok = true
+  const at = { from: stmt.left[0]!.formula.from, to: stmt.constantKind.from > 0 ? lastFormulaEnd(stmt) : stmt.to }
+  if (diffs.length) {
+    report.error('P020', `the reaction does not balance: ${diffs.join('; ')}`, at)
+    ok = false
+  }
+  const dz = l.charge - r.charge
+  if (Math.abs(dz) > 1e-9) {
+    const sign = (z: number) => (z > 0 ? `+${fmt(z)}` : fmt(z))
+    report.error('P021', `the charge does not balance: left side ${sign(l.charge)}, right side ${sign(r.charge)} (differs by ${fmt(Math.abs(dz))})`, at)
+    ok = false
+  }
+  return ok
+}
+
+function lastFormulaEnd(stmt: ReactionStatement): number {
+  return stmt.right[stmt.right.length - 1]!.formula.to
+}
+
+const only = (terms: PreparedTerm[], pred: (t: PreparedTerm) => boolean) => terms.filter((t) => t.formula.name !== WATER && pred(t))
+
+/** Checks that the constant's kind fits the reaction's shape; returns a message when it does not. */
+export function kindMismatch(kind: ConstantKind, left: PreparedTerm[], right: PreparedTerm[], isComponent: (name: string) => boolean): string | null {
+  switch (kind) {
+    case 'logK': case 'K': case 'pK': return null
+    case 'logbeta': case 'beta':
+      if (!left.every((t) => isComponent(t.formula.name))) {
+        const other = left.find((t) => !isComponent(t.formula.name))!
+        return `${kind} is a cumulative formation constant: its left side holds only components, but ${other.formula.name} is not one (use logK for a stepwise constant)`
+      }
+      return right.length === 1 && right[0]!.coefficient === 1 ? null : `${kind} forms one species: its right side must hold exactly one species (use logK otherwise)`
+    case 'pKa': case 'Ka': {
+      const h = right.filter((t) => t.formula.name === 'H+')
+      return h.length === 1 && h[0]!.coefficient === 1 ? null : `${kind} is an acid dissociation constant: the right side must release exactly one H+ (write the reaction as acid <=> base + H+, or use logK)`
+    }
+    case 'pKsp': case 'Ksp': case 'logKsp': {
+      const solids = only(left, () => true)
+      return solids.length === 1 && solids[0]!.formula.phase === 's' && solids[0]!.coefficient === 1 ? null : `${kind} is a solubility product: the left side must be exactly one solid, such as CaCO3(s) <=> Ca^2+ + CO3^2-`
+    }
+    case 'pKw': {
+      const names = (ts: PreparedTerm[]) => ts.map((t) => `${t.coefficient} ${t.formula.name}`).sort().join(',')
+      return names(left) === '1 H2O' && names(right) === '1 H+,1 OH-' ? null : 'pKw belongs only to the water reaction H2O <=> H+ + OH-'
+    }
+    case 'logKH': {
+      const gases = only(left, () => true)
+      return gases.length === 1 && gases[0]!.formula.phase === 'g' && gases[0]!.coefficient === 1 ? null : 'logKH is a Henry constant: the left side must be one gas, such as CO2(g) + H2O <=> H2CO3'
+    }
+  }
+}
+
+/** Net coefficient of each species (products positive), water included. */
+function netCoefficients(r: PreparedReaction): Map<string, { s: number; term: PreparedTerm }> {
+  const net = new Map<string, { s: number; term: PreparedTerm }>()
+  const add = (t: PreparedTerm, sign: number) => {
+    const prev = net.get(t.formula.name)
+    net.set(t.formula.name, { s: (prev?.s ?? 0) + sign * t.coefficient, term: prev?.term ?? t })
+  }
+  r.left.forEach((t) => add(t, -1))
+  r.right.forEach((t) => add(t, 1))
+  for (const [k, v] of net) if (Math.abs(v.s) < 1e-12) net.delete(k)
+  return net
+}
+
+function unknownsOf(r: PreparedReaction, known: Map<string, Known>): string[] {
+  return [...netCoefficients(r).keys()].filter((name) => !known.has(name))
+}
+
+/** Solves reaction r for its one unknown species and records it. */
+function define(r: PreparedReaction, unknown: string, known: Map<string, Known>, width: number): void {
+  const net = netCoefficients(r)
+  const target = net.get(unknown)!
+  const nu = new Array<number>(width).fill(0)
+  let logK = r.logK
+  let dH: number | null = r.dH
+  for (const [name, { s }] of net) {
+    if (name === unknown) continue
+    const k = known.get(name)!.formation
+    for (let j = 0; j < width; j++) nu[j]! -= s * k.nu[j]!
+    logK -= s * k.logK
+    dH = dH === null || k.dH === null ? null : dH - s * k.dH
+  }
+  const clean = (x: number) => (Math.abs(x) < 1e-12 ? 0 : x)
+  known.set(unknown, {
+    formation: { nu: nu.map((x) => clean(x / target.s)), logK: logK / target.s, dH: dH === null ? null : dH / target.s },
+    formula: target.term.formula,
+    line: r.line,
+    byReaction: r,
+  })
+}
+
+export interface Resolution { used: PreparedReaction[]; defines: Map<PreparedReaction, string> }
+
+/**
+ * Resolves the file's reactions (each must define one species) and, where they
+ * need it, the libraries' reactions (used only when they define something new).
+ */
+export function resolveReactions(fileReactions: PreparedReaction[], libraryReactions: PreparedReaction[], known: Map<string, Known>, width: number, report: Reporter, suppressUndefined: boolean): Resolution {
+  const used: PreparedReaction[] = []
+  const defines = new Map<PreparedReaction, string>()
+  let pendingFile = [...fileReactions]
+  let pendingLib = [...libraryReactions]
+  for (;;) {
+    let progress = false
+    const still: PreparedReaction[] = []
+    for (const r of pendingFile) {
+      const u = unknownsOf(r, known)
+      if (u.length === 1) {
+        define(r, u[0]!, known, width)
+        defines.set(r, u[0]!)
+        used.push(r)
+        progress = true
+      } else still.push(r)
+    }
+    pendingFile = still
+    if (progress) continue
+    const libIndex = pendingLib.findIndex((r) => unknownsOf(r, known).length === 1)
+    if (libIndex < 0) break
+    const r = pendingLib[libIndex]!
+    const u = unknownsOf(r, known)[0]!
+    define(r, u, known, width)
+    defines.set(r, u)
+    used.push(r)
+    pendingLib = pendingLib.filter((_, i) => i !== libIndex)
+  }
+  reportStuck(pendingFile, known, report, suppressUndefined)
+  return { used, defines }
+}
+
+function reportStuck(stuck: PreparedReaction[], known: Map<string, Known>, report: Reporter, suppressUndefined: boolean): void {
+  const occurrences = new Map<string, number>()
+  for (const r of stuck) for (const name of unknownsOf(r, known)) occurrences.set(name, (occurrences.get(name) ?? 0) + 1)
+  const reportedUndefined = new Set<string>()
+  for (const r of stuck) {
+    const net = netCoefficients(r)
+    const unknown = unknownsOf(r, known)
+    const at = { from: r.stmt.left[0]!.formula.from, to: lastFormulaEnd(r.stmt) }
+    if (unknown.length === 0) {
+      const already = [...net.keys()].map((n) => known.get(n)!).filter((k) => k.byReaction)
+      const where = already.length ? `: ${already.map((k) => `${k.formula.name} is already defined on line ${k.line}`).join(', ')}` : ': all its species are components'
+      report.error('P032', `this reaction introduces no new species${where}. Remove it, or write it for a species nothing else defines`, at)
+      continue
+    }
+    const shared = unknown.filter((n) => (occurrences.get(n) ?? 0) > 1)
+    if (shared.length > 0 && shared.length < unknown.length) {
+      if (suppressUndefined) continue
+      for (const name of shared) {
+        if (reportedUndefined.has(name)) continue
+        reportedUndefined.add(name)
+        const term = net.get(name)!.term
+        report.error('P030', `${name} is used but never defined: declare it as a component or add a reaction that forms it`, term.tok)
+      }
+      continue
+    }
+    if (suppressUndefined) continue
+    report.error('P033', `this reaction introduces ${unknown.length} new species (${unknown.join(', ')}); each reaction must introduce exactly one. Declare all but one as components, or define them first with other reactions`, at)
+  }
+}

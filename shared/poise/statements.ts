@@ -1,0 +1,187 @@
+/**
+ * From text to statements: lexes once, parses each line on its own, and turns
+ * the concrete syntax tree of each well-formed line into a small typed
+ * statement the checker works on.
+ */
+import type { CstElement, CstNode, IToken } from 'chevrotain'
+import { lexForParser } from './lexer'
+import { parseStatement } from './parser'
+import { parseNumber } from './units'
+
+export interface Tok { image: string; from: number; to: number }
+export interface Quantity { value: number; number: Tok; unit: Tok | null }
+export interface Term { coefficient: number; coefficientTok: Tok | null; formula: Tok }
+
+interface Base { from: number; to: number; keyword: Tok }
+export type Statement = Base & (
+  | { kind: 'system'; title: string; titleTok: Tok }
+  | { kind: 'temperature'; quantity: Quantity }
+  | { kind: 'activity'; model: 'ideal' | 'davies' | 'debye-huckel' }
+  | { kind: 'ionicStrength'; quantity: Quantity }
+  | { kind: 'component'; formula: Tok; spec: { mode: 'total' | 'free' | 'pH' | 'pressure' | 'balance' | 'excess'; tok: Tok; quantity: Quantity | null } | null }
+  | { kind: 'reaction'; left: Term[]; right: Term[]; arrow: Tok; constantKind: Tok; constantValue: Quantity; enthalpies: { tok: Tok; quantity: Quantity }[]; cites: { tok: Tok; text: string | null; key: Tok | null }[] }
+  | { kind: 'solid'; formula: Tok }
+  | { kind: 'source'; key: Tok; text: string }
+  | { kind: 'use'; name: string; nameTok: Tok; revision: Quantity | null }
+  | { kind: 'sweep'; variable: 'pH' | 'total' | 'temperature' | 'pressure'; variableTok: Tok; target: Tok | null; start: Quantity; end: Quantity; step: Quantity | null; points: Quantity | null; log: boolean }
+)
+
+export interface SyntaxProblem { code: 'P001' | 'P002'; message: string; from: number; to: number }
+
+const tok = (t: IToken): Tok => ({ image: t.image, from: t.startOffset, to: t.startOffset + t.image.length })
+
+function isNode(e: CstElement | undefined): e is CstNode {
+  return e !== undefined && 'children' in e
+}
+function node(n: CstNode, key: string, i = 0): CstNode {
+  const e = n.children[key]?.[i]
+  if (!isNode(e)) throw new Error(`internal: missing rule ${key}`)
+  return e
+}
+function token(n: CstNode, key: string, i = 0): IToken {
+  const e = n.children[key]?.[i]
+  if (e === undefined || isNode(e)) throw new Error(`internal: missing token ${key}`)
+  return e
+}
+function maybeToken(n: CstNode, key: string): IToken | null {
+  const e = n.children[key]?.[0]
+  return e !== undefined && !isNode(e) ? e : null
+}
+function nodes(n: CstNode, key: string): CstNode[] {
+  return (n.children[key] ?? []).filter(isNode)
+}
+
+/** Unquotes a string literal, reading `\"` and `\\` escapes. */
+function unquote(image: string): string {
+  return image.slice(1, -1).replace(/\\(.)/g, '$1')
+}
+
+function quantity(n: CstNode): Quantity {
+  const num = token(n, 'Number')
+  const unit = maybeToken(n, 'Unit')
+  return { value: parseNumber(num.image), number: tok(num), unit: unit ? tok(unit) : null }
+}
+
+function numberQuantity(t: IToken): Quantity {
+  return { value: parseNumber(t.image), number: tok(t), unit: null }
+}
+
+function terms(side: CstNode): Term[] {
+  return nodes(side, 'term').map((t) => {
+    const c = maybeToken(t, 'Number')
+    return { coefficient: c ? parseNumber(c.image) : 1, coefficientTok: c ? tok(c) : null, formula: tok(token(t, 'Formula')) }
+  })
+}
+
+function toStatement(cst: CstNode, from: number, to: number): Statement {
+  const inner = Object.values(cst.children)[0]![0] as CstNode
+  const c = inner.children
+  const first = (Object.values(c).flat()[0] as IToken | undefined)
+  const kw = (name: string) => tok(token(inner, name))
+  switch (inner.name) {
+    case 'systemStatement': {
+      const s = token(inner, 'String')
+      return { kind: 'system', from, to, keyword: kw('SystemKeyword'), title: unquote(s.image), titleTok: tok(s) }
+    }
+    case 'temperatureStatement':
+      return { kind: 'temperature', from, to, keyword: kw('TemperatureKeyword'), quantity: quantity(node(inner, 'quantity')) }
+    case 'activityStatement': {
+      const m = maybeToken(inner, 'IdealKeyword') ?? maybeToken(inner, 'DaviesKeyword') ?? token(inner, 'DebyeHuckelKeyword')
+      return { kind: 'activity', from, to, keyword: kw('ActivityKeyword'), model: m.image as 'ideal' | 'davies' | 'debye-huckel' }
+    }
+    case 'ionicStrengthStatement':
+      return { kind: 'ionicStrength', from, to, keyword: kw('IonicStrengthKeyword'), quantity: quantity(node(inner, 'quantity')) }
+    case 'componentStatement': {
+      const specNode = nodes(inner, 'componentSpec')[0]
+      let spec: Extract<Statement, { kind: 'component' }>['spec'] = null
+      if (specNode) {
+        const key = Object.keys(specNode.children).find((k) => k.endsWith('Keyword'))!
+        const modeTok = token(specNode, key)
+        const q = nodes(specNode, 'quantity')[0]
+        const num = maybeToken(specNode, 'Number')
+        spec = { mode: modeTok.image as 'total', tok: tok(modeTok), quantity: q ? quantity(q) : num ? numberQuantity(num) : null }
+      }
+      return { kind: 'component', from, to, keyword: kw('ComponentKeyword'), formula: tok(token(inner, 'Formula')), spec }
+    }
+    case 'reactionStatement': {
+      const sides = nodes(inner, 'reactionSide')
+      const k = node(inner, 'constant')
+      return {
+        kind: 'reaction', from, to, keyword: kw('ReactionKeyword'),
+        left: terms(sides[0]!), right: terms(sides[1]!), arrow: tok(token(inner, 'Arrow')),
+        constantKind: tok(token(k, 'ConstantKind')), constantValue: numberQuantity(token(k, 'Number')),
+        enthalpies: nodes(inner, 'enthalpy').map((e) => ({ tok: tok(token(e, 'EnthalpyKeyword')), quantity: quantity(node(e, 'quantity')) })),
+        cites: nodes(inner, 'citation').map((e) => {
+          const s = maybeToken(e, 'String')
+          const key = maybeToken(e, 'Word') ?? maybeToken(e, 'Formula')
+          return { tok: tok(token(e, 'CiteKeyword')), text: s ? unquote(s.image) : null, key: key ? tok(key) : null }
+        }),
+      }
+    }
+    case 'solidStatement':
+      return { kind: 'solid', from, to, keyword: kw('SolidKeyword'), formula: tok(token(inner, 'Formula')) }
+    case 'sourceStatement': {
+      const key = maybeToken(inner, 'Word') ?? token(inner, 'Formula')
+      return { kind: 'source', from, to, keyword: kw('SourceKeyword'), key: tok(key), text: unquote(token(inner, 'String').image) }
+    }
+    case 'useStatement': {
+      const s = token(inner, 'String')
+      const rev = maybeToken(inner, 'Number')
+      return { kind: 'use', from, to, keyword: kw('UseKeyword'), name: unquote(s.image), nameTok: tok(s), revision: rev ? numberQuantity(rev) : null }
+    }
+    case 'sweepStatement': {
+      const v = node(inner, 'sweepVariable')
+      const vKey = Object.keys(v.children).find((k) => k.endsWith('Keyword'))!
+      const vTok = token(v, vKey)
+      const qs = nodes(inner, 'quantity')
+      const pts = maybeToken(inner, 'Number')
+      const target = maybeToken(v, 'Formula')
+      const variable = vTok.image === 'pH' ? 'pH' : (vTok.image as 'total' | 'temperature' | 'pressure')
+      return {
+        kind: 'sweep', from, to, keyword: kw('SweepKeyword'), variable, variableTok: tok(vTok), target: target ? tok(target) : null,
+        start: quantity(qs[0]!), end: quantity(qs[1]!), step: qs[2] ? quantity(qs[2]) : null,
+        points: pts ? numberQuantity(pts) : null, log: maybeToken(inner, 'LogKeyword') !== null,
+      } as Statement
+    }
+  }
+  throw new Error(`internal: unknown statement ${inner.name} at ${first?.image ?? ''}`)
+}
+
+export interface ParsedFile { statements: Statement[]; problems: SyntaxProblem[]; incomplete: boolean }
+
+/** Lexes and parses a whole file. Lines with a syntax error yield a problem and no statement. */
+export function parseFile(text: string): ParsedFile {
+  const lexed = lexForParser(text)
+  const problems: SyntaxProblem[] = lexed.errors.map((e) => ({ code: 'P001', message: e.message, from: e.from, to: e.to }))
+  const statements: Statement[] = []
+  let incomplete = problems.length > 0
+  let line: IToken[] = []
+  const flush = (lineEnd: number) => {
+    const unterminated = line.find((t) => t.tokenType.name === 'UnterminatedString')
+    if (unterminated) {
+      problems.push({ code: 'P001', message: 'this text has no closing quote: add " at its end', from: unterminated.startOffset, to: unterminated.startOffset + unterminated.image.length })
+      incomplete = true
+    } else if (line.length > 0) {
+      const parsed = parseStatement(line)
+      const from = line[0]!.startOffset
+      const last = line[line.length - 1]!
+      const to = last.startOffset + last.image.length
+      if (parsed.cst) statements.push(toStatement(parsed.cst, from, to))
+      else {
+        const e = parsed.errors[0]!
+        const at = Number.isFinite(e.token.startOffset) ? e.token.startOffset : lineEnd
+        const end = Number.isFinite(e.token.startOffset) ? at + Math.max(1, e.token.image.length) : lineEnd
+        problems.push({ code: 'P002', message: e.message, from: Math.min(at, text.length), to: Math.min(Math.max(end, at), text.length) })
+        incomplete = true
+      }
+    }
+    line = []
+  }
+  for (const t of lexed.tokens) {
+    if (t.tokenType.name === 'Newline') flush(t.startOffset)
+    else line.push(t)
+  }
+  const lastTok = line[line.length - 1]
+  flush(lastTok ? lastTok.startOffset + lastTok.image.length : text.length)
+  return { statements, problems, incomplete }
+}

@@ -1,0 +1,100 @@
+/** `sweep` statements: checks and the list of values, in model units. */
+import type { ModelComponent, ModelSweep } from './model'
+import type { Reporter } from './report'
+import type { Statement, Quantity } from './statements'
+import { parseFormula } from './formula'
+import { convert, unitInfo, UNIT_HINTS, type Dimension } from './units'
+
+type SweepStatement = Extract<Statement, { kind: 'sweep' }>
+
+/** At most this many points in one sweep. */
+export const MAX_SWEEP_POINTS = 10001
+
+const round = (x: number) => Number(x.toPrecision(12))
+
+export function compileSweep(s: SweepStatement, components: ModelComponent[], report: Reporter): ModelSweep | null {
+  let component: ModelComponent | null = null
+  if (s.variable === 'pH' && !components.some((c) => c.name === 'H+')) {
+    report.error('P080', 'a pH sweep needs H+ as a component: add `component H+ balance`', s.variableTok)
+    return null
+  }
+  if (s.variable === 'total' || s.variable === 'pressure') {
+    const name = s.target!.image
+    component = components.find((c) => c.name === (parseFormula(name).formula?.name ?? name)) ?? null
+    const want = s.variable
+    if (!component || component.mode !== want) {
+      report.error('P080', `sweep ${want} needs a component declared with \`${want}\`: ${name} is ${component ? `declared with ${component.mode}` : 'not a component'}`, s.target!)
+      return null
+    }
+  }
+  const dimension: Dimension | null = s.variable === 'pH' ? null : s.variable === 'temperature' ? 'temperature' : s.variable === 'pressure' ? 'pressure' : 'concentration'
+  const value = (q: Quantity, isStep: boolean, fallbackUnit: string | null): number | null => {
+    if (dimension === null) {
+      if (q.unit) { report.error('P050', 'pH has no unit: remove it', q.unit); return null }
+      return q.value
+    }
+    const unit = q.unit?.image ?? fallbackUnit
+    if (unit === null) { report.error('P050', `expected ${UNIT_HINTS[dimension]} after ${q.number.image}`, q.number); return null }
+    const info = unitInfo(unit)
+    if (info && dimension === 'concentration' && info.dimension === 'mass-concentration') {
+      if (component!.molarMass <= 0) { report.error('P051', `no molar mass for ${component!.name}: give the sweep in mol/L`, q.unit ?? q.number); return null }
+      return (q.value * info.factor) / component!.molarMass
+    }
+    if (!info || info.dimension !== dimension) { report.error('P050', `${unit} is not ${UNIT_HINTS[dimension]}`, q.unit ?? q.number); return null }
+    // A step is a difference: kelvin and Celsius steps are the same size.
+    return isStep ? q.value * info.factor : convert(q.value, unit, dimension)
+  }
+  const from = value(s.start, false, null)
+  const to = value(s.end, false, null)
+  if (from === null || to === null) return null
+  if (s.log && (s.variable === 'pH' || s.variable === 'temperature')) {
+    report.error('P080', `a ${s.variable} sweep cannot be logarithmic: remove \`log\``, s)
+    return null
+  }
+  if (s.log && (from <= 0 || to <= 0)) {
+    report.error('P080', 'a logarithmic sweep needs positive end values', s)
+    return null
+  }
+  let values: number[]
+  if (s.points) {
+    const n = s.points.value
+    if (!Number.isInteger(n) || n < 2 || n > MAX_SWEEP_POINTS) {
+      report.error('P080', `points must be a whole number from 2 to ${MAX_SWEEP_POINTS}`, s.points.number)
+      return null
+    }
+    const a = s.log ? Math.log10(from) : from
+    const b = s.log ? Math.log10(to) : to
+    values = Array.from({ length: n }, (_, i) => a + ((b - a) * i) / (n - 1))
+  } else {
+    // With `log`, the step is in decades (0.1 = ten points a decade) and has no unit.
+    const step = s.log ? (s.step!.unit ? null : s.step!.value) : value(s.step!, true, s.start.unit?.image ?? null)
+    if (step === null) {
+      if (s.log) report.error('P050', 'the step of a logarithmic sweep is in decades and has no unit', s.step!.unit!)
+      return null
+    }
+    const a = s.log ? Math.log10(from) : from
+    const b = s.log ? Math.log10(to) : to
+    const count = step === 0 ? Infinity : Math.floor((b - a) / step + 1e-9) + 1
+    if (!(count >= 2) || count > MAX_SWEEP_POINTS) {
+      report.error('P080', step === 0 || count < 2
+        ? `the step ${s.step!.number.image} does not lead from ${s.start.number.image} to ${s.end.number.image}: use a step with the sign of (to − from), not 0`
+        : `this sweep has ${count} points; at most ${MAX_SWEEP_POINTS} are allowed: use a larger step`, s.step!.number)
+      return null
+    }
+    values = Array.from({ length: count }, (_, i) => a + step * i)
+  }
+  const points = (s.log ? values.map((v) => Math.pow(10, v)) : values).map(round)
+  if (s.variable === 'total' && points.some((v) => v < 0) && component!.name !== 'H+') {
+    report.error('P052', 'a total cannot be negative (only H+ may be, as a proton deficit)', s)
+    return null
+  }
+  if (s.variable === 'pressure' && points.some((v) => v <= 0)) {
+    report.error('P052', 'a partial pressure must be positive', s)
+    return null
+  }
+  if (s.variable === 'temperature' && points.some((v) => v <= -273.15)) {
+    report.error('P081', 'a temperature must be above absolute zero', s)
+    return null
+  }
+  return { variable: s.variable, component: component?.name ?? null, values: points, log: s.log, line: report.lineOf(s.start.number.from) }
+}

@@ -1,0 +1,138 @@
+/**
+ * Every token of Poise, in one module: the lexer, the parser and the editor's
+ * highlighter all use these definitions, so a word is classified the same way
+ * everywhere. Token names are part of the contract with the highlighter
+ * (documented in grammar/README.md): keep them stable.
+ *
+ * Three words are deliberately ambiguous because chemists write them so:
+ * `K` (potassium, the constant kind, kelvin), `M` (molar) and `C` (carbon,
+ * degrees Celsius). Position decides, which is why Unit and ConstantKind are
+ * custom patterns that look at the token before them.
+ */
+import { createToken, Lexer, type IToken, type TokenType } from 'chevrotain'
+
+
+export const Comment = createToken({ name: 'Comment', pattern: /#[^\n\r]*/, group: 'comments' })
+export const Newline = createToken({ name: 'Newline', pattern: /\r\n|\r|\n/, line_breaks: true })
+export const Whitespace = createToken({ name: 'Whitespace', pattern: /[ \t\f\u00a0\u2009]+/, group: Lexer.SKIPPED })
+export const StringLiteral = createToken({ name: 'String', pattern: /"(?:[^"\\\n\r]|\\.)*"/, label: 'a quoted text' })
+/** An opening quote with no closing one on the same line; the checker reports it. */
+export const UnterminatedString = createToken({ name: 'UnterminatedString', pattern: /"(?:[^"\\\n\r]|\\.)*/ })
+export const Arrow = createToken({ name: 'Arrow', pattern: /<=>|⇌/, label: '<=>' })
+export const NumberLiteral = createToken({
+  name: 'Number',
+  pattern: /-?(?:10\^-?\d+(?:\.\d+)?|\d+(?:\.\d*)?(?:[eE][+-]?\d+)?|\.\d+(?:[eE][+-]?\d+)?)/,
+  label: 'a number',
+})
+
+const lowerUnits = [
+  'mmol/L', 'umol/L', 'µmol/L', 'μmol/L', 'nmol/L', 'mol/L', 'mM', 'uM', 'µM', 'μM', 'nM',
+  'mg/L', 'ug/L', 'µg/L', 'μg/L', 'g/L', '°C', 'atm', 'bar', 'kPa', 'kJ/mol', 'kcal/mol',
+]
+const upperUnits = ['J/mol', 'Pa', 'M', 'C', 'K']
+const escape = (s: string) => s.replace(/[/^$.*+?()[\]{}|\\]/g, '\\$&')
+const unitAfterNumber = new RegExp(`(?:${[...lowerUnits, ...upperUnits].map(escape).join('|')})(?![A-Za-z0-9_/()^+\\-·:])`, 'y')
+const unitAnywhere = new RegExp(`(?:${lowerUnits.map(escape).join('|')})(?![A-Za-z0-9_/()^+\\-·:])`, 'y')
+
+function lastTokenIs(tokens: IToken[], type: TokenType): boolean {
+  const last = tokens[tokens.length - 1]
+  return last !== undefined && last.tokenType === type
+}
+
+function stickyExec(re: RegExp, text: string, offset: number): RegExpExecArray | null {
+  re.lastIndex = offset
+  return re.exec(text)
+}
+
+/** A unit; upper-case units (M, C, K, Pa, J/mol) only directly after a number. */
+export const Unit = createToken({
+  name: 'Unit',
+  pattern: {
+    exec: (text: string, offset: number, tokens: IToken[]) =>
+      lastTokenIs(tokens, NumberLiteral) ? stickyExec(unitAfterNumber, text, offset) : stickyExec(unitAnywhere, text, offset),
+  },
+  line_breaks: false,
+  start_chars_hint: ['m', 'u', 'µ', 'μ', 'n', 'M', 'g', '°', 'a', 'b', 'k', 'J', 'P', 'C', 'K'],
+  label: 'a unit',
+})
+
+const lowerKinds = ['logKsp', 'logKH', 'logK', 'logbeta', 'pKsp', 'pKa', 'pKw', 'pK', 'beta']
+const upperKinds = ['Ksp', 'Ka', 'K']
+const kindAfterFormula = new RegExp(`(?:${[...lowerKinds, ...upperKinds].join('|')})(?![A-Za-z0-9_\\-()^+·:])`, 'y')
+const kindAnywhere = new RegExp(`(?:${lowerKinds.join('|')})(?![A-Za-z0-9_\\-])`, 'y')
+
+/** The kind of an equilibrium constant; `K`, `Ka`, `Ksp` only right after the last species of a reaction. */
+export const ConstantKind = createToken({
+  name: 'ConstantKind',
+  pattern: {
+    exec: (text: string, offset: number, tokens: IToken[]) =>
+      // Formula is declared below; it is only read when the lexer runs.
+      lastTokenIs(tokens, Formula) ? stickyExec(kindAfterFormula, text, offset) : stickyExec(kindAnywhere, text, offset),
+  },
+  line_breaks: false,
+  start_chars_hint: ['l', 'p', 'b', 'K'],
+  label: 'a constant kind (logK, pKa, pKsp, …)',
+})
+
+/** A lower-case word that is no keyword: a source key, or a misspelt keyword. */
+export const Word = createToken({ name: 'Word', pattern: /[a-z][A-Za-z0-9_\-]*/, label: 'a word' })
+
+function keyword(name: string, word: string): TokenType {
+  return createToken({ name, pattern: word, longer_alt: Word, label: `'${word}'` })
+}
+
+export const SystemKeyword = keyword('SystemKeyword', 'system')
+export const TemperatureKeyword = keyword('TemperatureKeyword', 'temperature')
+export const ActivityKeyword = keyword('ActivityKeyword', 'activity')
+export const IonicStrengthKeyword = keyword('IonicStrengthKeyword', 'ionic-strength')
+export const ComponentKeyword = keyword('ComponentKeyword', 'component')
+export const ReactionKeyword = keyword('ReactionKeyword', 'reaction')
+export const SolidKeyword = keyword('SolidKeyword', 'solid')
+export const SourceKeyword = keyword('SourceKeyword', 'source')
+export const UseKeyword = keyword('UseKeyword', 'use')
+export const SweepKeyword = keyword('SweepKeyword', 'sweep')
+export const TotalKeyword = keyword('TotalKeyword', 'total')
+export const FreeKeyword = keyword('FreeKeyword', 'free')
+export const PHKeyword = keyword('PHKeyword', 'pH')
+export const PressureKeyword = keyword('PressureKeyword', 'pressure')
+export const BalanceKeyword = keyword('BalanceKeyword', 'balance')
+export const ExcessKeyword = keyword('ExcessKeyword', 'excess')
+export const SuppressedKeyword = keyword('SuppressedKeyword', 'suppressed')
+export const IdealKeyword = keyword('IdealKeyword', 'ideal')
+export const DaviesKeyword = keyword('DaviesKeyword', 'davies')
+export const DebyeHuckelKeyword = keyword('DebyeHuckelKeyword', 'debye-huckel')
+export const EnthalpyKeyword = keyword('EnthalpyKeyword', 'dH')
+export const CiteKeyword = keyword('CiteKeyword', 'cite')
+export const FromKeyword = keyword('FromKeyword', 'from')
+export const ToKeyword = keyword('ToKeyword', 'to')
+export const StepKeyword = keyword('StepKeyword', 'step')
+export const PointsKeyword = keyword('PointsKeyword', 'points')
+export const LogKeyword = keyword('LogKeyword', 'log')
+
+/** A chemical formula: starts with an upper-case letter; its inside is checked by formula.ts. */
+export const Formula = createToken({
+  name: 'Formula',
+  pattern: /[A-Z][A-Za-z0-9()[\]·:^+\-⁰¹²³⁴⁵⁶⁷⁸⁹⁺⁻₀₁₂₃₄₅₆₇₈₉]*/,
+  label: 'a formula',
+})
+export const Plus = createToken({ name: 'Plus', pattern: '+', label: "'+'" })
+export const At = createToken({ name: 'At', pattern: '@', label: "'@'" })
+
+export const KEYWORD_TOKENS: TokenType[] = [
+  SystemKeyword, TemperatureKeyword, ActivityKeyword, IonicStrengthKeyword, ComponentKeyword,
+  ReactionKeyword, SolidKeyword, SourceKeyword, UseKeyword, SweepKeyword, TotalKeyword, FreeKeyword,
+  PHKeyword, PressureKeyword, BalanceKeyword, ExcessKeyword, SuppressedKeyword, IdealKeyword,
+  DaviesKeyword, DebyeHuckelKeyword, EnthalpyKeyword, CiteKeyword, FromKeyword, ToKeyword,
+  StepKeyword, PointsKeyword, LogKeyword,
+]
+
+/** Order matters: the first pattern that matches wins (keywords before Word, units before Formula). */
+export const allTokens: TokenType[] = [
+  Comment, Newline, Whitespace, StringLiteral, UnterminatedString, Arrow, NumberLiteral, Unit,
+  ConstantKind, ...KEYWORD_TOKENS, Word, Formula, Plus, At,
+]
+
+/** Words offered by completion. */
+export const KEYWORDS: string[] = KEYWORD_TOKENS.map((t) => String(t.PATTERN))
+export const UNITS: string[] = [...lowerUnits, ...upperUnits]
+export const CONSTANT_KINDS: string[] = ['logK', 'K', 'pK', 'logbeta', 'beta', 'pKa', 'Ka', 'pKsp', 'Ksp', 'logKsp', 'pKw', 'logKH']
