@@ -1,0 +1,16 @@
+// Seeds the demo lab and accounts into NUXT_DATABASE_URL (or the local database), once.
+import { resolve } from 'node:path'
+import { databaseUrlFromEnv, openDatabase } from '../server/database/connect'
+import { DEMO_LAB, seedDemo } from '../server/database/seed'
+
+const { db, pool } = openDatabase(databaseUrlFromEnv())
+try {
+  const { createdLab, addedSystems } = await seedDemo(db, resolve(process.cwd(), 'examples'))
+  console.log(createdLab ? `Seeded "${DEMO_LAB.name}" with its demo accounts` : `"${DEMO_LAB.name}" already seeded`)
+  if (addedSystems.length) console.log(`Added demo systems: ${addedSystems.join(', ')}`)
+} catch (error) {
+  console.error(`Could not seed the demo lab: ${(error as Error).message}`)
+  process.exitCode = 1
+} finally {
+  await pool.end()
+}
