@@ -9,7 +9,7 @@ import type { PoiseSymbol } from '../shared/poise/index'
 import { parseFormula } from '../shared/poise/formula'
 import { poiseSymbolsField } from './analysis'
 import { lexLine } from './language'
-import { typesetFormula } from './typeset'
+import { typesetFormula } from '../shared/results/typeset'
 
 export interface SymbolDescription {
   /** Typeset name, e.g. `Cu(NH₃)₄²⁺`. */
