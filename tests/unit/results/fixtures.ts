@@ -129,9 +129,9 @@ export const copperAmmonia: FixtureSystem = {
   ],
 }
 
-/** Copper ammonia at pH 9.5, free Cu 1e-9, free NH3 0.05 mol/L. */
+/** Copper ammonia at pH 9.5, free Cu^2+ 1e-12 and free NH3 0.05 mol/L (about 25 µmol/L copper in all). */
 export function copperAmmoniaResult(): Result {
-  return solvedAt(copperAmmonia, [-9.5, -9, Math.log10(0.05)])
+  return solvedAt(copperAmmonia, [-9.5, -12, Math.log10(0.05)])
 }
 
 /**
