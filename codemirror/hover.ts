@@ -36,7 +36,7 @@ export function describeSymbol(symbol: PoiseSymbol): SymbolDescription {
     kind: symbol.kind,
     composition: Object.entries(symbol.elements).map(([element, count]) => ({ element, count })),
     charge: formatCharge(symbol.charge),
-    molarMass: `${symbol.molarMass.toFixed(3)} g/mol`,
+    molarMass: symbol.molarMass === null ? 'no standard atomic weight for one of its elements' : `${symbol.molarMass.toFixed(3)} g/mol`,
     formation: describeFormation(symbol),
   }
 }

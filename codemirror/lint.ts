@@ -6,19 +6,18 @@
 import { linter, type Diagnostic as EditorDiagnostic } from '@codemirror/lint'
 import type { Extension } from '@codemirror/state'
 import type { EditorView } from '@codemirror/view'
-import { compile } from '../shared/poise/index'
+import { compile, type CompileOptions, type CompileResult } from '../shared/poise/index'
 import { poiseSymbolsField, setPoiseSymbols } from './analysis'
 import { toEditorDiagnostics } from './editorDiagnostics'
 import { inlineMessages } from './inlineMessages'
 
-export type PoiseCompileOptions = NonNullable<Parameters<typeof compile>[1]>
-export type PoiseCompileResult = Awaited<ReturnType<typeof compile>>
+export type { CompileOptions as PoiseCompileOptions, CompileResult as PoiseCompileResult }
 
 export interface PoiseLinterOptions {
   /** Passed to compile(), e.g. how `use "LIBRARY"` is resolved. */
-  compileOptions?: PoiseCompileOptions
+  compileOptions?: CompileOptions
   /** Called with each compile result, e.g. to show counts in a status line. */
-  onResult?: (result: PoiseCompileResult) => void
+  onResult?: (result: CompileResult) => void
   /** Pause after typing before compiling, ms. */
   delay?: number
 }
@@ -28,10 +27,10 @@ export interface PoiseLinterOptions {
  * and hover, and show each message in the text under its line.
  */
 export function poiseLinter(options: PoiseLinterOptions = {}): Extension {
-  const source = async (view: EditorView): Promise<EditorDiagnostic[]> => {
+  const source = (view: EditorView): EditorDiagnostic[] => {
     const doc = view.state.doc
-    const result = await compile(doc.toString(), options.compileOptions)
-    if (view.state.doc === doc) view.dispatch({ effects: setPoiseSymbols.of(result.symbols) })
+    const result = compile(doc.toString(), options.compileOptions)
+    view.dispatch({ effects: setPoiseSymbols.of(result.symbols) })
     options.onResult?.(result)
     return toEditorDiagnostics(result.diagnostics, doc.length)
   }

@@ -3,6 +3,7 @@ import { EditorState } from '@codemirror/state'
 import type { PoiseSymbol } from '../../../shared/poise/index'
 import { poiseSymbolsField, setPoiseSymbols } from '../../../codemirror/analysis'
 import { completionsAt } from '../../../codemirror/completion'
+import { compile } from '../../../shared/poise/index'
 
 const range = { from: 0, to: 0, line: 1, column: 1, endLine: 1, endColumn: 1 }
 const symbol = (name: string, kind: PoiseSymbol['kind']): PoiseSymbol => ({
@@ -77,5 +78,21 @@ describe('Poise completion', () => {
 
   it('offers nothing inside a comment', () => {
     expect(offered('# total 12 |')).toBeNull()
+  })
+})
+
+describe('Poise completion with the symbols of a real compile', () => {
+  it('offers the species the file declares, components and reaction products alike', () => {
+    const doc = `system "Limestone bed"
+component Ca^2+ total 1 mmol/L
+component CO3^2- total 1 mmol/L
+component H+ balance
+reaction H2O <=> H+ + OH- pKw 14.00
+reaction HCO3- <=> CO3^2- + H+ pKa 10.33
+reaction `
+    let state = EditorState.create({ doc, extensions: [poiseSymbolsField] })
+    state = state.update({ effects: setPoiseSymbols.of(compile(doc).symbols) }).state
+    const labels = completionsAt(state, doc.length, false)!.options.map((o) => o.label)
+    expect(labels).toEqual(expect.arrayContaining(['Ca^2+', 'CO3^2-', 'H+', 'OH-', 'HCO3-']))
   })
 })

@@ -1,0 +1,66 @@
+import { describe, expect, it } from 'vitest'
+import { EditorState } from '@codemirror/state'
+import { compile } from '../../../shared/poise/index'
+import { poiseSymbolsField, setPoiseSymbols } from '../../../codemirror/analysis'
+import { describeSymbol, findSymbol, symbolAt } from '../../../codemirror/hover'
+
+const plating = `system "Copper ammine plating bath"
+component Cu^2+ total 10 mmol/L
+component NH3 total 0.5 mol/L
+component H+ balance
+reaction H2O <=> H+ + OH- pKw 14.00
+reaction NH4+ <=> NH3 + H+ pKa 9.24
+reaction Cu^2+ + 4 NH3 <=> Cu(NH3)4^2+ logbeta 13.0
+`
+
+/** An editor state holding `plating` with the symbols of its compile, as after the linter ran. */
+function compiledState() {
+  const result = compile(plating)
+  const state = EditorState.create({ doc: plating, extensions: [poiseSymbolsField] })
+  return { state: state.update({ effects: setPoiseSymbols.of(result.symbols) }).state, symbols: result.symbols }
+}
+
+describe('hover on a species', () => {
+  it('shows Cu(NH3)4^2+ typeset with the composition and charge its formula gives', () => {
+    const { state } = compiledState()
+    // Composition and charge follow from the formula itself: Cu(NH3)4 has 1 Cu, 4 N, 12 H; ^2+ is a charge of +2.
+    const found = symbolAt(state, plating.indexOf('Cu(NH3)4^2+') + 3)!
+    expect(found.description.title).toBe('Cu(NH₃)₄²⁺')
+    expect(found.description.composition).toEqual([
+      { element: 'Cu', count: 1 },
+      { element: 'N', count: 4 },
+      { element: 'H', count: 12 },
+    ])
+    expect(found.description.charge).toBe('+2')
+    expect(found.from).toBe(plating.indexOf('Cu(NH3)4^2+'))
+  })
+
+  it('gives the molar mass from IUPAC atomic weights and the resolved log10 β', () => {
+    const { state } = compiledState()
+    const { description } = symbolAt(state, plating.indexOf('Cu(NH3)4^2+'))!
+    // IUPAC standard atomic weights (abridged, from memory): Cu 63.546, N 14.007, H 1.008
+    // → 63.546 + 4·14.007 + 12·1.008 = 131.670 g/mol.
+    expect(parseFloat(description.molarMass)).toBeCloseTo(131.67, 1)
+    // The cumulative constant as written in the file: Cu^2+ and NH3 are both components.
+    expect(description.formation).toContain('log₁₀ β = 13.00')
+  })
+
+  it('calls a component a component, and resolves a species through the reactions', () => {
+    const { state, symbols } = compiledState()
+    expect(symbolAt(state, plating.indexOf('NH3'))!.description.formation).toMatch(/^a component/)
+    // NH4+ = NH3 + H+ with pKa 9.24, so its formation from the components has log10 β = +9.24.
+    expect(describeSymbol(findSymbol(symbols, 'NH4+')!).formation).toContain('9.24')
+    expect(describeSymbol(findSymbol(symbols, 'OH-')!).charge).toBe('−1')
+  })
+
+  it('finds a species written in superscript form', () => {
+    const { symbols } = compiledState()
+    expect(findSymbol(symbols, 'Cu²⁺')?.name).toBe('Cu^2+')
+  })
+
+  it('shows nothing over a keyword or a number', () => {
+    const { state } = compiledState()
+    expect(symbolAt(state, plating.indexOf('total') + 1)).toBeNull()
+    expect(symbolAt(state, plating.indexOf('13.0') + 1)).toBeNull()
+  })
+})
