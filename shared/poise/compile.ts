@@ -135,7 +135,7 @@ export function compileSource(source: string, options: CompileOptions, stack: st
   for (const i of dependent) {
     report.error('P060', `${components[i]!.name} is a combination of the components above it (and water): it cannot be a component too. Remove it, or remove one of the components it is made of`, componentTok.get(components[i]!.name)!)
   }
-  const balances = components.filter((c) => c.mode === 'balance')
+  const balances = balancesOf(components)
   for (const b of balances.slice(1)) report.error('P055', `only one component can be balance: ${balances[0]!.name} already is`, componentTok.get(b.name)!)
 
   // reactions
@@ -166,8 +166,11 @@ export function compileSource(source: string, options: CompileOptions, stack: st
   if (!incomplete) {
     const mentioned = new Set(prepared.flatMap((r) => [...r.left, ...r.right].map((t) => t.formula.name)))
     for (const lr of resolution.used) if (lr.library) for (const t of [...lr.left, ...lr.right]) mentioned.add(t.formula.name)
+    // A charged spectator still counts where charges count: the charge balance and the ionic strength.
+    const chargesCount = balancesOf(components).length > 0 || (activity !== 'ideal' && fixedIonicStrength === null)
     for (const c of components) {
-      if (!mentioned.has(c.name)) report.warning('W101', `component ${c.name} is used by no reaction: only its free form will be present. Remove it, or add its reactions`, componentTok.get(c.name)!)
+      if (mentioned.has(c.name) || (c.charge !== 0 && chargesCount)) continue
+      report.warning('W101', `component ${c.name} is used by no reaction and changes nothing here: remove it, or add the reactions it takes part in`, componentTok.get(c.name)!)
     }
   }
   const suppressed = new Set<string>()
@@ -198,7 +201,8 @@ export function compileSource(source: string, options: CompileOptions, stack: st
   const model = buildModel()
   const symbols = buildSymbols()
   const library: LibraryContent = { reactions: prepared, sources, libraries }
-  return { model: report.hasErrors ? null : model, diagnostics: report.diagnostics, symbols, library }
+  const diagnostics = [...report.diagnostics].sort((a, b) => a.range.from - b.range.from)
+  return { model: report.hasErrors ? null : model, diagnostics, symbols, library }
 
   function buildModel(): Model {
     const species: ModelSpecies[] = []
@@ -246,6 +250,10 @@ export function compileSource(source: string, options: CompileOptions, stack: st
     }
     return out
   }
+}
+
+function balancesOf(components: ModelComponent[]): ModelComponent[] {
+  return components.filter((c) => c.mode === 'balance')
 }
 
 function sideText(terms: PreparedTerm[]): string {

@@ -7,8 +7,8 @@
 import { CstParser, EOF, type CstNode, type IParserErrorMessageProvider, type IToken, type TokenType } from 'chevrotain'
 import * as T from './tokens'
 
-function describe(token: IToken): string {
-  return token.tokenType === EOF ? 'the end of the line' : `'${token.image}'`
+function describe(token: IToken | undefined): string {
+  return !token || token.tokenType === EOF ? 'the end of the line' : `'${token.image}'`
 }
 
 function labelOf(type: TokenType): string {
@@ -34,9 +34,9 @@ const messages: IParserErrorMessageProvider = {
   buildNotAllInputParsedMessage: ({ firstRedundant }) =>
     `unexpected ${describe(firstRedundant)}: one statement a line, and nothing after its end (comments start with #)`,
   buildNoViableAltMessage: ({ expectedPathsPerAlt, actual, previous, ruleName }) =>
-    `expected ${RULE_NAMES[ruleName] ?? alternatives(expectedPathsPerAlt)}${previous && previous.tokenType !== EOF && previous.image ? ` after '${previous.image}'` : ''}, found ${describe(actual)}`,
+    `expected ${RULE_NAMES[ruleName] ?? alternatives(expectedPathsPerAlt)}${previous && previous.tokenType !== EOF && previous.image ? ` after '${previous.image}'` : ''}, found ${describe(actual[0]!)}`,
   buildEarlyExitMessage: ({ expectedIterationPaths, actual }) =>
-    `expected ${alternatives([expectedIterationPaths])}, found ${describe(actual)}`,
+    `expected ${alternatives([expectedIterationPaths])}, found ${describe(actual[0]!)}`,
 }
 
 class PoiseParser extends CstParser {
