@@ -29,6 +29,8 @@ export default defineConfig({
           include: ['tests/nuxt/**/*.test.ts', 'tests/e2e/**/*.test.ts'],
           environment: 'node',
           fileParallelism: false,
+          // One database reset and one built server for all route and browser files.
+          globalSetup: ['tests/setup/global-server.ts'],
           testTimeout: 60_000,
           hookTimeout: 180_000,
         },
