@@ -51,6 +51,7 @@ export function solveWithPhases(ws: Workspace, state: SolverState, limits: Limit
   for (let s = 0; s < p.nsol; s++) active += state.active[s]
   if (active > maxSolids) { state.active.fill(0); state.n.fill(0) }
   const seen = new Set<string>([keyOf(state.active)])
+  const good = { x: new Float64Array(state.x), n: new Float64Array(state.n), u: state.u }
   let iterations = 0
   let lastAdd = -1
   const rounds = 4 * p.nsol + 4
@@ -59,17 +60,21 @@ export function solveWithPhases(ws: Workspace, state: SolverState, limits: Limit
     const out = newton(ws, state, { maxIterations: Math.max(1, left), deadline: limits.deadline })
     iterations += out.iterations
     if (!out.ok) {
-      const last = lastAdd
-      lastAdd = -1
-      if (out.singular && last >= 0 && state.active[last]) {
-        // The solid just added made the equations dependent (its stoichiometry
-        // is a combination of the others present): leave it out and go on.
-        state.active[last] = 0; state.n[last] = 0; blocked[last] = 1
-        notes.push(`${p.model.solids[last].name} could not join the other solids present (its equation depends on theirs); it was left out.`)
+      const added = lastAdd
+      if (out.singular && added >= 0 && state.active[added]) {
+        // The solid just added made the saturation equations dependent (its
+        // stoichiometry combines those of solids present): with them all it
+        // would over-fix the activities. Swap one of the others out for it.
+        restore(state, good)
+        if (!swapOut(p, state, added, seen)) {
+          state.active[added] = 0; state.n[added] = 0; blocked[added] = 1; lastAdd = -1
+        }
         continue
       }
       return { ok: false, iterations, maxScaled: out.maxScaled, worstRow: out.worstRow, reason: out.reason, notes }
     }
+    lastAdd = -1
+    snapshot(good, state)
     let drop = -1
     for (let s = 0; s < p.nsol; s++) if (state.active[s] && state.n[s] < 0 && (drop < 0 || state.n[s] < state.n[drop])) drop = s
     if (drop >= 0) {
@@ -85,6 +90,10 @@ export function solveWithPhases(ws: Workspace, state: SolverState, limits: Limit
       if (si > best) { best = si; add = s }
     }
     if (add < 0) {
+      const stuck = blockedSupersaturated(p, state, blocked)
+      if (stuck) {
+        return { ok: false, iterations, maxScaled: out.maxScaled, worstRow: out.worstRow, notes, reason: stuck }
+      }
       addFixedSupersaturationNotes(p, state, notes)
       return { ok: true, iterations, maxScaled: out.maxScaled, worstRow: out.worstRow, notes }
     }
@@ -101,6 +110,46 @@ export function solveWithPhases(ws: Workspace, state: SolverState, limits: Limit
     if (!remember(seen, state.active)) return cycling(p, iterations, out, notes)
   }
   return { ok: false, iterations, maxScaled: Infinity, worstRow: 0, notes, reason: 'the choice of solids present did not settle' }
+}
+
+interface Snapshot { x: Float64Array; n: Float64Array; u: number }
+
+function snapshot(to: Snapshot, state: SolverState): void {
+  to.x.set(state.x); to.n.set(state.n); to.u = state.u
+}
+
+/** Back to the last solved point, keeping the active set (amounts of solids no longer present zeroed). */
+function restore(state: SolverState, from: Snapshot): void {
+  state.x.set(from.x); state.u = from.u
+  for (let s = 0; s < state.n.length; s++) state.n[s] = state.active[s] ? from.n[s] : 0
+}
+
+/**
+ * Takes out one present solid (the smallest amount first) so that `added` can
+ * stay, choosing a set not tried before; false when every choice was tried.
+ */
+function swapOut(p: Problem, state: SolverState, added: number, seen: Set<string>): boolean {
+  const present: number[] = []
+  for (let s = 0; s < p.nsol; s++) if (state.active[s] && s !== added) present.push(s)
+  present.sort((a, b) => state.n[a] - state.n[b])
+  for (const k of present) {
+    state.active[k] = 0
+    if (remember(seen, state.active)) { state.n[k] = 0; return true }
+    state.active[k] = 1
+  }
+  return false
+}
+
+/** A reason when a solid that had to be left out is still supersaturated at the end. */
+function blockedSupersaturated(p: Problem, state: SolverState, blocked: Uint8Array): string | null {
+  for (let s = 0; s < p.nsol; s++) {
+    if (!blocked[s]) continue
+    const si = saturationIndex(p, state.x, s)
+    if (si > SUPERSATURATION_TOLERANCE) {
+      return `${p.model.solids[s].name} stays supersaturated (SI ${si.toExponential(2)}) but no set of solids including it could be solved (its saturation equation depends on those of the others)`
+    }
+  }
+  return null
 }
 
 function remember(seen: Set<string>, active: Uint8Array): boolean {
