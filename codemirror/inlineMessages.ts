@@ -6,50 +6,57 @@
  */
 import { RangeSetBuilder, StateField, type EditorState } from '@codemirror/state'
 import { Decoration, EditorView, WidgetType, type DecorationSet } from '@codemirror/view'
-import { setDiagnosticsEffect, type Diagnostic } from '@codemirror/lint'
+import { forEachDiagnostic, setDiagnosticsEffect, type Action, type Diagnostic } from '@codemirror/lint'
 
-interface LineMessage {
-  severity: Diagnostic['severity']
-  message: string
+/** Run a diagnostic's fix at the place the diagnostic has moved to since it was reported. */
+function applyAction(view: EditorView, diagnostic: Diagnostic, action: Action) {
+  let applied = false
+  forEachDiagnostic(view.state, (d, from, to) => {
+    if (d !== diagnostic || applied) return
+    applied = true
+    action.apply(view, from, to)
+  })
 }
 
 class MessagesWidget extends WidgetType {
-  constructor(readonly messages: readonly LineMessage[]) {
+  constructor(readonly diagnostics: readonly Diagnostic[]) {
     super()
   }
 
   override eq(other: MessagesWidget): boolean {
-    return (
-      other.messages.length === this.messages.length &&
-      other.messages.every((m, i) => m.message === this.messages[i]!.message && m.severity === this.messages[i]!.severity)
-    )
+    return other.diagnostics.length === this.diagnostics.length && other.diagnostics.every((d, i) => d === this.diagnostics[i])
   }
 
-  toDOM(): HTMLElement {
+  toDOM(view: EditorView): HTMLElement {
     const block = document.createElement('div')
     block.className = 'cm-poise-messages'
-    block.setAttribute('role', 'status')
-    for (const { severity, message } of this.messages) {
+    for (const diagnostic of this.diagnostics) {
       const row = block.appendChild(document.createElement('div'))
-      row.className = `cm-poise-message cm-poise-message-${severity}`
-      row.dataset.severity = severity
-      row.textContent = message
+      row.className = `cm-poise-message cm-poise-message-${diagnostic.severity}`
+      row.dataset.severity = diagnostic.severity
+      row.appendChild(document.createElement('span')).textContent = diagnostic.message
+      for (const action of diagnostic.actions ?? []) {
+        const button = row.appendChild(document.createElement('button'))
+        button.type = 'button'
+        button.className = 'cm-poise-fix'
+        button.textContent = action.name
+        button.addEventListener('click', () => applyAction(view, diagnostic, action))
+      }
     }
     return block
   }
 
-  override ignoreEvent(): boolean {
-    return false
+  /** Clicks on a fix belong to the button; anywhere else the editor places the cursor as usual. */
+  override ignoreEvent(event: Event): boolean {
+    return event.target instanceof HTMLElement && event.target.closest('.cm-poise-fix') !== null
   }
 }
 
 function buildMessages(state: EditorState, diagnostics: readonly Diagnostic[]): DecorationSet {
-  const byLine = new Map<number, LineMessage[]>()
+  const byLine = new Map<number, Diagnostic[]>()
   for (const d of diagnostics) {
     const line = state.doc.lineAt(Math.min(d.from, state.doc.length))
-    const messages = byLine.get(line.number) ?? []
-    messages.push({ severity: d.severity, message: d.message })
-    byLine.set(line.number, messages)
+    byLine.set(line.number, [...(byLine.get(line.number) ?? []), d])
   }
   const builder = new RangeSetBuilder<Decoration>()
   for (const lineNumber of [...byLine.keys()].sort((a, b) => a - b)) {

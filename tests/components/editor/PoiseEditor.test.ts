@@ -53,7 +53,18 @@ describe('PoiseEditor', () => {
     const error = diagnostics.find((d) => d.severity === 'error')!
     expect(error.range.line).toBe(5)
     await vi.waitFor(() => expect(wrapper.find('.cm-poise-message-error').exists()).toBe(true), { timeout: 3000 })
-    expect(wrapper.find('.cm-poise-message-error').text()).toBe(error.message)
+    const shown = wrapper.findAll('.cm-poise-message-error span').map((span) => span.text())
+    expect(shown).toContain(error.message)
+  })
+
+  it('offers a quick fix under the line and applies it', async () => {
+    const { wrapper, view } = await mountEditor(bath.replace('component Ni^2+', 'component Ni+2'))
+    await vi.waitFor(() => expect(wrapper.find('.cm-poise-fix').exists()).toBe(true), { timeout: 3000 })
+    const fix = wrapper.get('.cm-poise-fix')
+    expect(fix.text()).toBe('write Ni^2+')
+    await fix.trigger('click')
+    expect(view.state.doc.toString()).toBe(bath)
+    expect(wrapper.emitted('update:modelValue')!.at(-1)).toEqual([bath])
   })
 
   it('emits run on Ctrl-Enter and save on Ctrl-S without typing into the text', async () => {
