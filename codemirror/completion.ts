@@ -47,23 +47,30 @@ export function planCompletion(before: LineToken[], symbols: readonly PoiseSymbo
   const last = before[before.length - 1]
   if (!last) return { kind: 'keyword', words: known(STATEMENT_WORDS, KEYWORDS) }
   if (last.role === 'comment') return null
-  const statement = before[0]!.image
-  if (statement === 'reaction') return planReaction(before, symbols)
-  if (last.role === 'number') return { kind: 'unit', words: [...UNITS] }
-  switch (statement) {
+  const units: CompletionPlan = { kind: 'unit', words: [...UNITS] }
+  switch (before[0]!.image) {
+    case 'reaction':
+      return planReaction(before, symbols)
+    case 'temperature':
+    case 'ionic-strength':
+      return last.role === 'number' ? units : null
     case 'component':
       if (before.length === 1) return { kind: 'symbol', words: symbolNames(symbols) }
       if (before.length === 2) return { kind: 'keyword', words: known(COMPONENT_SPECS, KEYWORDS) }
-      return null
+      // A pH is written without a unit; totals, free values and pressures take one.
+      return last.role === 'number' && before[2]!.image !== 'pH' ? units : null
     case 'activity':
       return before.length === 1 ? { kind: 'keyword', words: known(ACTIVITY_MODELS, KEYWORDS) } : null
     case 'solid':
       if (before.length === 1) return { kind: 'symbol', words: symbolNames(symbols, ['solid']) }
       return before.length === 2 ? { kind: 'keyword', words: known(['suppressed'], KEYWORDS) } : null
-    case 'sweep':
+    case 'sweep': {
       if (before.length === 1) return { kind: 'keyword', words: known(SWEEP_VARIABLES, KEYWORDS) }
       if (last.image === 'total' || last.image === 'pressure') return { kind: 'symbol', words: symbolNames(symbols, ['component']) }
+      const countsPoints = before[before.length - 2]?.image === 'points'
+      if (last.role === 'number' && before[1]!.image !== 'pH' && !countsPoints) return units
       return { kind: 'keyword', words: known(SWEEP_WORDS, KEYWORDS) }
+    }
     default:
       return null
   }

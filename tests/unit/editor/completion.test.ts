@@ -76,6 +76,14 @@ describe('Poise completion', () => {
     expect(offered('solid |')).toEqual(['Cu(OH)2(s)'])
   })
 
+  it('offers no unit where the quantity has none', () => {
+    expect(offered('component H+ pH 4.5 |')).toBeNull()
+    expect(offered('use "buffers" @ 2 |')).toBeNull()
+    expect(offered('sweep pH from 6 |')).toEqual(['from', 'to', 'step', 'points', 'log'])
+    expect(offered('sweep total NH3 from 1 |')).toContain('mmol/L')
+    expect(offered('temperature 35 |')).toContain('°C')
+  })
+
   it('offers nothing inside a comment', () => {
     expect(offered('# total 12 |')).toBeNull()
   })
