@@ -5,6 +5,7 @@
 // --no-defaults. Usage: node scripts/db.mjs start|stop|status
 import { spawn, spawnSync } from 'node:child_process'
 import { existsSync, mkdirSync, readFileSync, openSync } from 'node:fs'
+import { createConnection } from 'node:net'
 import { dirname, join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
 
@@ -75,6 +76,15 @@ function rootSql(sql) {
   if (r.status !== 0) throw new Error(`SQL failed: ${r.stderr.trim()}`)
 }
 
+/** True when something already listens on the port (another checkout's database, say). */
+function portTaken() {
+  return new Promise((done) => {
+    const socket = createConnection({ host: '127.0.0.1', port })
+    socket.once('connect', () => { socket.destroy(); done(true) })
+    socket.once('error', () => done(false))
+  })
+}
+
 function initialise() {
   if (existsSync(join(dataDir, 'mysql'))) return
   mkdirSync(dataDir, { recursive: true })
@@ -109,6 +119,11 @@ async function start() {
     provision()
     console.log(`MariaDB already running on 127.0.0.1:${port}`)
     return
+  }
+  if (await portTaken()) {
+    console.error(`Port ${port} on 127.0.0.1 is in use by another program (another checkout's database?).\n`
+      + `Stop it, or run this checkout on another port: EQUIPOISE_DB_PORT=3317 npm start`)
+    process.exit(1)
   }
   initialise()
   const log = openSync(errorLog, 'a')
