@@ -9,6 +9,7 @@ import type { Completion, CompletionContext, CompletionResult } from '@codemirro
 import type { EditorState } from '@codemirror/state'
 import type { PoiseSymbol } from '../shared/poise/index'
 import { CONSTANT_KINDS, KEYWORDS, UNITS } from '../shared/poise/tokens'
+import { unitInfo, type Dimension } from '../shared/poise/units'
 import { poiseSymbolsField } from './analysis'
 import { lexLine, type LineToken } from './language'
 
@@ -30,6 +31,22 @@ export interface CompletionPlan {
   words: string[]
 }
 
+const AMOUNT: Dimension[] = ['concentration', 'mass-concentration']
+/** What a number means after each word that can stand before it. */
+const QUANTITY_AFTER: Record<string, Dimension[]> = {
+  temperature: ['temperature'],
+  'ionic-strength': ['concentration'],
+  total: AMOUNT,
+  free: AMOUNT,
+  pressure: ['pressure'],
+  dH: ['enthalpy'],
+}
+
+/** The units of the given dimensions, as the language lists them. */
+function unitsOf(dimensions: Dimension[]): CompletionPlan {
+  return { kind: 'unit', words: UNITS.filter((unit) => dimensions.includes(unitInfo(unit)?.dimension as Dimension)) }
+}
+
 /** Only the words the language itself lists, so completion never offers a word the compiler rejects. */
 function known(words: readonly string[], list: readonly string[]): string[] {
   return words.filter((word) => list.includes(word))
@@ -47,18 +64,19 @@ export function planCompletion(before: LineToken[], symbols: readonly PoiseSymbo
   const last = before[before.length - 1]
   if (!last) return { kind: 'keyword', words: known(STATEMENT_WORDS, KEYWORDS) }
   if (last.role === 'comment') return null
-  const units: CompletionPlan = { kind: 'unit', words: [...UNITS] }
   switch (before[0]!.image) {
     case 'reaction':
       return planReaction(before, symbols)
     case 'temperature':
     case 'ionic-strength':
-      return last.role === 'number' ? units : null
-    case 'component':
+      return last.role === 'number' ? unitsOf(QUANTITY_AFTER[before[0]!.image]!) : null
+    case 'component': {
       if (before.length === 1) return { kind: 'symbol', words: symbolNames(symbols) }
       if (before.length === 2) return { kind: 'keyword', words: known(COMPONENT_SPECS, KEYWORDS) }
       // A pH is written without a unit; totals, free values and pressures take one.
-      return last.role === 'number' && before[2]!.image !== 'pH' ? units : null
+      const quantity = QUANTITY_AFTER[before[2]!.image]
+      return last.role === 'number' && quantity ? unitsOf(quantity) : null
+    }
     case 'activity':
       return before.length === 1 ? { kind: 'keyword', words: known(ACTIVITY_MODELS, KEYWORDS) } : null
     case 'solid':
@@ -67,8 +85,9 @@ export function planCompletion(before: LineToken[], symbols: readonly PoiseSymbo
     case 'sweep': {
       if (before.length === 1) return { kind: 'keyword', words: known(SWEEP_VARIABLES, KEYWORDS) }
       if (last.image === 'total' || last.image === 'pressure') return { kind: 'symbol', words: symbolNames(symbols, ['component']) }
+      const quantity = QUANTITY_AFTER[before[1]!.image]
       const countsPoints = before[before.length - 2]?.image === 'points'
-      if (last.role === 'number' && before[1]!.image !== 'pH' && !countsPoints) return units
+      if (last.role === 'number' && quantity && !countsPoints) return unitsOf(quantity)
       return { kind: 'keyword', words: known(SWEEP_WORDS, KEYWORDS) }
     }
     default:
@@ -82,7 +101,7 @@ function planReaction(before: LineToken[], symbols: readonly PoiseSymbol[]): Com
   if (kindAt >= 0) {
     if (last.role === 'number') {
       const afterEnthalpy = before[before.length - 2]?.image === 'dH'
-      return afterEnthalpy ? { kind: 'unit', words: [...UNITS] } : { kind: 'keyword', words: known(REACTION_TAIL, KEYWORDS) }
+      return afterEnthalpy ? unitsOf(QUANTITY_AFTER.dH!) : { kind: 'keyword', words: known(REACTION_TAIL, KEYWORDS) }
     }
     return last.role === 'unit' ? { kind: 'keyword', words: known(REACTION_TAIL, KEYWORDS) } : null
   }

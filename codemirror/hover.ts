@@ -6,7 +6,7 @@
 import { hoverTooltip, type Tooltip } from '@codemirror/view'
 import type { EditorState } from '@codemirror/state'
 import type { PoiseSymbol } from '../shared/poise/index'
-import { parseFormula } from '../shared/poise/formula'
+import { isWater, parseFormula, type ParsedFormula } from '../shared/poise/formula'
 import { poiseSymbolsField } from './analysis'
 import { lexLine } from './language'
 import { typesetFormula } from '../shared/results/typeset'
@@ -14,7 +14,8 @@ import { typesetFormula } from '../shared/results/typeset'
 export interface SymbolDescription {
   /** Typeset name, e.g. `Cu(NH₃)₄²⁺`. */
   title: string
-  kind: PoiseSymbol['kind']
+  /** What the compiler made of it; `solvent` for water, `formula` when the compile did not reach it. */
+  kind: PoiseSymbol['kind'] | 'solvent' | 'formula'
   /** Element counts in the order the formula gives them. */
   composition: { element: string; count: number }[]
   /** Signed charge as chemists write it: `+2`, `0`, `−1`. */
@@ -30,14 +31,35 @@ export function formatCharge(charge: number): string {
   return '0'
 }
 
+function formatMolarMass(molarMass: number | null): string {
+  return molarMass === null ? 'no standard atomic weight for one of its elements' : `${molarMass.toFixed(3)} g/mol`
+}
+
 export function describeSymbol(symbol: PoiseSymbol): SymbolDescription {
   return {
     title: typesetFormula(symbol.name),
     kind: symbol.kind,
     composition: Object.entries(symbol.elements).map(([element, count]) => ({ element, count })),
     charge: formatCharge(symbol.charge),
-    molarMass: symbol.molarMass === null ? 'no standard atomic weight for one of its elements' : `${symbol.molarMass.toFixed(3)} g/mol`,
+    molarMass: formatMolarMass(symbol.molarMass),
     formation: describeFormation(symbol),
+  }
+}
+
+/**
+ * A formula the last compile did not define (water, or a species behind an
+ * error): what its text alone says, so hover still helps while the file is
+ * broken.
+ */
+export function describeFormula(formula: ParsedFormula): SymbolDescription {
+  const water = isWater(formula)
+  return {
+    title: typesetFormula(formula.name),
+    kind: water ? 'solvent' : 'formula',
+    composition: Object.entries(formula.elements).map(([element, count]) => ({ element, count })),
+    charge: formatCharge(formula.charge),
+    molarMass: formatMolarMass(formula.molarMass),
+    formation: water ? 'the solvent: activity 1, never a component' : 'not resolved: no component or reaction defines it yet, or an error stands in the way',
   }
 }
 
@@ -61,8 +83,19 @@ export function symbolAt(state: EditorState, pos: number): { from: number; to: n
   const token = lexLine(line.text).find((t) => t.role === 'formula' && t.from <= offset && offset <= t.to)
   if (!token) return null
   const symbol = findSymbol(state.field(poiseSymbolsField, false) ?? [], token.image)
-  if (!symbol) return null
-  return { from: line.from + token.from, to: line.from + token.to, description: describeSymbol(symbol) }
+  const formula = symbol ? null : parseFormula(token.image).formula
+  const description = symbol ? describeSymbol(symbol) : formula ? describeFormula(formula) : null
+  if (!description) return null
+  return { from: line.from + token.from, to: line.from + token.to, description }
+}
+
+const KIND_LABEL: Record<SymbolDescription['kind'], string> = {
+  component: 'component',
+  species: 'species',
+  solid: 'solid',
+  gas: 'gas',
+  solvent: 'solvent',
+  formula: 'not defined yet',
 }
 
 function renderDescription(description: SymbolDescription): HTMLElement {
@@ -70,7 +103,7 @@ function renderDescription(description: SymbolDescription): HTMLElement {
   dom.className = 'cm-poise-hover'
   const title = dom.appendChild(document.createElement('div'))
   title.className = 'cm-poise-hover-title'
-  title.textContent = `${description.title} · ${description.kind}`
+  title.textContent = `${description.title} · ${KIND_LABEL[description.kind]}`
   const rows: [string, string][] = [
     ['composition', description.composition.map((c) => `${c.element} ${c.count}`).join(', ')],
     ['charge', description.charge],

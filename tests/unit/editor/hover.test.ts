@@ -58,6 +58,27 @@ describe('hover on a species', () => {
     expect(findSymbol(symbols, 'Cu²⁺')?.name).toBe('Cu^2+')
   })
 
+  it('still tells what a formula is made of when the compile could not define it', () => {
+    const broken = plating.replace('component Cu^2+', 'component Cu+2')
+    const result = compile(broken)
+    let state = EditorState.create({ doc: broken, extensions: [poiseSymbolsField] })
+    state = state.update({ effects: setPoiseSymbols.of(result.symbols) }).state
+    const { description } = symbolAt(state, broken.indexOf('Cu(NH3)4^2+'))!
+    expect(description.kind).toBe('formula')
+    expect(description.composition).toEqual([
+      { element: 'Cu', count: 1 },
+      { element: 'N', count: 4 },
+      { element: 'H', count: 12 },
+    ])
+    expect(description.charge).toBe('+2')
+    expect(description.formation).toMatch(/^not resolved/)
+  })
+
+  it('names water the solvent', () => {
+    const { state } = compiledState()
+    expect(symbolAt(state, plating.indexOf('H2O'))!.description.kind).toBe('solvent')
+  })
+
   it('shows nothing over a keyword or a number', () => {
     const { state } = compiledState()
     expect(symbolAt(state, plating.indexOf('total') + 1)).toBeNull()
