@@ -65,7 +65,7 @@ export const poiseEditorTheme = EditorView.theme({
   '.cm-poise-message-warning::before': { content: '"warning: "', fontWeight: '600' },
   '.cm-tooltip': { backgroundColor: palette.panel, border: `1px solid ${palette.line}`, color: palette.ink },
   '.cm-tooltip-autocomplete > ul > li[aria-selected]': { backgroundColor: palette.accentSoft, color: palette.ink },
-  '.cm-poise-hover': { padding: '6px 10px', fontSize: '13px', maxWidth: '28em' },
+  '.cm-poise-hover': { padding: '6px 10px', fontSize: '13px', maxWidth: '28em', fontFamily: "Inter, ui-sans-serif, system-ui, sans-serif" },
   '.cm-poise-hover-title': { fontWeight: '600', marginBottom: '4px' },
   '.cm-poise-hover dl': { display: 'grid', gridTemplateColumns: 'auto 1fr', columnGap: '10px', margin: '0' },
   '.cm-poise-hover dt': { color: palette.inkSoft },
