@@ -71,6 +71,12 @@ export interface DiagramSeries {
   label: string
   color: string
   dash: string | null
+  /**
+   * Where the direct label sits: at the curve's highest point (distribution
+   * and log-concentration curves peak in different places), or above the
+   * right end / below the left end (the two solubility lines can coincide).
+   */
+  labelAt: 'peak' | 'end' | 'start'
   /** One value per sweep point; NaN where the point failed. */
   values: number[]
 }
@@ -146,7 +152,7 @@ function sweepSpecies(sweep: SweepResult, model: StoichiometryModel): string[] {
 }
 
 function seriesFor(model: StoichiometryModel, name: string, values: number[]): DiagramSeries {
-  return { key: name, label: typesetFormula(name), ...styleForIndex(speciesIndex(model, name)), values }
+  return { key: name, label: typesetFormula(name), ...styleForIndex(speciesIndex(model, name)), labelAt: 'peak', values }
 }
 
 function concentrationOf(result: Result, name: string): number {
@@ -192,6 +198,7 @@ function solubility(sweep: SweepResult, model: StoichiometryModel, component: st
       key: 'dissolved',
       label: `Dissolved ${name}`,
       ...styleForIndex(0),
+      labelAt: 'end',
       values: sweep.points.map((p) => valueAt(p, (r) => Math.log10(dissolvedTotal(r, model, component)))),
     },
     {
@@ -199,9 +206,30 @@ function solubility(sweep: SweepResult, model: StoichiometryModel, component: st
       label: `Total ${name}, dissolved and solid`,
       color: OKABE_ITO[0],
       dash: DASHES[1],
+      labelAt: 'start',
       values: sweep.points.map((p) => valueAt(p, (r) => Math.log10(analytical(r)))),
     },
   ]
+}
+
+/**
+ * A log axis over a near-constant quantity (a total that does not move)
+ * would stretch rounding noise across the plot; give it two decades around
+ * the value instead. Null lets the plot fit the data.
+ */
+function atLeastTwoDecades(series: DiagramSeries[]): [number, number] | null {
+  let min = Infinity
+  let max = -Infinity
+  for (const s of series) {
+    for (const v of s.values) {
+      if (!Number.isFinite(v)) continue
+      if (v < min) min = v
+      if (v > max) max = v
+    }
+  }
+  if (!(max - min < 2)) return null
+  const middle = (max + min) / 2
+  return [Math.floor(middle - 1), Math.ceil(middle + 1)]
 }
 
 /** Map a sweep to the series of one diagram kind. */
@@ -231,6 +259,7 @@ export function diagramData(sweep: SweepResult, model: StoichiometryModel, optio
   }
   const below = series.filter((s) => !(maxFinite(s.values) >= floor))
   const shown = options.showAll ? series : series.filter((s) => !below.includes(s))
+  if (options.kind !== 'distribution') yDomain = atLeastTwoDecades(shown)
   return {
     kind: options.kind,
     xLabel: sweepAxisLabel(sweep),

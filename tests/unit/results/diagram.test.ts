@@ -94,6 +94,16 @@ describe('solubility diagram', () => {
     expect(dissolved.values[failed]).toBeNaN()
     expect(dissolved.label).toBe('Dissolved CO₃²⁻')
   })
+
+  it('shows a constant total over two whole decades rather than stretching rounding noise', () => {
+    const data = diagramData(carbonateSweep(), model, { kind: 'solubility', component: 'CO3^2-' })
+    // log10(2e-3) = -2.70
+    expect(data.yDomain).toEqual([-4, -1])
+  })
+
+  it('lets a log axis fit curves that span many decades', () => {
+    expect(diagramData(carbonateSweep(), model, { kind: 'logConcentration', component: null }).yDomain).toBeNull()
+  })
 })
 
 describe('colours and axes', () => {
