@@ -192,8 +192,23 @@ function splitCharge(body: string, phaseSuffix: string): ChargeSplit {
   return { body: core, charge: positive ? 1 : -1, problem: null }
 }
 
-/** Parses a formula such as `Cu(NH3)4^2+`, `CaSO4·2H2O(s)` or `SO₄²⁻`. Never throws. */
+// The editor recompiles on every keystroke and a file repeats its formulas:
+// results are memoised (they are treated as read-only by every caller).
+const cache = new Map<string, FormulaResult>()
+const CACHE_LIMIT = 20000
+
+/** Parses a formula such as `Cu(NH3)4^2+`, `CaSO4·2H2O(s)` or `SO₄²⁻`. Never throws. Treat the result as read-only. */
 export function parseFormula(text: string): FormulaResult {
+  let r = cache.get(text)
+  if (r === undefined) {
+    if (cache.size >= CACHE_LIMIT) cache.clear()
+    r = parseFormulaUncached(text)
+    cache.set(text, r)
+  }
+  return r
+}
+
+function parseFormulaUncached(text: string): FormulaResult {
   let body = text
   let phase: Phase = 'aq'
   let phaseSuffix = ''

@@ -39,25 +39,78 @@ const messages: IParserErrorMessageProvider = {
     `expected ${alternatives([expectedIterationPaths])}, found ${describe(actual[0]!)}`,
 }
 
+// Every closure handed to the DSL is created once, as a field, rather than on
+// each call of a rule: creating closures per call dominated parsing time.
 class PoiseParser extends CstParser {
+  private readonly statementAlts = [
+    { ALT: () => this.SUBRULE(this.systemStatement) },
+    { ALT: () => this.SUBRULE(this.temperatureStatement) },
+    { ALT: () => this.SUBRULE(this.activityStatement) },
+    { ALT: () => this.SUBRULE(this.ionicStrengthStatement) },
+    { ALT: () => this.SUBRULE(this.componentStatement) },
+    { ALT: () => this.SUBRULE(this.reactionStatement) },
+    { ALT: () => this.SUBRULE(this.solidStatement) },
+    { ALT: () => this.SUBRULE(this.sourceStatement) },
+    { ALT: () => this.SUBRULE(this.useStatement) },
+    { ALT: () => this.SUBRULE(this.sweepStatement) },
+  ]
+  private readonly activityAlts = [
+    { ALT: () => this.CONSUME(T.IdealKeyword) },
+    { ALT: () => this.CONSUME(T.DaviesKeyword) },
+    { ALT: () => this.CONSUME(T.DebyeHuckelKeyword) },
+  ]
+  private readonly specAlts = [
+    { ALT: () => { this.CONSUME(T.TotalKeyword); this.SUBRULE1(this.quantity) } },
+    { ALT: () => { this.CONSUME(T.FreeKeyword); this.SUBRULE2(this.quantity) } },
+    { ALT: () => { this.CONSUME(T.PHKeyword); this.CONSUME(T.NumberLiteral) } },
+    { ALT: () => { this.CONSUME(T.PressureKeyword); this.SUBRULE3(this.quantity) } },
+    { ALT: () => this.CONSUME(T.BalanceKeyword) },
+    { ALT: () => this.CONSUME(T.ExcessKeyword) },
+  ]
+  private readonly optionalSpec = () => this.SUBRULE(this.componentSpec)
+  private readonly reactionExtraAlts = [
+    { ALT: () => this.SUBRULE(this.enthalpy) },
+    { ALT: () => this.SUBRULE(this.citation) },
+  ]
+  private readonly reactionExtra = () => this.OR(this.reactionExtraAlts)
+  private readonly moreTerms = () => {
+    this.CONSUME(T.Plus)
+    this.SUBRULE2(this.term)
+  }
+  private readonly coefficient = () => this.CONSUME(T.NumberLiteral)
+  private readonly citationAlts = [
+    { ALT: () => this.CONSUME(T.StringLiteral) },
+    { ALT: () => this.CONSUME(T.Word) },
+    { ALT: () => this.CONSUME(T.Formula) },
+  ]
+  private readonly sourceKeyAlts = [
+    { ALT: () => this.CONSUME(T.Word) },
+    { ALT: () => this.CONSUME(T.Formula) },
+  ]
+  private readonly revision = () => {
+    this.CONSUME(T.At)
+    this.CONSUME(T.NumberLiteral)
+  }
+  private readonly sweepSpacingAlts = [
+    { ALT: () => { this.CONSUME(T.StepKeyword); this.SUBRULE3(this.quantity) } },
+    { ALT: () => { this.CONSUME(T.PointsKeyword); this.CONSUME(T.NumberLiteral) } },
+  ]
+  private readonly logSpacing = () => this.CONSUME(T.LogKeyword)
+  private readonly sweepVariableAlts = [
+    { ALT: () => this.CONSUME(T.PHKeyword) },
+    { ALT: () => { this.CONSUME(T.TotalKeyword); this.CONSUME1(T.Formula) } },
+    { ALT: () => this.CONSUME(T.TemperatureKeyword) },
+    { ALT: () => { this.CONSUME(T.PressureKeyword); this.CONSUME2(T.Formula) } },
+  ]
+  private readonly optionalUnit = () => this.CONSUME(T.Unit)
+
   constructor() {
     super(T.allTokens, { recoveryEnabled: true, errorMessageProvider: messages, maxLookahead: 2 })
     this.performSelfAnalysis()
   }
 
   public statement = this.RULE('statement', () => {
-    this.OR([
-      { ALT: () => this.SUBRULE(this.systemStatement) },
-      { ALT: () => this.SUBRULE(this.temperatureStatement) },
-      { ALT: () => this.SUBRULE(this.activityStatement) },
-      { ALT: () => this.SUBRULE(this.ionicStrengthStatement) },
-      { ALT: () => this.SUBRULE(this.componentStatement) },
-      { ALT: () => this.SUBRULE(this.reactionStatement) },
-      { ALT: () => this.SUBRULE(this.solidStatement) },
-      { ALT: () => this.SUBRULE(this.sourceStatement) },
-      { ALT: () => this.SUBRULE(this.useStatement) },
-      { ALT: () => this.SUBRULE(this.sweepStatement) },
-    ])
+    this.OR(this.statementAlts)
   })
 
   private systemStatement = this.RULE('systemStatement', () => {
@@ -72,11 +125,7 @@ class PoiseParser extends CstParser {
 
   private activityStatement = this.RULE('activityStatement', () => {
     this.CONSUME(T.ActivityKeyword)
-    this.OR([
-      { ALT: () => this.CONSUME(T.IdealKeyword) },
-      { ALT: () => this.CONSUME(T.DaviesKeyword) },
-      { ALT: () => this.CONSUME(T.DebyeHuckelKeyword) },
-    ])
+    this.OR(this.activityAlts)
   })
 
   private ionicStrengthStatement = this.RULE('ionicStrengthStatement', () => {
@@ -87,18 +136,11 @@ class PoiseParser extends CstParser {
   private componentStatement = this.RULE('componentStatement', () => {
     this.CONSUME(T.ComponentKeyword)
     this.CONSUME(T.Formula)
-    this.OPTION(() => this.SUBRULE(this.componentSpec))
+    this.OPTION(this.optionalSpec)
   })
 
   private componentSpec = this.RULE('componentSpec', () => {
-    this.OR([
-      { ALT: () => { this.CONSUME(T.TotalKeyword); this.SUBRULE1(this.quantity) } },
-      { ALT: () => { this.CONSUME(T.FreeKeyword); this.SUBRULE2(this.quantity) } },
-      { ALT: () => { this.CONSUME(T.PHKeyword); this.CONSUME(T.NumberLiteral) } },
-      { ALT: () => { this.CONSUME(T.PressureKeyword); this.SUBRULE3(this.quantity) } },
-      { ALT: () => this.CONSUME(T.BalanceKeyword) },
-      { ALT: () => this.CONSUME(T.ExcessKeyword) },
-    ])
+    this.OR(this.specAlts)
   })
 
   private reactionStatement = this.RULE('reactionStatement', () => {
@@ -107,24 +149,16 @@ class PoiseParser extends CstParser {
     this.CONSUME(T.Arrow)
     this.SUBRULE2(this.reactionSide)
     this.SUBRULE(this.constant)
-    this.MANY(() => {
-      this.OR([
-        { ALT: () => this.SUBRULE(this.enthalpy) },
-        { ALT: () => this.SUBRULE(this.citation) },
-      ])
-    })
+    this.MANY(this.reactionExtra)
   })
 
   private reactionSide = this.RULE('reactionSide', () => {
     this.SUBRULE1(this.term)
-    this.MANY(() => {
-      this.CONSUME(T.Plus)
-      this.SUBRULE2(this.term)
-    })
+    this.MANY(this.moreTerms)
   })
 
   private term = this.RULE('term', () => {
-    this.OPTION(() => this.CONSUME(T.NumberLiteral))
+    this.OPTION(this.coefficient)
     this.CONSUME(T.Formula)
   })
 
@@ -140,11 +174,7 @@ class PoiseParser extends CstParser {
 
   private citation = this.RULE('citation', () => {
     this.CONSUME(T.CiteKeyword)
-    this.OR([
-      { ALT: () => this.CONSUME(T.StringLiteral) },
-      { ALT: () => this.CONSUME(T.Word) },
-      { ALT: () => this.CONSUME(T.Formula) },
-    ])
+    this.OR(this.citationAlts)
   })
 
   private solidStatement = this.RULE('solidStatement', () => {
@@ -155,20 +185,14 @@ class PoiseParser extends CstParser {
 
   private sourceStatement = this.RULE('sourceStatement', () => {
     this.CONSUME(T.SourceKeyword)
-    this.OR([
-      { ALT: () => this.CONSUME(T.Word) },
-      { ALT: () => this.CONSUME(T.Formula) },
-    ])
+    this.OR(this.sourceKeyAlts)
     this.CONSUME(T.StringLiteral)
   })
 
   private useStatement = this.RULE('useStatement', () => {
     this.CONSUME(T.UseKeyword)
     this.CONSUME(T.StringLiteral)
-    this.OPTION(() => {
-      this.CONSUME(T.At)
-      this.CONSUME(T.NumberLiteral)
-    })
+    this.OPTION(this.revision)
   })
 
   private sweepStatement = this.RULE('sweepStatement', () => {
@@ -178,25 +202,17 @@ class PoiseParser extends CstParser {
     this.SUBRULE1(this.quantity)
     this.CONSUME(T.ToKeyword)
     this.SUBRULE2(this.quantity)
-    this.OR([
-      { ALT: () => { this.CONSUME(T.StepKeyword); this.SUBRULE3(this.quantity) } },
-      { ALT: () => { this.CONSUME(T.PointsKeyword); this.CONSUME(T.NumberLiteral) } },
-    ])
-    this.OPTION(() => this.CONSUME(T.LogKeyword))
+    this.OR(this.sweepSpacingAlts)
+    this.OPTION(this.logSpacing)
   })
 
   private sweepVariable = this.RULE('sweepVariable', () => {
-    this.OR([
-      { ALT: () => this.CONSUME(T.PHKeyword) },
-      { ALT: () => { this.CONSUME(T.TotalKeyword); this.CONSUME1(T.Formula) } },
-      { ALT: () => this.CONSUME(T.TemperatureKeyword) },
-      { ALT: () => { this.CONSUME(T.PressureKeyword); this.CONSUME2(T.Formula) } },
-    ])
+    this.OR(this.sweepVariableAlts)
   })
 
   private quantity = this.RULE('quantity', () => {
     this.CONSUME(T.NumberLiteral)
-    this.OPTION(() => this.CONSUME(T.Unit))
+    this.OPTION(this.optionalUnit)
   })
 }
 

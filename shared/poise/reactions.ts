@@ -112,8 +112,12 @@ export function kindMismatch(kind: ConstantKind, left: PreparedTerm[], right: Pr
   }
 }
 
-/** Net coefficient of each species (products positive), water included. */
+const netCache = new WeakMap<PreparedReaction, Map<string, { s: number; term: PreparedTerm }>>()
+
+/** Net coefficient of each species (products positive), water included; computed once per reaction. */
 function netCoefficients(r: PreparedReaction): Map<string, { s: number; term: PreparedTerm }> {
+  const cached = netCache.get(r)
+  if (cached) return cached
   const net = new Map<string, { s: number; term: PreparedTerm }>()
   const add = (t: PreparedTerm, sign: number) => {
     const prev = net.get(t.formula.name)
@@ -122,6 +126,7 @@ function netCoefficients(r: PreparedReaction): Map<string, { s: number; term: Pr
   r.left.forEach((t) => add(t, -1))
   r.right.forEach((t) => add(t, 1))
   for (const [k, v] of net) if (Math.abs(v.s) < 1e-12) net.delete(k)
+  netCache.set(r, net)
   return net
 }
 

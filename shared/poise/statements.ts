@@ -75,8 +75,6 @@ function terms(side: CstNode): Term[] {
 
 function toStatement(cst: CstNode, from: number, to: number): Statement {
   const inner = Object.values(cst.children)[0]![0] as CstNode
-  const c = inner.children
-  const first = (Object.values(c).flat()[0] as IToken | undefined)
   const kw = (name: string) => tok(token(inner, name))
   switch (inner.name) {
     case 'systemStatement': {
@@ -144,7 +142,7 @@ function toStatement(cst: CstNode, from: number, to: number): Statement {
       } as Statement
     }
   }
-  throw new Error(`internal: unknown statement ${inner.name} at ${first?.image ?? ''}`)
+  throw new Error(`internal: unknown statement ${inner.name}`)
 }
 
 export interface ParsedFile { statements: Statement[]; problems: SyntaxProblem[]; incomplete: boolean }
