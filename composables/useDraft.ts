@@ -116,12 +116,17 @@ export function useDraft(options: UseDraftOptions) {
     restoredAt.value = null
   }
 
+  /** The user has seen the restore notice; the draft itself stays until save or discard. */
+  function acknowledge() {
+    restoredAt.value = null
+  }
+
   onMounted(() => {
     restore()
     watch(options.source, keep)
   })
 
-  return { dirty, restoredAt, keeping, discard, markSaved }
+  return { dirty, restoredAt, keeping, discard, markSaved, acknowledge }
 }
 
 export const UNSAVED_CHANGES_MESSAGE = 'This system has unsaved changes. Leave anyway? (A draft stays in this browser.)'

@@ -36,6 +36,9 @@ describe('useDraft', () => {
     expect(source.value).toBe(saved + 'temperature 35 C\n')
     expect(draft.restoredAt.value).toBe('2026-12-01T09:30:00.000Z')
     expect(draft.dirty.value).toBe(true)
+    draft.acknowledge()
+    expect(draft.restoredAt.value).toBeNull()
+    expect(readDraft(storage, key)?.source).toBe(saved + 'temperature 35 C\n')
   })
 
   it('keeps each edit as the draft and drops it when the text is back to the saved one', async () => {
