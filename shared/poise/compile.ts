@@ -195,8 +195,8 @@ export function compileSource(source: string, options: CompileOptions, stack: st
   }
 
   let sweep: ModelSweep | null = null
+  // With a component missing, a sweep check would only add confusing errors.
   if (sweepStmt && !incomplete) sweep = compileSweep(sweepStmt, components, report)
-  else if (sweepStmt && incomplete) incomplete = true
 
   const model = buildModel()
   const symbols = buildSymbols()
@@ -212,16 +212,16 @@ export function compileSource(source: string, options: CompileOptions, stack: st
       if (c.phase !== 'aq') return
       const nu = new Array<number>(width).fill(0)
       nu[j] = 1
-      species.push({ name: c.name, charge: c.charge, elements: c.elements, componentIndex: j, nu, logK: 0, logKRef: 0, dH: 0, line: c.line })
+      species.push({ name: c.name, charge: c.charge, elements: { ...c.elements }, componentIndex: j, nu, logK: 0, logKRef: 0, dH: 0, line: c.line })
     })
     for (const r of resolution.used) {
       const name = resolution.defines.get(r)!
       const k = known.get(name)!
       const f = k.formula
       const formation = { nu: k.formation.nu, logK: vantHoff(k.formation.logK, k.formation.dH, temperatureC), logKRef: k.formation.logK, dH: k.formation.dH, line: r.line }
-      if (f.phase === 's') solids.push({ name, elements: f.elements, suppressed: suppressed.has(name), ...formation })
-      else if (f.phase === 'g') gases.push({ name, elements: f.elements, ...formation })
-      else species.push({ name, charge: f.charge, elements: f.elements, componentIndex: null, ...formation })
+      if (f.phase === 's') solids.push({ name, elements: { ...f.elements }, suppressed: suppressed.has(name), ...formation })
+      else if (f.phase === 'g') gases.push({ name, elements: { ...f.elements }, ...formation })
+      else species.push({ name, charge: f.charge, elements: { ...f.elements }, componentIndex: null, ...formation })
     }
     const reactions: ModelReaction[] = resolution.used.map((r) => ({
       equation: `${sideText(r.left)} <=> ${sideText(r.right)}`,

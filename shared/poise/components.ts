@@ -13,7 +13,8 @@ export interface CheckedComponent { model: ModelComponent; formula: ParsedFormul
 export function checkComponent(stmt: ComponentStatement, f: ParsedFormula, report: Reporter): ModelComponent | null {
   const name = f.name
   const line = report.lineOf(stmt.from)
-  const base = { name, charge: f.charge, phase: f.phase, elements: f.elements, molarMass: f.molarMass ?? 0, line }
+  // Copied: formula results are shared through a cache.
+  const base = { name, charge: f.charge, phase: f.phase, elements: { ...f.elements }, molarMass: f.molarMass ?? 0, line }
   if (name === 'H2O') {
     report.error('P057', 'H2O is the solvent (activity 1), never a component: remove this line', stmt.formula)
     return null
