@@ -5,7 +5,7 @@
  */
 import type { Model } from '../../shared/poise/model'
 import type { Result, SweepResult } from '../../shared/types/result'
-import { Workspace, type Limits, type SolverState } from './newton'
+import { Workspace, presolve, type Limits, type SolverState } from './newton'
 import { solveWithPhases } from './phases'
 import { MODE_BALANCE, MODE_TOTAL, buildProblem, setComponent, setTemperature, type Problem } from './problem'
 import { buildResult } from './report'
@@ -45,21 +45,22 @@ function iterationsOf(options: SolveOptions | undefined): number {
 }
 
 function newState(p: Problem): SolverState {
-  return { x: new Float64Array(p.nc), n: new Float64Array(p.nsol), active: new Uint8Array(p.nsol), u: 0 }
+  return { y: new Float64Array(p.nc), x: new Float64Array(p.nc), n: new Float64Array(p.nsol), active: new Uint8Array(p.nsol), u: 0 }
 }
 
 function copyState(to: SolverState, from: SolverState): void {
-  to.x.set(from.x); to.n.set(from.n); to.active.set(from.active); to.u = from.u
+  to.y.set(from.y); to.x.set(from.x); to.n.set(from.n); to.active.set(from.active); to.u = from.u
 }
 
-/** Starting point: free forms at their totals, H+ at the given log activity, √I from the totals. */
-function coldStart(p: Problem, state: SolverState, logH: number): void {
+/** Starting point: free forms at their totals, H+ at the given log activity, √I from the totals, then presolved. */
+function coldStart(ws: Workspace, state: SolverState, logH: number): void {
+  const p = ws.p
   let half = 0
   for (let j = 0; j < p.nc; j++) {
     const c = p.model.components[j]
     if (p.mode[j] === MODE_TOTAL || p.mode[j] === MODE_BALANCE) {
       const t = p.total[j]
-      state.x[j] = j === p.hIndex ? logH : p.mode[j] === MODE_TOTAL && t > 0 ? Math.log10(t) : -10
+      state.y[j] = j === p.hIndex ? logH : p.mode[j] === MODE_TOTAL && t > 0 ? Math.log10(t) : -10
       if (t > 0) half += c.charge * c.charge * t
     } else if (c.mode === 'free') {
       half += c.charge * c.charge * c.value
@@ -68,6 +69,7 @@ function coldStart(p: Problem, state: SolverState, logH: number): void {
   state.n.fill(0)
   state.active.fill(0)
   state.u = Math.min(Math.sqrt(0.5 * half), 3)
+  presolve(ws, state)
 }
 
 interface Attempt { result: Result; ok: boolean }
@@ -95,7 +97,7 @@ function solveProblem(ws: Workspace, state: SolverState, limits: Limits, warm: S
   }
   for (const logH of PROTON_GUESSES) {
     if (performance.now() > limits.deadline) break
-    coldStart(ws.p, state, logH)
+    coldStart(ws, state, logH)
     last = attempt(ws, state, limits, spent)
     if (last.ok) return last
     spent = last.result.iterations

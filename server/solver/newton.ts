@@ -1,8 +1,11 @@
 /**
- * Damped Newton–Raphson for one active set of solids. Unknowns: log10 a of
- * the components under a mass or charge balance, the amounts of the present
- * solids, and u = √I when the activity model needs it (so ionic strength is
- * solved with everything else, not iterated around it).
+ * Damped Newton–Raphson for one active set of solids. Unknowns: log10 of the
+ * free concentration of the components under a mass or charge balance (their
+ * log10 activity follows with γ), the amounts of the present solids, and
+ * u = √I when the activity model needs it, so ionic strength is solved with
+ * everything else instead of iterated around it. Concentrations rather than
+ * activities as unknowns keep the free forms still while u moves, which is
+ * what makes the joint Newton step safe at high ionic strength.
  */
 import { LuDecomposition, Matrix } from 'ml-matrix'
 import { dLogGammaDu, logGamma } from './activity'
@@ -24,7 +27,9 @@ const FLOOR_ITERATIONS = 3
 const MAX_LOG_CONCENTRATION = 300
 
 export interface SolverState {
-  /** log10 activity of every component (fixed ones filled in by the solver). */
+  /** log10 free concentration of the components under a balance (the unknowns). */
+  y: Float64Array
+  /** log10 activity of every component, derived by computeSpecies. */
   x: Float64Array
   /** mol/L of each solid (0 when absent). */
   n: Float64Array
@@ -65,7 +70,7 @@ export class Workspace {
   readonly Ftrial: Float64Array
   readonly scaleTrial: Float64Array
   readonly delta: Float64Array
-  readonly x0: Float64Array
+  readonly y0: Float64Array
   readonly n0: Float64Array
   nUnknownComponents = 0
   nActive = 0
@@ -88,7 +93,7 @@ export class Workspace {
     this.Ftrial = new Float64Array(rows)
     this.scaleTrial = new Float64Array(rows)
     this.delta = new Float64Array(rows)
-    this.x0 = new Float64Array(p.nc)
+    this.y0 = new Float64Array(p.nc)
     this.n0 = new Float64Array(p.nsol)
   }
 
@@ -133,28 +138,29 @@ export class Workspace {
 }
 
 /**
- * Fills the fixed components' activities, then log10 c, c and log10 γ of every
- * species, and d log10 c/du, at (x, u).
+ * From (y, u): the activities x of every component, then log10 c, c and
+ * log10 γ of every species, and d log10 c/du at fixed unknowns.
  */
-export function computeSpecies(ws: Workspace, x: Float64Array, u: number): void {
+export function computeSpecies(ws: Workspace, state: SolverState): void {
   const p = ws.p
   const { nc, nsp, nu, logK } = p
-  const uu = p.fixedRootI >= 0 ? p.fixedRootI : u
+  const x = state.x
+  const uu = p.fixedRootI >= 0 ? p.fixedRootI : state.u
   for (let i = 0; i < nsp; i++) {
     const ba = p.B * p.ionSize[i]
     ws.g[i] = logGamma(p.activity, p.A, ba, p.z2[i], uu)
     ws.dlc[i] = -dLogGammaDu(p.activity, p.A, ba, p.z2[i], uu)
   }
-  // A `free` component holds its concentration, so its activity moves with γ:
-  // log10 a_j = log10 c_j + log10 γ_j(u); dxdu carries that dependence.
+  // Components known or solved by concentration have log10 a_j = log10 c_j +
+  // log10 γ_j(u); dxdu carries that dependence into the Jacobian.
   const dxdu = ws.dxdu
   for (let j = 0; j < nc; j++) {
     dxdu[j] = 0
     const m = p.mode[j]
-    if (m === MODE_TOTAL || m === MODE_BALANCE) continue
-    x[j] = p.fixedLog[j]
     const k = p.componentSpecies[j]
-    if (m === MODE_FIXED_CONCENTRATION && k >= 0) {
+    const byConcentration = m === MODE_TOTAL || m === MODE_BALANCE || m === MODE_FIXED_CONCENTRATION
+    x[j] = m === MODE_TOTAL || m === MODE_BALANCE ? state.y[j] : p.fixedLog[j]
+    if (byConcentration && k >= 0) {
       x[j] += ws.g[k]
       dxdu[j] = -ws.dlc[k]
     }
@@ -175,7 +181,8 @@ export function computeSpecies(ws: Workspace, x: Float64Array, u: number): void 
 }
 
 /** Residuals F and their natural scales at the species last computed, for the current layout. */
-export function computeResiduals(ws: Workspace, x: Float64Array, n: Float64Array, u: number, F: Float64Array, scale: Float64Array): void {
+export function computeResiduals(ws: Workspace, state: SolverState, F: Float64Array, scale: Float64Array): void {
+  const { x, n, u } = state
   const p = ws.p
   const { nc, nsp, nu, charge, z2 } = p
   const c = ws.c
@@ -221,7 +228,7 @@ export function computeResiduals(ws: Workspace, x: Float64Array, n: Float64Array
 }
 
 /** The Jacobian of F over the unknowns, each row divided by scale, into J. */
-function assembleJacobian(ws: Workspace, x: Float64Array, u: number, scale: Float64Array, J: Matrix): void {
+function assembleJacobian(ws: Workspace, u: number, scale: Float64Array, J: Matrix): void {
   const p = ws.p
   const { nc, nsp, nu, charge, z2 } = p
   const nr = ws.nUnknownComponents
@@ -294,24 +301,38 @@ function meritOf(ws: Workspace, F: Float64Array, scale: Float64Array): number {
   return Number.isNaN(m) ? Infinity : m
 }
 
-/** Writes the unknowns plus t·delta into (x, n) from (x0, n0); returns the new u. */
+/** Writes the unknowns plus t·delta into (y, n) from (y0, n0); returns the new u. */
 function applyStep(ws: Workspace, state: SolverState, u0: number, t: number): number {
   const nr = ws.nUnknownComponents
-  for (let r = 0; r < nr; r++) { const j = ws.rowComponent[r]; state.x[j] = ws.x0[j] + t * ws.delta[r] }
+  for (let r = 0; r < nr; r++) { const j = ws.rowComponent[r]; state.y[j] = ws.y0[j] + t * ws.delta[r] }
   for (let a = 0; a < ws.nActive; a++) { const s = ws.rowSolid[a]; state.n[s] = ws.n0[s] + t * ws.delta[nr + a] }
   // √I may shrink tenfold at most in one step: it must stay positive.
   return ws.hasU ? Math.max(0.1 * u0, u0 + t * ws.delta[nr + ws.nActive]) : u0
 }
 
-/** Solves J·delta = −F/scale; false when J is singular. */
+/**
+ * Solves J·delta = −F/scale; false when J is singular. Without solids a
+ * singular J only means one species swamps the others (rows in proportion),
+ * so a small diagonal shift (Levenberg–Marquardt) still gives a descent
+ * direction; with solids it is reported, because it means dependent
+ * saturation equations, which the phase loop resolves.
+ */
 function newtonDirection(ws: Workspace, state: SolverState): boolean {
   const dim = ws.dim
   const J = ws.matrix(dim)
-  assembleJacobian(ws, state.x, state.u, ws.scale, J)
+  assembleJacobian(ws, state.u, ws.scale, J)
   const b = ws.column(dim)
   for (let r = 0; r < dim; r++) b.set(r, 0, -ws.F[r] / ws.scale[r])
-  const lu = new LuDecomposition(J)
-  if (lu.isSingular()) return false
+  let lu = new LuDecomposition(J)
+  if (lu.isSingular()) {
+    if (ws.nActive > 0) return false
+    let biggest = 0
+    for (let r = 0; r < dim; r++) for (let k = 0; k < dim; k++) biggest = Math.max(biggest, Math.abs(J.get(r, k)))
+    const shift = Math.max(biggest, 1) * 1e-8
+    for (let r = 0; r < dim; r++) J.set(r, r, J.get(r, r) + shift)
+    lu = new LuDecomposition(J)
+    if (lu.isSingular()) return false
+  }
   const sol = lu.solve(b)
   for (let r = 0; r < dim; r++) {
     const v = sol.get(r, 0)
@@ -320,6 +341,44 @@ function newtonDirection(ws: Workspace, state: SolverState): boolean {
   }
   return true
 }
+
+/** Passes of the starting-point correction below. */
+const PRESOLVE_PASSES = 12
+
+/**
+ * Brings a cold guess near the mass balances before Newton: each total
+ * component held only positively is scaled by (T / Σ ν c)^(1/ν_max), a few
+ * passes. A guess of every free form at its total can put a strong complex
+ * at 10^20 mol/L, where the Jacobian rows become proportional; after this no
+ * species exceeds the totals that make it.
+ */
+export function presolve(ws: Workspace, state: SolverState): void {
+  const p = ws.p
+  const { nc, nsp, nu } = p
+  for (let pass = 0; pass < PRESOLVE_PASSES; pass++) {
+    computeSpecies(ws, state)
+    let moved = false
+    for (let j = 0; j < nc; j++) {
+      if (p.mode[j] !== MODE_TOTAL || !(p.total[j] > 0)) continue
+      let sum = 0
+      let nuMax = 0
+      let positive = true
+      for (let i = 0; i < nsp; i++) {
+        const v = nu[i * nc + j]
+        if (v < 0) { positive = false; break }
+        if (v > 0) { sum += v * ws.c[i]; nuMax = Math.max(nuMax, v) }
+      }
+      if (!positive || nuMax === 0 || !(sum > 0) || !Number.isFinite(sum)) continue
+      const change = Math.log10(p.total[j] / sum) / nuMax
+      if (Math.abs(change) > 0.01) moved = true
+      state.y[j] += Math.max(-MAX_PRESOLVE_STEP, Math.min(MAX_PRESOLVE_STEP, change))
+    }
+    if (!moved) break
+  }
+}
+
+/** Largest change of one log10 c in one presolve pass. */
+const MAX_PRESOLVE_STEP = 10
 
 /** Size of the step for the convergence test: log units for activities, relative for amounts and √I. */
 function stepSize(ws: Workspace, state: SolverState): number {
@@ -348,7 +407,7 @@ const MAX_START_ROOT_I = 5
 function settleIonicStrength(ws: Workspace, state: SolverState): void {
   const p = ws.p
   for (let pass = 0; pass < 4; pass++) {
-    computeSpecies(ws, state.x, state.u)
+    computeSpecies(ws, state)
     let half = 0
     for (let i = 0; i < p.nsp; i++) half += p.z2[i] * ws.c[i]
     const next = Math.min(Math.sqrt(0.5 * half), MAX_START_ROOT_I)
@@ -370,8 +429,8 @@ export function newton(ws: Workspace, state: SolverState, limits: Limits): Newto
   let belowTolerance = 0
   let worst = { max: Infinity, row: 0 }
   for (let it = 0; it <= limits.maxIterations; it++) {
-    computeSpecies(ws, state.x, state.u)
-    computeResiduals(ws, state.x, state.n, state.u, ws.F, ws.scale)
+    computeSpecies(ws, state)
+    computeResiduals(ws, state, ws.F, ws.scale)
     worst = maxScaledOf(ws, ws.F, ws.scale)
     if (ws.dim === 0) return { ok: true, iterations: it, maxScaled: 0, worstRow: 0 }
     if (worst.max < RESIDUAL_TOLERANCE) belowTolerance++
@@ -384,15 +443,16 @@ export function newton(ws: Workspace, state: SolverState, limits: Limits): Newto
     }
     if (worst.max < RESIDUAL_TOLERANCE && (stepSize(ws, state) < STEP_TOLERANCE || belowTolerance >= FLOOR_ITERATIONS)) {
       // Take the last, tiny step too: it brings the answer to rounding level.
-      ws.x0.set(state.x)
+      ws.y0.set(state.y)
       ws.n0.set(state.n)
       state.u = applyStep(ws, state, state.u, 1)
+      computeSpecies(ws, state)
       return { ok: true, iterations: it + 1, maxScaled: worst.max, worstRow: worst.row }
     }
     let cap = 1
     for (let r = 0; r < nr; r++) cap = Math.min(cap, MAX_LOG_STEP / Math.max(Math.abs(ws.delta[r]), 1e-300))
     if (ws.hasU) cap = Math.min(cap, MAX_ROOT_I_STEP / Math.max(Math.abs(ws.delta[nr + ws.nActive]), 1e-300))
-    ws.x0.set(state.x)
+    ws.y0.set(state.y)
     ws.n0.set(state.n)
     const u0 = state.u
     const merit0 = meritOf(ws, ws.F, ws.scale)
@@ -401,8 +461,8 @@ export function newton(ws: Workspace, state: SolverState, limits: Limits): Newto
     let t = cap
     for (let k = 0; k < 40; k++) {
       state.u = applyStep(ws, state, u0, t)
-      computeSpecies(ws, state.x, state.u)
-      computeResiduals(ws, state.x, state.n, state.u, ws.Ftrial, ws.scaleTrial)
+      computeSpecies(ws, state)
+      computeResiduals(ws, state, ws.Ftrial, ws.scaleTrial)
       const merit = meritOf(ws, ws.Ftrial, ws.scale)
       if (merit <= (1 - 2e-4 * t) * merit0 || merit0 < 1e-28) break
       t *= 0.5

@@ -51,7 +51,7 @@ export function solveWithPhases(ws: Workspace, state: SolverState, limits: Limit
   for (let s = 0; s < p.nsol; s++) active += state.active[s]
   if (active > maxSolids) { state.active.fill(0); state.n.fill(0) }
   const seen = new Set<string>([keyOf(state.active)])
-  const good = { x: new Float64Array(state.x), n: new Float64Array(state.n), u: state.u }
+  const good = { y: new Float64Array(state.y), n: new Float64Array(state.n), u: state.u }
   let iterations = 0
   let lastAdd = -1
   const rounds = 4 * p.nsol + 4
@@ -112,15 +112,15 @@ export function solveWithPhases(ws: Workspace, state: SolverState, limits: Limit
   return { ok: false, iterations, maxScaled: Infinity, worstRow: 0, notes, reason: 'the choice of solids present did not settle' }
 }
 
-interface Snapshot { x: Float64Array; n: Float64Array; u: number }
+interface Snapshot { y: Float64Array; n: Float64Array; u: number }
 
 function snapshot(to: Snapshot, state: SolverState): void {
-  to.x.set(state.x); to.n.set(state.n); to.u = state.u
+  to.y.set(state.y); to.n.set(state.n); to.u = state.u
 }
 
 /** Back to the last solved point, keeping the active set (amounts of solids no longer present zeroed). */
 function restore(state: SolverState, from: Snapshot): void {
-  state.x.set(from.x); state.u = from.u
+  state.y.set(from.y); state.u = from.u
   for (let s = 0; s < state.n.length; s++) state.n[s] = state.active[s] ? from.n[s] : 0
 }
 

@@ -23,8 +23,8 @@ export function buildResult(ws: Workspace, state: SolverState, info: ReportInput
   const p = ws.p
   const m = p.model
   ws.layout(state)
-  computeSpecies(ws, state.x, state.u)
-  computeResiduals(ws, state.x, state.n, state.u, ws.F, ws.scale)
+  computeSpecies(ws, state)
+  computeResiduals(ws, state, ws.F, ws.scale)
   const equations: { name: string; scaled: number }[] = []
   let maxScaled = 0
   for (let r = 0; r < ws.dim; r++) {

@@ -94,5 +94,5 @@ describe('random systems', () => {
     }), { numRuns: 150, seed: 20261201 })
     // The generator stays in physically sensible ranges: nearly all must converge.
     expect(converged).toBeGreaterThan(140)
-  })
+  }, 120_000)
 })
