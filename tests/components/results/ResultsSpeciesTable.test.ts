@@ -64,11 +64,11 @@ describe('ResultsSpeciesTable', () => {
 
   it('shows each species share of the chosen component and lets the reader pick another', async () => {
     const wrapper = mountTable()
-    const shares = column(wrapper, 'Share of Cu²⁺')
+    const shares = column(wrapper, 'Share of dissolved Cu²⁺')
     expect(shares[0]).toBe('0.0 %') // H+ holds no copper
     await wrapper.find('[data-test="share-component"]').setValue('NH3')
     expect(wrapper.emitted('update:component')?.at(-1)).toEqual(['NH3'])
-    expect(column(wrapper, 'Share of NH₃').length).toBe(result.species.length)
+    expect(column(wrapper, 'Share of dissolved NH₃').length).toBe(result.species.length)
   })
 
   it('tells the reader to run when there is no result, and leaves out the share without a model', () => {
