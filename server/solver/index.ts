@@ -85,8 +85,16 @@ function attempt(ws: Workspace, state: SolverState, limits: Limits, iterationsBe
   return { result, ok: out.ok }
 }
 
-/** Solves from `warm` if given, then from cold guesses, keeping the first success (or the last failure). */
+/** Fractions of the Debye–Hückel A walked through when a direct solve with activities fails. */
+const ACTIVITY_HOMOTOPY = [0, 0.25, 0.5, 0.75, 0.9, 1]
+
+/**
+ * Solves from `warm` if given, then from cold guesses, then (with an activity
+ * model) by continuation in A from ideal solution to the full model; keeps
+ * the first success, or the last failure.
+ */
 function solveProblem(ws: Workspace, state: SolverState, limits: Limits, warm: SolverState | null): Attempt {
+  const p = ws.p
   let spent = 0
   let last: Attempt | null = null
   if (warm) {
@@ -101,7 +109,23 @@ function solveProblem(ws: Workspace, state: SolverState, limits: Limits, warm: S
     last = attempt(ws, state, limits, spent)
     if (last.ok) return last
     spent = last.result.iterations
-    if (ws.p.hIndex < 0 || ws.p.mode[ws.p.hIndex] > MODE_BALANCE) break
+    if (p.hIndex < 0 || p.mode[p.hIndex] > MODE_BALANCE) break
+  }
+  if (p.activity !== 0 && p.fixedRootI < 0 && performance.now() <= limits.deadline) {
+    // At high ionic strength γ can change by orders of magnitude between the
+    // guess and the answer; walking A up from 0 keeps each step small.
+    const fullA = p.A
+    coldStart(ws, state, PROTON_GUESSES[0])
+    try {
+      for (const f of ACTIVITY_HOMOTOPY) {
+        p.A = fullA * f
+        const stage = attempt(ws, state, limits, spent)
+        spent = stage.result.iterations
+        if (f === 1 || !stage.ok) { last = stage; break }
+      }
+    } finally {
+      p.A = fullA
+    }
   }
   return last ?? attempt(ws, state, limits, spent)
 }
