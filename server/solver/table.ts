@@ -1,0 +1,55 @@
+/**
+ * Plain-text tables of a Result and of a sweep, for the CLI: columns aligned,
+ * numbers in engineering-friendly exponent form.
+ */
+import type { Model } from '../../shared/poise/model'
+import type { Result, SweepResult } from '../../shared/types/result'
+
+const exp = (v: number) => (v === 0 ? '0' : v.toExponential(3))
+const fixed = (v: number, d: number) => v.toFixed(d)
+
+/** Aligns rows of cells: first column left, the others right. */
+function align(rows: string[][]): string {
+  const widths = rows[0].map((_, k) => Math.max(...rows.map((r) => (r[k] ?? '').length)))
+  return rows
+    .map((r) => r.map((cell, k) => (k === 0 ? cell.padEnd(widths[k]) : cell.padStart(widths[k]))).join('  ').trimEnd())
+    .join('\n')
+}
+
+export function formatResultTable(model: Model, r: Result): string {
+  const out: string[] = [model.title, '']
+  if (!r.converged) out.push(`NOT CONVERGED: ${r.reason ?? 'no reason given'}`, '')
+  out.push(`pH ${fixed(r.pH, 3)}   ionic strength ${exp(r.ionicStrength)} mol/L   ${r.temperatureC} °C   ` +
+    `${r.iterations} iterations, max scaled residual ${exp(r.residuals.maxScaled)}`, '')
+  const species = [...r.species].sort((a, b) => b.concentration - a.concentration)
+  out.push(align([
+    ['species', 'mol/L', 'log10', 'activity', 'gamma'],
+    ...species.map((s) => [s.name, exp(s.concentration), fixed(s.log10, 3), exp(s.activity), fixed(s.gamma, 4)]),
+  ]))
+  if (r.solids.length > 0) {
+    out.push('', align([
+      ['solid', 'present', 'mol/L', 'SI'],
+      ...r.solids.map((s) => [s.name + (s.suppressed ? ' (suppressed)' : ''), s.present ? 'yes' : 'no', exp(s.amount), fixed(s.saturationIndex, 3)]),
+    ]))
+  }
+  if (r.gases && r.gases.length > 0) {
+    out.push('', align([['gas', 'atm', 'log10'], ...r.gases.map((g) => [g.name, exp(g.pressure), fixed(g.log10, 3)])]))
+  }
+  out.push('', align([
+    ['component', 'mode', 'total mol/L', 'free'],
+    ...r.components.map((c) => [c.name, c.mode, exp(c.total), exp(c.free)]),
+  ]))
+  for (const w of r.warnings ?? []) out.push(`warning: ${w}`)
+  return out.join('\n')
+}
+
+export function formatSweepTable(model: Model, s: SweepResult): string {
+  const label = s.variable === 'total' || s.variable === 'pressure' ? `${s.variable} ${s.component}` : s.variable
+  const solidNames = model.solids.map((x) => x.name)
+  const rows = [[label, 'pH', 'I mol/L', 'solids present', 'status']]
+  s.points.forEach((p, k) => {
+    const present = p.solids.filter((x) => x.present && solidNames.includes(x.name)).map((x) => x.name).join(' ') || '-'
+    rows.push([String(s.values[k]), fixed(p.pH, 3), exp(p.ionicStrength), present, p.converged ? 'ok' : `failed: ${p.reason ?? ''}`])
+  })
+  return [model.title, '', align(rows)].join('\n')
+}
