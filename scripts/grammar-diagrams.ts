@@ -6,7 +6,7 @@
  */
 import { writeFileSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'
-import { diagramsHtml } from '../shared/poise/diagrams'
+import { diagramsHtml } from '../grammar/diagrams'
 
 const target = fileURLToPath(new URL('../grammar/diagrams.html', import.meta.url))
 writeFileSync(target, diagramsHtml())

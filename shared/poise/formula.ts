@@ -160,10 +160,13 @@ function splitCharge(body: string, phaseSuffix: string): ChargeSplit {
       const n = bad[2] ? Number(bad[2]) : bad[1]!.length
       fix = core + formatCharge(core, bad[1]![0] === '+' ? n : -n) + phaseSuffix
     }
+    const fixes = fix ? [fix] : /^\d+$/.test(after) && Number(after) > 0
+      ? [core + formatCharge(core, Number(after)) + phaseSuffix, core + formatCharge(core, -Number(after)) + phaseSuffix]
+      : []
     const message = fix
       ? `write the charge after the caret as number then sign: ${fix}`
-      : `after '^' write the charge as a number and a sign, as in Cu^2+ or SO4^2-`
-    return { body, charge: 0, problem: { code: 'P012', message, from: caret, to: body.length, ...(fix ? { fixes: [fix] } : {}) } }
+      : fixes.length ? `a charge needs a sign: ${fixes[0]} or ${fixes[1]}` : `after '^' write the charge as a number and a sign, as in Cu^2+ or SO4^2-`
+    return { body, charge: 0, problem: { code: 'P012', message, from: caret, to: body.length, ...(fixes.length ? { fixes } : {}) } }
   }
   const signs = /([+-]+)(\d*)$/.exec(body)
   if (!signs) return { body, charge: 0, problem: null }

@@ -32,7 +32,9 @@ const messages: IParserErrorMessageProvider = {
   buildMismatchTokenMessage: ({ expected, actual, previous }) =>
     `expected ${labelOf(expected)}${previous && previous.tokenType !== EOF && previous.image ? ` after '${previous.image}'` : ''}, found ${describe(actual)}`,
   buildNotAllInputParsedMessage: ({ firstRedundant }) =>
-    `unexpected ${describe(firstRedundant)}: one statement a line, and nothing after its end (comments start with #)`,
+    firstRedundant.tokenType === T.Word
+      ? `'${firstRedundant.image}' is not a keyword here: check its spelling (one statement a line; comments start with #)`
+      : `unexpected ${describe(firstRedundant)}: one statement a line, and nothing after its end (comments start with #)`,
   buildNoViableAltMessage: ({ expectedPathsPerAlt, actual, previous, ruleName }) =>
     `expected ${RULE_NAMES[ruleName] ?? alternatives(expectedPathsPerAlt)}${previous && previous.tokenType !== EOF && previous.image ? ` after '${previous.image}'` : ''}, found ${describe(actual[0]!)}`,
   buildEarlyExitMessage: ({ expectedIterationPaths, actual }) =>

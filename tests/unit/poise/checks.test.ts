@@ -121,3 +121,15 @@ describe('use', () => {
     expect(codes(file, { resolveLibrary: broken })).toContain('P072')
   })
 })
+
+describe('syntax messages', () => {
+  it('names a misspelt keyword after a component', () => {
+    const d = compile(withLine('component Na+ totl 1 mM')).diagnostics.find((x) => x.code === 'P002')!
+    expect(d.message).toContain("'totl' is not a keyword here")
+    expect(d.range.line).toBe(8)
+  })
+  it('says what was expected after a number', () => {
+    const d = compile(withLine('reaction Cu^2+ + Cl- <=> CuCl+')).diagnostics.find((x) => x.code === 'P002')!
+    expect(d.message).toMatch(/^expected a constant kind/)
+  })
+})

@@ -1,6 +1,6 @@
 import { readFileSync } from 'node:fs'
 import { describe, expect, it } from 'vitest'
-import { diagramsHtml } from '../../../shared/poise/diagrams'
+import { diagramsHtml } from '../../../grammar/diagrams'
 
 describe('grammar/diagrams.html', () => {
   it('is generated from the current parser (run npx tsx scripts/grammar-diagrams.ts when this fails)', () => {

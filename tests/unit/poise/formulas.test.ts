@@ -78,3 +78,11 @@ describe('molar masses from IUPAC standard atomic weights', () => {
     expect(molarMassOf({ Tc: 1, O: 4 })).toBeNull()
   })
 })
+
+describe('a caret charge without a sign', () => {
+  it('offers both signs', () => {
+    const r = parseFormula('Fe^3')
+    expect(r.problem?.code).toBe('P012')
+    expect(r.problem?.fixes).toEqual(['Fe^3+', 'Fe^3-'])
+  })
+})

@@ -1,14 +1,14 @@
 /**
  * Self-contained syntax diagrams of the Poise grammar (grammar/diagrams.html),
  * built from the parser's serialised grammar. Node only (reads chevrotain's
- * diagram scripts from node_modules): used by scripts/grammar-diagrams.ts and
- * its freshness test, never by the browser bundle.
+ * diagram scripts from node_modules), so it lives here and not in shared/:
+ * used by scripts/grammar-diagrams.ts and its freshness test.
  */
 import { readFileSync } from 'node:fs'
 import { createRequire } from 'node:module'
 import { join } from 'node:path'
 import { createSyntaxDiagramsCode } from 'chevrotain'
-import { poiseParser } from './parser'
+import { poiseParser } from '../shared/poise/parser'
 
 const BASE = 'chevrotain-diagrams/'
 
