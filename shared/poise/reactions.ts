@@ -205,6 +205,11 @@ function reportStuck(stuck: PreparedReaction[], known: Map<string, Known>, repor
     const at = { from: r.stmt.left[0]!.formula.from, to: lastFormulaEnd(r.stmt) }
     if (unknown.length === 0) {
       const already = [...net.keys()].map((n) => known.get(n)!).filter((k) => k.byReaction)
+      if (already.length === 1) {
+        const k = already[0]!
+        report.error('P031', `${k.formula.name} is defined twice: the reaction on line ${k.line}${k.byReaction!.library ? ` of library "${k.byReaction!.library}"` : ''} defines it already. Keep one of the two`, net.get(k.formula.name)!.term.tok)
+        continue
+      }
       const where = already.length ? `: ${already.map((k) => `${k.formula.name} is already defined on line ${k.line}`).join(', ')}` : ': all its species are components'
       report.error('P032', `this reaction introduces no new species${where}. Remove it, or write it for a species nothing else defines`, at)
       continue
