@@ -85,32 +85,42 @@ function sweepVariableHeader(sweep: SweepResult): string {
 
 /**
  * A sweep as CSV, one row a point: the swept value, whether it converged,
- * pH, ionic strength and every species' concentration. A failed point keeps
- * its row with empty numbers and the reason, so row k is always point k.
+ * pH, ionic strength, every species' concentration, then each solid's
+ * amount and saturation index (where a metal drops out is often the point of
+ * the sweep). A failed point keeps its row with empty numbers and the
+ * reason, so row k is always point k.
  */
 export function sweepCsv(sweep: SweepResult): string {
   const names: string[] = []
-  for (const point of sweep.points) for (const s of point.species) if (!names.includes(s.name)) names.push(s.name)
+  const solids: string[] = []
+  for (const point of sweep.points) {
+    for (const s of point.species) if (!names.includes(s.name)) names.push(s.name)
+    for (const s of point.solids) if (!solids.includes(s.name)) solids.push(s.name)
+  }
   const header = [
     sweepVariableHeader(sweep),
     'converged',
     'pH',
     'ionic strength (mol/L)',
     ...names.map((n) => `${n} (mol/L)`),
+    ...solids.flatMap((n) => [`${n} amount (mol/L)`, `${n} saturation index`]),
     'reason',
   ]
+  const blanks = names.length + 2 * solids.length
   const rows = sweep.values.map((x, k) => {
     const point = sweep.points[k]
     if (!point || !point.converged) {
-      return [csvNumber(x), 'false', '', '', ...names.map(() => ''), point?.reason ?? 'no result for this point']
+      return [csvNumber(x), 'false', '', '', ...Array<string>(blanks).fill(''), point?.reason ?? 'no result for this point']
     }
     const byName = new Map(point.species.map((s) => [s.name, s.concentration]))
+    const solidByName = new Map(point.solids.map((s) => [s.name, s]))
     return [
       csvNumber(x),
       'true',
       csvNumber(point.pH),
       csvNumber(point.ionicStrength),
       ...names.map((n) => csvNumber(byName.get(n))),
+      ...solids.flatMap((n) => [csvNumber(solidByName.get(n)?.amount), csvNumber(solidByName.get(n)?.saturationIndex)]),
       '',
     ]
   })

@@ -50,7 +50,13 @@ describe('results of the zinc sulfide dosing example', () => {
     expect(caution.at).toBe(sweep.values[0])
   })
 
-  it('exports one CSV row a point', () => {
-    expect(parseCsv(sweepCsv(sweep))).toHaveLength(sweep.values.length + 1)
+  it('exports one CSV row a point, with the amount of ZnS that precipitated', () => {
+    const rows = parseCsv(sweepCsv(sweep))
+    expect(rows).toHaveLength(sweep.values.length + 1)
+    const column = rows[0].indexOf('ZnS(s) amount (mol/L)')
+    expect(column).toBeGreaterThan(0)
+    sweep.points.forEach((p, k) => {
+      if (p.converged) expect(Number(rows[k + 1][column])).toBe(p.solids.find((s) => s.name === 'ZnS(s)')!.amount)
+    })
   })
 })
