@@ -1,0 +1,21 @@
+/**
+ * POST /api/labs/:lab/systems/:system/runs — solve a saved revision (the
+ * latest unless `revision` is given) and store the run. Viewers may run: a
+ * run does not change the system.
+ */
+import { z } from 'zod'
+
+const Params = z.object({ lab: z.string().min(1), system: z.string().min(1) })
+const Body = z.object({ revision: z.number().int().positive().optional() })
+
+export default defineEventHandler(async (event) => {
+  const { lab, system } = validateParams(event, Params)
+  const access = await requireSystem(event, lab, system, 'viewer')
+  const { revision: number } = await validateBody(event, Body)
+  const revision = number === undefined || number === access.latest.number ? access.latest : await findRevision(access.system.id, number)
+  const { model } = compileForSolve(revision.source)
+  const output = await solveInPool(model)
+  const run = await storeRun(revision, access.user.id, output, model.libraries)
+  setResponseStatus(event, 201)
+  return runView(run, revision.number, access.user.name, true)
+})

@@ -1,0 +1,33 @@
+/**
+ * Limits on what one request may ask the solver for. They keep one user's
+ * huge sweep from occupying the pool; the messages say what to change.
+ */
+import type { Model } from '../../shared/poise/model'
+
+export const SOLVE_LIMITS = {
+  /** Largest Poise source accepted, in characters. */
+  maxSourceChars: 200_000,
+  maxSweepPoints: 5_000,
+  maxSpecies: 500,
+  maxSolids: 60,
+  /** Wall-clock budget of one run (a whole sweep) inside the worker. */
+  timeBudgetMs: 20_000,
+  /** Extra time before the pool aborts a worker that ignores its budget. */
+  graceMs: 5_000,
+  maxQueuedTasks: 32,
+} as const
+
+/** A message saying which limit the model exceeds, or null when it fits. */
+export function modelLimitProblem(model: Model): string | null {
+  const points = model.sweep?.values.length ?? 0
+  if (points > SOLVE_LIMITS.maxSweepPoints) {
+    return `The sweep has ${points} points; at most ${SOLVE_LIMITS.maxSweepPoints} are allowed. Use a larger step or fewer points.`
+  }
+  if (model.species.length > SOLVE_LIMITS.maxSpecies) {
+    return `The system has ${model.species.length} species; at most ${SOLVE_LIMITS.maxSpecies} are allowed. Split it into smaller systems.`
+  }
+  if (model.solids.length > SOLVE_LIMITS.maxSolids) {
+    return `The system has ${model.solids.length} solids; at most ${SOLVE_LIMITS.maxSolids} are allowed.`
+  }
+  return null
+}
