@@ -30,6 +30,8 @@ export type FormulaResult = { formula: ParsedFormula; problem: null } | { formul
 
 const SUPERSCRIPT_DIGITS = '⁰¹²³⁴⁵⁶⁷⁸⁹'
 const SUBSCRIPT_DIGITS = '₀₁₂₃₄₅₆₇₈₉'
+/** Deeper nesting is no real formula; the limit keeps recursion bounded. */
+const MAX_BRACKET_DEPTH = 8
 const PHASES: Record<string, Phase> = { '(s)': 's', '(g)': 'g', '(aq)': 'aq' }
 
 /** The charge suffix in caret form: `^2+`, `-`, or `^+` after a lone element with a count (`I3^-`). */
@@ -74,7 +76,7 @@ function parseCore(text: string, base: number): CoreParse {
   }
 
   // Returns element counts of a group, or an error. Stops at a closing bracket or a hydrate dot.
-  const group = (closer: string | null): Record<string, number> | CoreParse => {
+  const group = (closer: string | null, depth = 0): Record<string, number> | CoreParse => {
     const counts: Record<string, number> = {}
     let parts = 0
     while (i < text.length) {
@@ -84,9 +86,10 @@ function parseCore(text: string, base: number): CoreParse {
       let inner: Record<string, number>
       if (ch === '(' || ch === '[') {
         const close = ch === '(' ? ')' : ']'
+        if (depth >= MAX_BRACKET_DEPTH) return fail(`brackets nested more than ${MAX_BRACKET_DEPTH} deep`, 'P010', start, start + 1)
         canonical += ch
         i++
-        const sub = group(close)
+        const sub = group(close, depth + 1)
         if ('error' in sub) return sub
         if (text[i] !== close) return fail(`'${ch}' is never closed: add '${close}'`, 'P010', start, i)
         canonical += close

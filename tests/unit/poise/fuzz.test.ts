@@ -17,6 +17,10 @@ describe('compile never throws and keeps ranges inside the document', { timeout:
       expect(() => lex(text)).not.toThrow()
     }), { numRuns: 300 })
   })
+  it('on deeply nested brackets', () => {
+    const r = compile('system "x"\ncomponent H' + '('.repeat(20000) + 'H total 1 mM\n')
+    expect(r.diagnostics.map((d) => d.code)).toEqual(['P010'])
+  })
   it('on random Poise-like token soup', () => {
     fc.assert(fc.property(fc.array(poiseish, { maxLength: 60 }), (parts) => {
       expect(rangesInside(parts.join(' '))).toBe(true)
