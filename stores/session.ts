@@ -37,7 +37,7 @@ export const useSessionStore = defineStore('session', {
       this.user = answer.user
     },
     async logout() {
-      await $fetch('/api/auth/logout', { method: 'POST' })
+      await $fetch<{ signedOut: boolean }>('/api/auth/logout', { method: 'POST' })
       this.user = null
     },
   },

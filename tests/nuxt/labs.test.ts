@@ -10,7 +10,7 @@ let owner: SignedIn, editor: SignedIn, reviewer: SignedIn, viewer: SignedIn, out
 let lab: string
 
 beforeAll(async () => {
-  ;[owner, editor, reviewer, viewer, outsider] = await Promise.all(['owner', 'editor', 'reviewer', 'viewer', 'outsider'].map((l) => signUp(l)))
+  ;[owner, editor, reviewer, viewer, outsider] = await Promise.all([signUp('owner'), signUp('editor'), signUp('reviewer'), signUp('viewer'), signUp('outsider')])
   lab = await makeLab(owner, [{ who: editor, role: 'editor' }, { who: reviewer, role: 'reviewer' }, { who: viewer, role: 'viewer' }])
 })
 

@@ -13,7 +13,7 @@ export default defineEventHandler(async (event) => {
   const ip = getRequestIP(event) ?? 'unknown'
   const wait = loginRetryAfterSeconds(body.email, ip)
   if (wait > 0) {
-    setResponseHeader(event, 'Retry-After', String(wait))
+    setResponseHeader(event, 'Retry-After', wait)
     throw createError({
       statusCode: 429,
       message: `Too many failed sign-ins. Try again in ${Math.ceil(wait / 60)} minute${wait > 60 ? 's' : ''}.`,
