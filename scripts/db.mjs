@@ -109,6 +109,9 @@ function provision() {
     statements.push(`GRANT ALL PRIVILEGES ON \`${db}\`.* TO '${appUser}'@'127.0.0.1'`)
     statements.push(`GRANT ALL PRIVILEGES ON \`${db}\`.* TO '${appUser}'@'localhost'`)
   }
+  // Any equipoise_test* database, so a second checkout can test beside this one (EQUIPOISE_TEST_DB).
+  statements.push(`GRANT ALL PRIVILEGES ON \`equipoise\\_test%\`.* TO '${appUser}'@'127.0.0.1'`)
+  statements.push(`GRANT ALL PRIVILEGES ON \`equipoise\\_test%\`.* TO '${appUser}'@'localhost'`)
   rootSql(statements.join(';\n'))
 }
 
