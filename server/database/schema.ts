@@ -120,3 +120,55 @@ export type LabMember = typeof labMembers.$inferSelect
 export type System = typeof systems.$inferSelect
 export type Revision = typeof revisions.$inferSelect
 export type Run = typeof runs.$inferSelect
+
+/** One asks a member (reviewer or higher) to review revision `to` of a system against revision `from`. */
+export const REVIEW_STATES = ['open', 'approved', 'changes_requested'] as const
+
+export const reviews = mysqlTable('reviews', {
+  id: int('id').autoincrement().primaryKey(),
+  labId: int('lab_id').notNull().references(() => labs.id, { onDelete: 'cascade' }),
+  systemId: int('system_id').notNull().references(() => systems.id, { onDelete: 'cascade' }),
+  fromRevisionId: int('from_revision_id').notNull().references(() => revisions.id, { onDelete: 'cascade' }),
+  toRevisionId: int('to_revision_id').notNull().references(() => revisions.id, { onDelete: 'cascade' }),
+  requestedBy: int('requested_by').references(() => users.id, { onDelete: 'set null' }),
+  reviewerId: int('reviewer_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  state: mysqlEnum('state', REVIEW_STATES).notNull().default('open'),
+  /** What the requester asks the reviewer to look at. */
+  note: varchar('note', { length: 2000 }).notNull().default(''),
+  /** The reviewer's summary when approving or asking for changes. */
+  decisionNote: varchar('decision_note', { length: 2000 }).notNull().default(''),
+  decidedAt: datetime('decided_at', { mode: 'date', fsp: 3 }),
+  createdAt,
+}, (t) => [
+  index('reviews_system_idx').on(t.systemId),
+  index('reviews_reviewer_state_idx').on(t.reviewerId, t.state),
+])
+
+/** A comment on one line of either side of a review's compare ('from' or 'to'). */
+export const reviewComments = mysqlTable('review_comments', {
+  id: int('id').autoincrement().primaryKey(),
+  reviewId: int('review_id').notNull().references(() => reviews.id, { onDelete: 'cascade' }),
+  authorId: int('author_id').references(() => users.id, { onDelete: 'set null' }),
+  side: mysqlEnum('side', ['from', 'to']).notNull(),
+  line: int('line').notNull(),
+  body: text('body').notNull(),
+  createdAt,
+}, (t) => [index('review_comments_review_idx').on(t.reviewId)])
+
+export const reviewsRelations = relations(reviews, ({ one, many }) => ({
+  lab: one(labs, { fields: [reviews.labId], references: [labs.id] }),
+  system: one(systems, { fields: [reviews.systemId], references: [systems.id] }),
+  fromRevision: one(revisions, { fields: [reviews.fromRevisionId], references: [revisions.id], relationName: 'reviewFrom' }),
+  toRevision: one(revisions, { fields: [reviews.toRevisionId], references: [revisions.id], relationName: 'reviewTo' }),
+  requester: one(users, { fields: [reviews.requestedBy], references: [users.id], relationName: 'reviewRequester' }),
+  reviewer: one(users, { fields: [reviews.reviewerId], references: [users.id], relationName: 'reviewReviewer' }),
+  comments: many(reviewComments),
+}))
+
+export const reviewCommentsRelations = relations(reviewComments, ({ one }) => ({
+  review: one(reviews, { fields: [reviewComments.reviewId], references: [reviews.id] }),
+  author: one(users, { fields: [reviewComments.authorId], references: [users.id] }),
+}))
+
+export type Review = typeof reviews.$inferSelect
+export type ReviewComment = typeof reviewComments.$inferSelect
