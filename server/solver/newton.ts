@@ -64,6 +64,11 @@ export class Workspace {
   /** d log10 a_j / du of each fixed-concentration component. */
   readonly dxdu: Float64Array
   readonly rowComponent: Int32Array
+  /** Row (= column) of each component among the unknowns, or −1. */
+  readonly rowOfComponent: Int32Array
+  balanceRow = -1
+  worstMax = 0
+  worstRow = 0
   readonly rowSolid: Int32Array
   readonly F: Float64Array
   readonly scale: Float64Array
@@ -87,6 +92,7 @@ export class Workspace {
     this.dlc = new Float64Array(p.nsp)
     this.dxdu = new Float64Array(p.nc)
     this.rowComponent = new Int32Array(p.nc)
+    this.rowOfComponent = new Int32Array(p.nc)
     this.rowSolid = new Int32Array(p.nsol)
     this.F = new Float64Array(rows)
     this.scale = new Float64Array(rows)
@@ -101,7 +107,15 @@ export class Workspace {
   layout(state: SolverState): void {
     const p = this.p
     let r = 0
-    for (let j = 0; j < p.nc; j++) if (p.mode[j] === MODE_TOTAL || p.mode[j] === MODE_BALANCE) this.rowComponent[r++] = j
+    this.balanceRow = -1
+    for (let j = 0; j < p.nc; j++) {
+      this.rowOfComponent[j] = -1
+      if (p.mode[j] === MODE_TOTAL || p.mode[j] === MODE_BALANCE) {
+        if (p.mode[j] === MODE_BALANCE) this.balanceRow = r
+        this.rowOfComponent[j] = r
+        this.rowComponent[r++] = j
+      }
+    }
     this.nUnknownComponents = r
     let a = 0
     for (let s = 0; s < p.nsol; s++) if (state.active[s]) this.rowSolid[a++] = s
@@ -143,7 +157,7 @@ export class Workspace {
  */
 export function computeSpecies(ws: Workspace, state: SolverState): void {
   const p = ws.p
-  const { nc, nsp, nu, logK } = p
+  const { nc, nsp, logK } = p
   const x = state.x
   const uu = p.fixedRootI >= 0 ? p.fixedRootI : state.u
   for (let i = 0; i < nsp; i++) {
@@ -165,17 +179,19 @@ export function computeSpecies(ws: Workspace, state: SolverState): void {
       dxdu[j] = -ws.dlc[k]
     }
   }
+  const { nzStart, nzComponent, nzNu } = p
   for (let i = 0; i < nsp; i++) {
     let l = logK[i] - ws.g[i]
     let d = ws.dlc[i]
-    const row = i * nc
-    for (let j = 0; j < nc; j++) {
-      const v = nu[row + j]
-      if (v !== 0) { l += v * x[j]; d += v * dxdu[j] }
+    for (let e = nzStart[i]; e < nzStart[i + 1]; e++) {
+      const j = nzComponent[e]
+      const v = nzNu[e]
+      l += v * x[j]
+      d += v * dxdu[j]
     }
     if (l > MAX_LOG_CONCENTRATION) l = MAX_LOG_CONCENTRATION
     ws.lc[i] = l
-    ws.c[i] = Math.pow(10, l)
+    ws.c[i] = Math.exp(l * Math.LN10)
     ws.dlc[i] = d
   }
 }
@@ -230,37 +246,51 @@ export function computeResiduals(ws: Workspace, state: SolverState, F: Float64Ar
 /** The Jacobian of F over the unknowns, each row divided by scale, into J. */
 function assembleJacobian(ws: Workspace, u: number, scale: Float64Array, J: Matrix): void {
   const p = ws.p
-  const { nc, nsp, nu, charge, z2 } = p
+  const { nc, nsp, charge, z2 } = p
   const nr = ws.nUnknownComponents
   const na = ws.nActive
   const dim = ws.dim
   const uCol = nr + na
   const data = (J as unknown as { data: Float64Array[] }).data
   for (let r = 0; r < dim; r++) data[r].fill(0)
+  const { nzStart, nzComponent, nzNu } = p
+  const rowOf = ws.rowOfComponent
+  const balanceRow = ws.balanceRow
   for (let i = 0; i < nsp; i++) {
     const w = Math.LN10 * ws.c[i]
     if (w === 0) continue
-    const base = i * nc
-    for (let r = 0; r < nr; r++) {
-      const j = ws.rowComponent[r]
-      const rc = p.mode[j] === MODE_BALANCE ? charge[i] : nu[base + j]
-      if (rc === 0) continue
+    const start = nzStart[i]
+    const end = nzStart[i + 1]
+    const dl = ws.dlc[i]
+    // Mass-balance rows: w ν_ij ν_ik over the species' own components.
+    for (let e = start; e < end; e++) {
+      const r = rowOf[nzComponent[e]]
+      if (r < 0 || r === balanceRow) continue
       const row = data[r]
-      const wr = w * rc
-      for (let k = 0; k < nr; k++) {
-        const v = nu[base + ws.rowComponent[k]]
-        if (v !== 0) row[k] += wr * v
+      const wr = w * nzNu[e]
+      for (let f = start; f < end; f++) {
+        const k = rowOf[nzComponent[f]]
+        if (k >= 0) row[k] += wr * nzNu[f]
       }
-      if (ws.hasU) row[uCol] += wr * ws.dlc[i]
+      if (ws.hasU) row[uCol] += wr * dl
+    }
+    if (balanceRow >= 0 && charge[i] !== 0) {
+      const row = data[balanceRow]
+      const wr = w * charge[i]
+      for (let f = start; f < end; f++) {
+        const k = rowOf[nzComponent[f]]
+        if (k >= 0) row[k] += wr * nzNu[f]
+      }
+      if (ws.hasU) row[uCol] += wr * dl
     }
     if (ws.hasU && z2[i] !== 0) {
       const row = data[uCol]
       const wr = -0.5 * w * z2[i]
-      for (let k = 0; k < nr; k++) {
-        const v = nu[base + ws.rowComponent[k]]
-        if (v !== 0) row[k] += wr * v
+      for (let f = start; f < end; f++) {
+        const k = rowOf[nzComponent[f]]
+        if (k >= 0) row[k] += wr * nzNu[f]
       }
-      row[uCol] += wr * ws.dlc[i]
+      row[uCol] += wr * dl
     }
   }
   for (let a = 0; a < na; a++) {
@@ -285,14 +315,16 @@ function assembleJacobian(ws: Workspace, u: number, scale: Float64Array, J: Matr
   }
 }
 
-function maxScaledOf(ws: Workspace, F: Float64Array, scale: Float64Array): { max: number; row: number } {
+/** Sets ws.worstMax and ws.worstRow: the largest scaled residual and its row. */
+function findWorst(ws: Workspace): void {
   let max = 0
   let row = 0
   for (let r = 0; r < ws.dim; r++) {
-    const v = Math.abs(F[r] / scale[r])
+    const v = Math.abs(ws.F[r] / ws.scale[r])
     if (!(v <= max)) { max = Number.isNaN(v) ? Infinity : v; row = r }
   }
-  return { max, row }
+  ws.worstMax = max
+  ws.worstRow = row
 }
 
 function meritOf(ws: Workspace, F: Float64Array, scale: Float64Array): number {
@@ -400,20 +432,23 @@ function stepSize(ws: Workspace, state: SolverState): number {
 const MAX_START_ROOT_I = 5
 
 /**
- * A few fixed-point passes u ← √I(u) at the starting activities. Near u = 0
+ * A few fixed-point passes u ← √I(u) at the starting point; true when the
+ * species last computed belong to the state as left. Near u = 0
  * the ionic-strength equation u² − I(u) first falls, so Newton started below
  * its root would step the wrong way; from the fixed point it does not.
  */
-function settleIonicStrength(ws: Workspace, state: SolverState): void {
+function settleIonicStrength(ws: Workspace, state: SolverState): boolean {
   const p = ws.p
   for (let pass = 0; pass < 4; pass++) {
     computeSpecies(ws, state)
     let half = 0
     for (let i = 0; i < p.nsp; i++) half += p.z2[i] * ws.c[i]
     const next = Math.min(Math.sqrt(0.5 * half), MAX_START_ROOT_I)
-    if (!Number.isFinite(next) || Math.abs(next - state.u) <= 1e-3 * next) { if (Number.isFinite(next)) state.u = next; return }
+    // Close enough: keep u, so the species just computed are those of the state.
+    if (!Number.isFinite(next) || Math.abs(next - state.u) <= 1e-3 * next) return true
     state.u = next
   }
+  return false
 }
 
 /**
@@ -424,30 +459,32 @@ function settleIonicStrength(ws: Workspace, state: SolverState): void {
  */
 export function newton(ws: Workspace, state: SolverState, limits: Limits): NewtonOutcome {
   ws.layout(state)
-  if (ws.hasU) settleIonicStrength(ws, state)
+  // Whether ws holds the species of the current state (saves an evaluation).
+  let fresh = ws.hasU ? settleIonicStrength(ws, state) : false
   const nr = ws.nUnknownComponents
   let belowTolerance = 0
-  let worst = { max: Infinity, row: 0 }
+  ws.worstMax = Infinity
+  ws.worstRow = 0
   for (let it = 0; it <= limits.maxIterations; it++) {
-    computeSpecies(ws, state)
+    if (!fresh) computeSpecies(ws, state)
     computeResiduals(ws, state, ws.F, ws.scale)
-    worst = maxScaledOf(ws, ws.F, ws.scale)
+    findWorst(ws)
     if (ws.dim === 0) return { ok: true, iterations: it, maxScaled: 0, worstRow: 0 }
-    if (worst.max < RESIDUAL_TOLERANCE) belowTolerance++
+    if (ws.worstMax < RESIDUAL_TOLERANCE) belowTolerance++
     if (it === limits.maxIterations || performance.now() > limits.deadline) break
     if (!newtonDirection(ws, state)) {
       return {
-        ok: false, iterations: it, maxScaled: worst.max, worstRow: worst.row, singular: true,
-        reason: `the equations became dependent (singular Jacobian) near ${ws.rowName(worst.row)}`,
+        ok: false, iterations: it, maxScaled: ws.worstMax, worstRow: ws.worstRow, singular: true,
+        reason: `the equations became dependent (singular Jacobian) near ${ws.rowName(ws.worstRow)}`,
       }
     }
-    if (worst.max < RESIDUAL_TOLERANCE && (stepSize(ws, state) < STEP_TOLERANCE || belowTolerance >= FLOOR_ITERATIONS)) {
+    if (ws.worstMax < RESIDUAL_TOLERANCE && (stepSize(ws, state) < STEP_TOLERANCE || belowTolerance >= FLOOR_ITERATIONS)) {
       // Take the last, tiny step too: it brings the answer to rounding level.
       ws.y0.set(state.y)
       ws.n0.set(state.n)
       state.u = applyStep(ws, state, state.u, 1)
       computeSpecies(ws, state)
-      return { ok: true, iterations: it + 1, maxScaled: worst.max, worstRow: worst.row }
+      return { ok: true, iterations: it + 1, maxScaled: ws.worstMax, worstRow: ws.worstRow }
     }
     let cap = 1
     for (let r = 0; r < nr; r++) cap = Math.min(cap, MAX_LOG_STEP / Math.max(Math.abs(ws.delta[r]), 1e-300))
@@ -467,10 +504,11 @@ export function newton(ws: Workspace, state: SolverState, limits: Limits): Newto
       if (merit <= (1 - 2e-4 * t) * merit0 || merit0 < 1e-28) break
       t *= 0.5
     }
+    fresh = true
   }
   const stoppedBy = performance.now() > limits.deadline ? 'the time limit ran out' : `${limits.maxIterations} iterations`
   return {
-    ok: false, iterations: limits.maxIterations, maxScaled: worst.max, worstRow: worst.row,
-    reason: `${ws.rowName(worst.row)} did not close after ${stoppedBy}: scaled residual ${worst.max.toExponential(2)}`,
+    ok: false, iterations: limits.maxIterations, maxScaled: ws.worstMax, worstRow: ws.worstRow,
+    reason: `${ws.rowName(ws.worstRow)} did not close after ${stoppedBy}: scaled residual ${ws.worstMax.toExponential(2)}`,
   }
 }

@@ -27,6 +27,10 @@ export interface Problem {
   /** Aqueous species kept (indices into model.species). */
   speciesIndex: Int32Array
   nu: Float64Array // nsp × nc
+  /** The same stoichiometry by rows of nonzeros: species i uses entries nzStart[i] … nzStart[i+1]−1. */
+  nzStart: Int32Array
+  nzComponent: Int32Array
+  nzNu: Float64Array
   logK: Float64Array
   charge: Float64Array
   z2: Float64Array
@@ -124,6 +128,9 @@ export function buildProblem(model: Model): { problem: Problem } | { error: stri
     model, nc, nsp, nsol: solids.length, ngas: gases.length,
     speciesIndex: Int32Array.from(kept.map((k) => k.i)),
     nu: new Float64Array(nsp * nc),
+    nzStart: new Int32Array(nsp + 1),
+    nzComponent: new Int32Array(0),
+    nzNu: new Float64Array(0),
     logK: new Float64Array(nsp),
     charge: new Float64Array(nsp),
     z2: new Float64Array(nsp),
@@ -152,6 +159,15 @@ export function buildProblem(model: Model): { problem: Problem } | { error: stri
     p.ionSize[i] = ionSizeAngstrom(s.name, s.charge)
     if (s.componentIndex !== null && s.componentIndex >= 0 && s.componentIndex < nc) p.componentSpecies[s.componentIndex] = i
   })
+  const nzComponent: number[] = []
+  const nzNu: number[] = []
+  for (let i = 0; i < nsp; i++) {
+    p.nzStart[i] = nzComponent.length
+    for (let j = 0; j < nc; j++) if (p.nu[i * nc + j] !== 0) { nzComponent.push(j); nzNu.push(p.nu[i * nc + j]) }
+  }
+  p.nzStart[nsp] = nzComponent.length
+  p.nzComponent = Int32Array.from(nzComponent)
+  p.nzNu = Float64Array.from(nzNu)
   solids.forEach((s, k) => {
     for (let j = 0; j < nc; j++) p.solidNu[k * nc + j] = s.nu[j]
     p.solidLogK[k] = s.logK

@@ -1,0 +1,104 @@
+/**
+ * `npm run bench` (`-- --json` for one JSON object): the figures of the
+ * solver design's performance table, measured in one run as medians over
+ * repetitions. See bench/README.md for what each figure covers.
+ */
+import { compile } from '../shared/poise/index'
+import type { Model } from '../shared/poise/model'
+import { solve, sweep, SOLVER_VERSION } from '../server/solver/index'
+import { newton, Workspace, type SolverState } from '../server/solver/newton'
+import { buildProblem } from '../server/solver/problem'
+import { PlainNewtonStep } from './plainStep'
+import { benchSystemSource, twoHundredLineSource } from './systems'
+
+const median = (xs: number[]) => {
+  const s = [...xs].sort((a, b) => a - b)
+  const m = s.length >> 1
+  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2
+}
+
+/** Median wall time of fn in ms over `reps` runs, after `warm` unmeasured runs. */
+function timeMs(fn: () => void, reps: number, warm = Math.min(reps, 20)): number {
+  for (let k = 0; k < warm; k++) fn()
+  const t: number[] = []
+  for (let k = 0; k < reps; k++) {
+    const t0 = performance.now()
+    fn()
+    t.push(performance.now() - t0)
+  }
+  return median(t)
+}
+
+/** Median per-call time in ms of a fast fn, timed in batches so the clock's resolution does not matter. */
+function timeBatchedMs(fn: () => void, batches: number, batch: number): number {
+  return timeMs(() => { for (let k = 0; k < batch; k++) fn() }, batches, 5) / batch
+}
+
+function compiled(source: string): Model {
+  const out = compile(source)
+  if (!out.model) throw new Error(`bench system does not compile: ${out.diagnostics.map((d) => d.message).join('; ')}`)
+  return out.model
+}
+
+function main(json: boolean): void {
+  const longSource = twoHundredLineSource()
+  const compileMs = timeMs(() => { compile(longSource) }, 40)
+
+  const model = compiled(benchSystemSource(null))
+  const cold = solve(model)
+  if (!cold.converged) throw new Error(`bench system did not converge: ${cold.reason}`)
+  const solveColdUs = timeBatchedMs(() => { solve(model) }, 31, 20) * 1000
+
+  const sweepModel = compiled(benchSystemSource('sweep pH from 4 to 12 points 1000'))
+  let failedPoints = 0
+  const sweep1000Ms = timeMs(() => {
+    failedPoints = sweep(sweepModel).points.filter((p) => !p.converged).length
+  }, 9, 2)
+  const sweepPointUs = (sweep1000Ms / 1000) * 1000
+
+  // The same Newton step, ours against a plain typed-array one, from the
+  // converged cold solve with every log c nudged by 0.01 (a typical
+  // continuation iteration with the solids present).
+  const built = buildProblem(model)
+  if ('error' in built) throw new Error(built.error)
+  const p = built.problem
+  const ws = new Workspace(p)
+  const base: SolverState = { y: new Float64Array(p.nc), x: new Float64Array(p.nc), n: new Float64Array(p.nsol), active: new Uint8Array(p.nsol), u: Math.sqrt(cold.ionicStrength) }
+  model.components.forEach((c, j) => {
+    const own = cold.species.find((s) => s.name === c.name)
+    base.y[j] = (own ? own.log10 : 0) + 0.01
+  })
+  model.solids.forEach((s, k) => {
+    const r = cold.solids.find((x) => x.name === s.name)!
+    base.active[k] = r.present ? 1 : 0
+    base.n[k] = r.present ? r.amount * 0.99 : 0
+  })
+  const work: SolverState = { y: new Float64Array(p.nc), x: new Float64Array(p.nc), n: new Float64Array(p.nsol), active: new Uint8Array(p.nsol), u: 0 }
+  const reset = () => { work.y.set(base.y); work.n.set(base.n); work.active.set(base.active); work.u = base.u }
+  const limits = { maxIterations: 1, deadline: Infinity }
+  const ourStepUs = timeBatchedMs(() => { reset(); newton(ws, work, limits) }, 31, 200) * 1000
+  const ours = Float64Array.from(work.y)
+  const plain = new PlainNewtonStep(p)
+  const plainStepUs = timeBatchedMs(() => { reset(); plain.step(work.y, work.n, work.u, work.active) }, 31, 200) * 1000
+  let agree = 0
+  for (let j = 0; j < p.nc; j++) agree = Math.max(agree, Math.abs(ours[j] - work.y[j]))
+  const ratioToPlain = ourStepUs / plainStepUs
+
+  const figures = { compileMs, solveColdUs, sweepPointUs, sweep1000Ms, ratioToPlain }
+  if (json) {
+    console.log(JSON.stringify(figures))
+    return
+  }
+  const row = (name: string, value: string, target: string, ok: boolean) =>
+    `${name.padEnd(44)} ${value.padStart(12)}   target ${target.padEnd(9)} ${ok ? 'met' : 'MISSED'}`
+  console.log(`Equipoise solver ${SOLVER_VERSION} benchmark (medians; Node ${process.version})`)
+  console.log(`system: ${model.components.length} components, ${model.species.length} species, ${model.solids.length} solids (${cold.solids.filter((s) => s.present).length} present), cold solve ${cold.iterations} iterations`)
+  console.log(row('compile a 200-line file', `${compileMs.toFixed(2)} ms`, '< 5 ms', compileMs < 5))
+  console.log(row('one solve, cold start', `${solveColdUs.toFixed(0)} µs`, '< 1000 µs', solveColdUs < 1000))
+  console.log(row('one sweep point with continuation (mean)', `${sweepPointUs.toFixed(1)} µs`, '< 100 µs', sweepPointUs < 100))
+  console.log(row('1,000-point pH sweep, end to end', `${sweep1000Ms.toFixed(1)} ms`, '< 150 ms', sweep1000Ms < 150))
+  console.log(row('Newton step, ours / plain Float64Array', `${ratioToPlain.toFixed(2)}×`, '≤ 3×', ratioToPlain <= 3))
+  console.log(`  (step: ours ${ourStepUs.toFixed(1)} µs, plain ${plainStepUs.toFixed(1)} µs; results agree to ${agree.toExponential(1)} log units; ${failedPoints} sweep points failed)`)
+}
+
+main(process.argv.includes('--json'))
