@@ -172,3 +172,49 @@ export const reviewCommentsRelations = relations(reviewComments, ({ one }) => ({
 
 export type Review = typeof reviews.$inferSelect
 export type ReviewComment = typeof reviewComments.$inferSelect
+
+/**
+ * An owner's invitation of an e-mail address into a lab with a role. Only the
+ * sha256 of the link's token is kept, so a database reader cannot use it; the
+ * link works once (acceptedAt) and until expiresAt.
+ */
+export const invitations = mysqlTable('invitations', {
+  id: int('id').autoincrement().primaryKey(),
+  labId: int('lab_id').notNull().references(() => labs.id, { onDelete: 'cascade' }),
+  email: varchar('email', { length: 254 }).notNull(),
+  role: mysqlEnum('role', LAB_ROLES).notNull(),
+  tokenHash: varchar('token_hash', { length: 64 }).notNull(),
+  invitedBy: int('invited_by').references(() => users.id, { onDelete: 'set null' }),
+  expiresAt: datetime('expires_at', { mode: 'date', fsp: 3 }).notNull(),
+  acceptedAt: datetime('accepted_at', { mode: 'date', fsp: 3 }),
+  acceptedBy: int('accepted_by').references(() => users.id, { onDelete: 'set null' }),
+  createdAt,
+}, (t) => [
+  uniqueIndex('invitations_token_unique').on(t.tokenHash),
+  index('invitations_lab_idx').on(t.labId),
+])
+
+/** A single-use, expiring password reset link sent by mail (token kept as sha256 only). */
+export const passwordResets = mysqlTable('password_resets', {
+  id: int('id').autoincrement().primaryKey(),
+  userId: int('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  tokenHash: varchar('token_hash', { length: 64 }).notNull(),
+  expiresAt: datetime('expires_at', { mode: 'date', fsp: 3 }).notNull(),
+  usedAt: datetime('used_at', { mode: 'date', fsp: 3 }),
+  createdAt,
+}, (t) => [
+  uniqueIndex('password_resets_token_unique').on(t.tokenHash),
+  index('password_resets_user_idx').on(t.userId),
+])
+
+export const invitationsRelations = relations(invitations, ({ one }) => ({
+  lab: one(labs, { fields: [invitations.labId], references: [labs.id] }),
+  inviter: one(users, { fields: [invitations.invitedBy], references: [users.id] }),
+}))
+
+export const passwordResetsRelations = relations(passwordResets, ({ one }) => ({
+  user: one(users, { fields: [passwordResets.userId], references: [users.id] }),
+}))
+
+export type Invitation = typeof invitations.$inferSelect
+export type PasswordReset = typeof passwordResets.$inferSelect
