@@ -33,5 +33,8 @@ export default defineNuxtConfig({
     // The public address of the site for links in mail (NUXT_SITE_URL); empty: the address of the request.
     siteUrl: '',
   },
+  // The examples travel with the built server (read with useStorage('assets:examples')).
+  // Nitro resolves the folder from server/, hence the '..'.
+  nitro: { serverAssets: [{ baseName: 'examples', dir: '../examples' }] },
   typescript: { strict: true },
 })
