@@ -2,12 +2,15 @@
 // Runs Equipoise locally: the built server (.output) by default, or
 // `nuxt dev` with --dev. It supplies what a deployment would set by hand:
 // the session secret (generated once, kept in .data/session-secret) and the
-// database URL of the private MariaDB.
+// database URL of the private MariaDB. Unless NUXT_MAIL_HOST names a real
+// mail server, it also starts the fake SMTP server (scripts/fake-smtp.mjs),
+// which keeps mail in .data/mail for /admin/mail to show.
 import { spawn } from 'node:child_process'
 import { randomBytes } from 'node:crypto'
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs'
 import { dirname, join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
+import { startFakeSmtp } from './fake-smtp.mjs'
 
 const root = resolve(dirname(fileURLToPath(import.meta.url)), '..')
 const secretFile = join(root, '.data', 'session-secret')
@@ -22,8 +25,16 @@ function sessionSecret() {
   return secret
 }
 
+async function mailSettings() {
+  if (process.env.NUXT_MAIL_HOST) return {}
+  const fake = await startFakeSmtp({ dir: join(root, '.data', 'mail') })
+  console.log(`Mail goes to the fake SMTP server on 127.0.0.1:${fake.port} (read it at /admin/mail as a site administrator)`)
+  return { NUXT_MAIL_HOST: '127.0.0.1', NUXT_MAIL_PORT: String(fake.port), NUXT_MAIL_CAPTURE_DIR: fake.dir }
+}
+
 const port = process.env.PORT || '3000'
 const env = {
+  ...(await mailSettings()),
   ...process.env,
   NUXT_SESSION_PASSWORD: sessionSecret(),
   NUXT_DATABASE_URL: process.env.NUXT_DATABASE_URL

@@ -5,13 +5,15 @@
  * test file. Files reach it through `inject('baseURL')` (see server.ts).
  */
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process'
-import { existsSync } from 'node:fs'
+import { existsSync, mkdtempSync, rmSync } from 'node:fs'
+import { tmpdir } from 'node:os'
 import { createServer } from 'node:net'
 import { resolve } from 'node:path'
 import type { TestProject } from 'vitest/node'
 import { migrateDatabase, openDatabase } from '../../server/database/connect'
 import { seedDemo } from '../../server/database/seed'
 import { recreateTestDatabase, TEST_DATABASE_URL } from './test-database'
+import { startFakeSmtp } from '../../scripts/fake-smtp.mjs'
 
 const root = resolve(import.meta.dirname, '../..')
 
@@ -21,6 +23,8 @@ const TEST_SESSION_PASSWORD = `test-${Date.now()}-${Math.random().toString(36).s
 declare module 'vitest' {
   export interface ProvidedContext {
     baseURL: string
+    /** The folder where the fake SMTP server keeps this run's mail (see mail.ts). */
+    mailDir: string
   }
 }
 
@@ -66,6 +70,9 @@ export default async function setup(project: TestProject) {
     if (build.status !== 0) throw new Error('nuxt build failed (see above)')
   }
 
+  const mail = await startFakeSmtp({ dir: mkdtempSync(resolve(tmpdir(), 'equipoise-test-mail-')) })
+  project.provide('mailDir', mail.dir)
+
   const port = await freePort()
   const log: string[] = []
   const server = spawn(process.execPath, [entry], {
@@ -76,6 +83,9 @@ export default async function setup(project: TestProject) {
       PORT: String(port),
       NUXT_DATABASE_URL: TEST_DATABASE_URL,
       NUXT_SESSION_PASSWORD: TEST_SESSION_PASSWORD,
+      NUXT_MAIL_HOST: '127.0.0.1',
+      NUXT_MAIL_PORT: String(mail.port),
+      NUXT_MAIL_CAPTURE_DIR: mail.dir,
     },
     stdio: ['ignore', 'pipe', 'pipe'],
   })
@@ -87,6 +97,7 @@ export default async function setup(project: TestProject) {
     await waitUntilServing(baseURL, server, log)
   } catch (error) {
     server.kill()
+    await mail.close()
     throw error
   }
   project.provide('baseURL', baseURL)
@@ -94,5 +105,7 @@ export default async function setup(project: TestProject) {
   return async () => {
     server.kill()
     await new Promise((r) => (server.exitCode !== null ? r(null) : server.once('exit', r)))
+    await mail.close()
+    rmSync(mail.dir, { recursive: true, force: true })
   }
 }

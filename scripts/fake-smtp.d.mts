@@ -1,0 +1,19 @@
+// Types of scripts/fake-smtp.mjs for the TypeScript that imports it (tests' global setup).
+export interface CapturedMail {
+  id: string
+  receivedAt: string
+  from: string
+  to: string[]
+  subject: string
+  text: string
+  html: string | null
+}
+
+export interface FakeSmtp {
+  port: number
+  dir: string
+  close(): Promise<void>
+}
+
+export function startFakeSmtp(options: { dir: string; port?: number }): Promise<FakeSmtp>
+export function readMessage(raw: string, envelope: { from: string; to: string[] }): Omit<CapturedMail, 'id' | 'receivedAt'>
