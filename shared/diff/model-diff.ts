@@ -1,0 +1,180 @@
+/**
+ * What changed in the chemistry between two compiled models: species, solids
+ * and gases added or removed, formation constants moved (old → new and the
+ * change in log K), totals and conditions changed, citations changed.
+ *
+ * Constants are compared as the model uses them — the log10 formation
+ * constant from components at the reference temperature — so rewriting a
+ * reaction in another form (pKa instead of logK) without changing its value
+ * is not reported as a change of the chemistry. Pure data in, pure data out:
+ * no Vue, no Nitro.
+ */
+import type { Model, ModelComponent, ModelReaction } from '../poise/model'
+
+export type ModelChangeKind =
+  | 'added' | 'removed'
+  | 'constant' | 'total' | 'condition' | 'citation'
+
+export type ModelEntity = 'species' | 'solid' | 'gas' | 'component' | 'condition'
+
+export interface ModelChange {
+  kind: ModelChangeKind
+  entity: ModelEntity
+  /** The species, solid, gas or component in caret form, or the condition's name. */
+  name: string
+  /** Old and new values in words ready to show, e.g. "logK 4.00" → "logK 5.00". */
+  from: string | null
+  to: string | null
+  /** For constants: new log K minus old (at the reference temperature). */
+  deltaLogK?: number
+  /** How large the change is, for ordering: log10 units for constants and totals. */
+  size: number
+  /** 1-based source lines in the old and new file, when the change has one. */
+  fromLine?: number
+  toLine?: number
+}
+
+/** Structural changes (a species that appears or goes) outrank any numeric one. */
+const STRUCTURAL_SIZE = 1000
+/** Conditions that change the whole model (activity model, temperature) come next. */
+const CONDITION_SIZE = 100
+
+function fixed(value: number, digits = 2): string {
+  return Number.isFinite(value) ? value.toFixed(digits) : String(value)
+}
+
+function quantity(value: number): string {
+  if (value === 0) return '0'
+  const abs = Math.abs(value)
+  return abs >= 0.01 && abs < 1000 ? String(Number(value.toPrecision(4))) : value.toExponential(2)
+}
+
+/** log10 distance between two positive amounts; a sign change or zero counts as structural-sized. */
+function logDistance(a: number, b: number): number {
+  if (a === b) return 0
+  if (a > 0 && b > 0) return Math.abs(Math.log10(b / a))
+  return CONDITION_SIZE / 10
+}
+
+function componentValue(c: ModelComponent): string {
+  switch (c.mode) {
+    case 'total': return `total ${quantity(c.value)} mol/L`
+    case 'free': return `free ${quantity(c.value)} mol/L`
+    case 'pH': return `pH ${fixed(c.value)}`
+    case 'pressure': return `pressure ${quantity(c.value)} atm`
+    case 'balance': return 'balance (charge)'
+    case 'excess': return 'excess solid'
+  }
+}
+
+interface Formed { name: string; logKRef: number; line: number; entity: ModelEntity }
+
+function formedOf(model: Model): Map<string, Formed> {
+  const map = new Map<string, Formed>()
+  // A component's free form is a species of the model too, with logK 0: it is reported as a component instead.
+  for (const s of model.species) if (s.componentIndex === null) map.set(`species:${s.name}`, { name: s.name, logKRef: s.logKRef, line: s.line, entity: 'species' })
+  for (const s of model.solids) map.set(`solid:${s.name}`, { name: s.name, logKRef: s.logKRef, line: s.line, entity: 'solid' })
+  for (const g of model.gases) map.set(`gas:${g.name}`, { name: g.name, logKRef: g.logKRef, line: g.line, entity: 'gas' })
+  return map
+}
+
+function formationChanges(a: Model, b: Model): ModelChange[] {
+  const before = formedOf(a)
+  const after = formedOf(b)
+  const changes: ModelChange[] = []
+  for (const [key, old] of before) {
+    const now = after.get(key)
+    if (!now) {
+      changes.push({ kind: 'removed', entity: old.entity, name: old.name, from: `log K ${fixed(old.logKRef)}`, to: null, size: STRUCTURAL_SIZE, fromLine: old.line })
+      continue
+    }
+    const delta = now.logKRef - old.logKRef
+    // Constants are written with two or three decimals: differences below that are rounding of a rewritten reaction.
+    if (Math.abs(delta) >= 5e-4) {
+      changes.push({
+        kind: 'constant', entity: old.entity, name: old.name,
+        from: `log K ${fixed(old.logKRef)}`, to: `log K ${fixed(now.logKRef)}`,
+        deltaLogK: delta, size: Math.abs(delta), fromLine: old.line, toLine: now.line,
+      })
+    }
+  }
+  for (const [key, now] of after) {
+    if (!before.has(key)) changes.push({ kind: 'added', entity: now.entity, name: now.name, from: null, to: `log K ${fixed(now.logKRef)}`, size: STRUCTURAL_SIZE, toLine: now.line })
+  }
+  return changes
+}
+
+function componentChanges(a: Model, b: Model): ModelChange[] {
+  const changes: ModelChange[] = []
+  const after = new Map(b.components.map(c => [c.name, c]))
+  for (const old of a.components) {
+    const now = after.get(old.name)
+    if (!now) {
+      changes.push({ kind: 'removed', entity: 'component', name: old.name, from: componentValue(old), to: null, size: STRUCTURAL_SIZE, fromLine: old.line })
+      continue
+    }
+    if (old.mode === now.mode && old.value === now.value) continue
+    const size = old.mode !== now.mode
+      ? CONDITION_SIZE / 10
+      : old.mode === 'pH' ? Math.abs(now.value - old.value) : logDistance(old.value, now.value)
+    changes.push({ kind: 'total', entity: 'component', name: old.name, from: componentValue(old), to: componentValue(now), size, fromLine: old.line, toLine: now.line })
+  }
+  const before = new Set(a.components.map(c => c.name))
+  for (const now of b.components) {
+    if (!before.has(now.name)) changes.push({ kind: 'added', entity: 'component', name: now.name, from: null, to: componentValue(now), size: STRUCTURAL_SIZE, toLine: now.line })
+  }
+  return changes
+}
+
+function sweepText(model: Model): string | null {
+  const s = model.sweep
+  if (!s) return null
+  const first = s.values[0]
+  const last = s.values[s.values.length - 1]
+  const what = s.component ? `${s.variable} of ${s.component}` : s.variable
+  return `${what} from ${quantity(first ?? 0)} to ${quantity(last ?? 0)}, ${s.values.length} points${s.log ? ' (log)' : ''}`
+}
+
+function conditionChanges(a: Model, b: Model): ModelChange[] {
+  const changes: ModelChange[] = []
+  const condition = (name: string, from: string | null, to: string | null, size: number) => {
+    if (from !== to) changes.push({ kind: 'condition', entity: 'condition', name, from, to, size })
+  }
+  condition('temperature', `${fixed(a.temperatureC, 1)} °C`, `${fixed(b.temperatureC, 1)} °C`, CONDITION_SIZE + Math.abs(b.temperatureC - a.temperatureC) / 100)
+  condition('activity model', a.activity, b.activity, CONDITION_SIZE)
+  const ionic = (m: Model) => m.fixedIonicStrength === null ? 'from the species' : `${quantity(m.fixedIonicStrength)} mol/L`
+  condition('ionic strength', ionic(a), ionic(b), CONDITION_SIZE)
+  condition('sweep', sweepText(a), sweepText(b), 1)
+  return changes
+}
+
+function citationChanges(a: Model, b: Model): ModelChange[] {
+  const byDefined = (model: Model) => new Map<string, ModelReaction>(model.reactions.map(r => [r.defines, r]))
+  const before = byDefined(a)
+  const changes: ModelChange[] = []
+  for (const now of b.reactions) {
+    const old = before.get(now.defines)
+    if (!old || old.cite === now.cite) continue
+    changes.push({
+      kind: 'citation', entity: 'species', name: now.defines,
+      from: old.cite ?? 'no citation', to: now.cite ?? 'no citation',
+      size: now.cite === null ? 0.5 : 0, fromLine: old.line, toLine: now.line,
+    })
+  }
+  return changes
+}
+
+/**
+ * Every change from `a` (the old revision) to `b` (the new), largest first:
+ * species appearing or going, then conditions, then constants and totals by
+ * how many log10 units they moved, then citations.
+ */
+export function diffModels(a: Model, b: Model): ModelChange[] {
+  const changes = [
+    ...formationChanges(a, b),
+    ...componentChanges(a, b),
+    ...conditionChanges(a, b),
+    ...citationChanges(a, b),
+  ]
+  return changes.sort((x, y) => y.size - x.size || x.name.localeCompare(y.name))
+}

@@ -1,0 +1,48 @@
+import { describe, expect, it } from 'vitest'
+import { diffModels } from '../../../shared/diff/model-diff'
+import { compiled, copperAmmine } from './fixtures'
+
+describe('model diff', () => {
+  it('reports a raised formation constant with old, new and the change in log K', () => {
+    const changes = diffModels(compiled(copperAmmine(4)), compiled(copperAmmine(5)))
+    expect(changes).toHaveLength(1)
+    expect(changes[0]).toMatchObject({ kind: 'constant', entity: 'species', name: 'CuNH3^2+', from: 'log K 4.00', to: 'log K 5.00', toLine: 6 })
+    expect(changes[0]!.deltaLogK).toBeCloseTo(1, 10)
+  })
+
+  it('finds nothing between a model and itself', () => {
+    expect(diffModels(compiled(copperAmmine(4)), compiled(copperAmmine(4)))).toEqual([])
+  })
+
+  it('does not call a constant rewritten in another form a change', () => {
+    // logbeta 4 and K 1e4 are the same constant (definition of log10, common practice).
+    const rewritten = copperAmmine(4).replace('logbeta 4.00', 'K 1e4')
+    expect(diffModels(compiled(copperAmmine(4)), compiled(rewritten))).toEqual([])
+  })
+
+  it('lists a new species first, then the larger constant change before the smaller', () => {
+    const before = compiled(copperAmmine(4, 'reaction Cu^2+ + 2 NH3 <=> Cu(NH3)2^2+  logbeta 7.50  cite "demo value"'))
+    const after = compiled(copperAmmine(4.3, 'reaction Cu^2+ + 2 NH3 <=> Cu(NH3)2^2+  logbeta 9.50  cite "demo value"\nreaction Cu^2+ + 3 NH3 <=> Cu(NH3)3^2+  logbeta 10.3  cite "demo value"'))
+    const changes = diffModels(before, after)
+    expect(changes.map(c => [c.kind, c.name])).toEqual([
+      ['added', 'Cu(NH3)3^2+'],
+      ['constant', 'Cu(NH3)2^2+'],
+      ['constant', 'CuNH3^2+'],
+    ])
+    expect(changes[1]!.deltaLogK).toBeCloseTo(2, 10)
+    expect(changes[2]!.deltaLogK).toBeCloseTo(0.3, 10)
+  })
+
+  it('reports a removed species, a changed total, a changed condition and a changed citation', () => {
+    const before = compiled(copperAmmine(4, 'reaction Cu^2+ + 2 NH3 <=> Cu(NH3)2^2+  logbeta 7.50  cite "demo value"'))
+    const after = compiled(copperAmmine(4).replace('total 1.0 mmol/L', 'total 2.0 mmol/L').replace('temperature 25 C', 'temperature 35 C').replace('cite "demo value"', 'cite "checked again"'))
+    const changes = diffModels(before, after)
+    const byKind = Object.fromEntries(changes.map(c => [`${c.kind}:${c.name}`, c]))
+    expect(byKind['removed:Cu(NH3)2^2+']).toBeDefined()
+    expect(byKind['condition:temperature']).toMatchObject({ from: '25.0 °C', to: '35.0 °C' })
+    // log10(2) = 0.301: the size of doubling a total (common practice).
+    expect(byKind['total:Cu^2+']).toMatchObject({ from: 'total 1.00e-3 mol/L', to: 'total 2.00e-3 mol/L' })
+    expect(byKind['total:Cu^2+']!.size).toBeCloseTo(Math.log10(2), 10)
+    expect(byKind['citation:CuNH3^2+']).toMatchObject({ from: 'demo value', to: 'checked again' })
+  })
+})
