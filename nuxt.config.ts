@@ -7,6 +7,8 @@ export default defineNuxtConfig({
   telemetry: false,
   modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils'],
   css: ['~/assets/css/main.css'],
+  // main.css holds the @tailwind directives; without this the module injects a second copy of them.
+  tailwindcss: { cssPath: false },
   app: {
     head: {
       title: 'Equipoise',
