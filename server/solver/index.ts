@@ -89,17 +89,17 @@ function attempt(ws: Workspace, state: SolverState, limits: Limits, iterationsBe
 const ACTIVITY_HOMOTOPY = [0, 0.25, 0.5, 0.75, 0.9, 1]
 
 /**
- * Solves from `warm` if given, then from cold guesses, then (with an activity
+ * Solves from each `warm` start in turn, then from cold guesses, then (with an activity
  * model) by continuation in A from ideal solution to the full model; keeps
  * the first success, or the last failure.
  */
-function solveProblem(ws: Workspace, state: SolverState, limits: Limits, warm: SolverState | null): Attempt {
+function solveProblem(ws: Workspace, state: SolverState, limits: Limits, warm: SolverState[]): Attempt {
   const p = ws.p
   let spent = 0
   let last: Attempt | null = null
-  if (warm) {
-    copyState(state, warm)
-    last = attempt(ws, state, limits, 0)
+  for (const start of warm) {
+    copyState(state, start)
+    last = attempt(ws, state, limits, spent)
     if (last.ok) return last
     spent = last.result.iterations
   }
@@ -152,10 +152,29 @@ export function solve(model: Model, options?: SolveOptions): Result {
     if ('error' in built) return unsolvable(model, built.error)
     const ws = new Workspace(built.problem)
     const limits = { maxIterations: iterationsOf(options), deadline: deadlineOf(options) }
-    return solveProblem(ws, newState(built.problem), limits, null).result
+    return solveProblem(ws, newState(built.problem), limits, []).result
   } catch (error) {
     return internalFailure(model, error)
   }
+}
+
+/**
+ * Secant predictor for continuation: extrapolates the unknowns linearly
+ * from the last two converged points to position t, keeping the solids of
+ * the last. False when the two points cannot define a line.
+ */
+function predict(out: SolverState, last: SolverState, before: SolverState, t: number, tLast: number, tBefore: number): boolean {
+  const span = tLast - tBefore
+  if (!Number.isFinite(span) || span === 0 || !Number.isFinite(t)) return false
+  const f = (t - tLast) / span
+  if (Math.abs(f) > 2) return false
+  copyState(out, last)
+  for (let j = 0; j < out.y.length; j++) out.y[j] = last.y[j] + f * (last.y[j] - before.y[j])
+  for (let s = 0; s < out.n.length; s++) {
+    if (last.active[s] && before.active[s]) out.n[s] = Math.max(0, last.n[s] + f * (last.n[s] - before.n[s]))
+  }
+  out.u = Math.max(0, last.u + f * (last.u - before.u))
+  return true
 }
 
 /** Moves the problem to sweep value v; returns why it cannot, or null. */
@@ -192,9 +211,10 @@ function sweepComponentIndex(model: Model): { index: number } | { error: string 
 }
 
 /**
- * The model's sweep: each point starts from the previous converged point
- * (continuation); a point that fails is marked converged:false with its
- * reason and the sweep goes on. Never throws.
+ * The model's sweep: each point starts from a secant prediction through the
+ * two previous converged points, or else from the last one (continuation);
+ * a point that fails is marked converged:false with its reason and the sweep
+ * goes on. Never throws.
  */
 export function sweep(model: Model, options?: SolveOptions): SweepResult {
   const sw = model?.sweep
@@ -210,9 +230,14 @@ export function sweep(model: Model, options?: SolveOptions): SweepResult {
     const ws = new Workspace(p)
     const state = newState(p)
     const previous = newState(p)
-    let havePrevious = false
+    const older = newState(p)
+    const predicted = newState(p)
+    let previousValue = NaN
+    let olderValue = NaN
+    let converged = 0
     const maxIterations = iterationsOf(options)
     const deadline = deadlineOf(options)
+    const position = (v: number) => (sw.log && v > 0 ? Math.log10(v) : v)
     for (const v of values) {
       const bad = applySweepValue(p, sw.variable, target.index, v)
       if (bad) { base.points.push(unsolvable(model, `This sweep point cannot be solved: ${bad}.`)); continue }
@@ -220,8 +245,15 @@ export function sweep(model: Model, options?: SolveOptions): SweepResult {
         base.points.push(unsolvable(model, 'The time limit for the sweep ran out before this point.'))
         continue
       }
-      const out = solveProblem(ws, state, { maxIterations, deadline }, havePrevious ? previous : null)
-      if (out.ok) { copyState(previous, state); havePrevious = true }
+      const starts: SolverState[] = []
+      if (converged >= 2 && predict(predicted, previous, older, position(v), position(previousValue), position(olderValue))) starts.push(predicted)
+      if (converged >= 1) starts.push(previous)
+      const out = solveProblem(ws, state, { maxIterations, deadline }, starts)
+      if (out.ok) {
+        copyState(older, previous); olderValue = previousValue
+        copyState(previous, state); previousValue = v
+        converged++
+      }
       base.points.push(out.result)
     }
     return base

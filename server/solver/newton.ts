@@ -81,6 +81,9 @@ export class Workspace {
   nActive = 0
   hasU = false
   dim = 0
+  private readonly massNames: string[]
+  private readonly chargeNames: string[]
+  private readonly solidNames: string[]
   private readonly matrices = new Map<number, Matrix>()
   private readonly rhs = new Map<number, Matrix>()
 
@@ -101,6 +104,9 @@ export class Workspace {
     this.delta = new Float64Array(rows)
     this.y0 = new Float64Array(p.nc)
     this.n0 = new Float64Array(p.nsol)
+    this.massNames = p.model.components.map((c) => `the mass balance of ${c.name}`)
+    this.chargeNames = p.model.components.map((c) => `the charge balance (solved for ${c.name})`)
+    this.solidNames = p.model.solids.map((s) => `the saturation of ${s.name}`)
   }
 
   /** Lays out the rows for the present solids. */
@@ -141,12 +147,9 @@ export class Workspace {
     const p = this.p
     if (row < this.nUnknownComponents) {
       const j = this.rowComponent[row]
-      const name = p.model.components[j].name
-      return p.mode[j] === MODE_BALANCE ? `the charge balance (solved for ${name})` : `the mass balance of ${name}`
+      return p.mode[j] === MODE_BALANCE ? this.chargeNames[j] : this.massNames[j]
     }
-    if (row < this.nUnknownComponents + this.nActive) {
-      return `the saturation of ${p.model.solids[this.rowSolid[row - this.nUnknownComponents]].name}`
-    }
+    if (row < this.nUnknownComponents + this.nActive) return this.solidNames[this.rowSolid[row - this.nUnknownComponents]]
     return 'the ionic strength'
   }
 }
