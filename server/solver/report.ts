@@ -58,8 +58,9 @@ export function buildResult(ws: Workspace, state: SolverState, info: ReportInput
     for (let i = 0; i < p.nsp; i++) dissolved += p.nu[i * p.nc + j] * ws.c[i]
     let inSolids = 0
     for (let k = 0; k < p.nsol; k++) if (state.active[k]) inSolids += p.solidNu[k * p.nc + j] * state.n[k]
+    // Held activities (pH, pressure, excess) are reported as such; the rest as concentrations.
     const own = p.componentSpecies[j]
-    const free = own >= 0 ? ws.c[own] : Math.pow(10, state.x[j])
+    const free = own >= 0 && p.mode[j] !== MODE_FIXED_ACTIVITY ? ws.c[own] : Math.pow(10, state.x[j])
     return { name: comp.name, mode: comp.mode, total: safe(dissolved + inSolids), free: safe(free), dissolved: safe(dissolved) }
   })
   m.components.forEach((comp, j) => {
