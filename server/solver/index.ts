@@ -5,7 +5,8 @@
  */
 import type { Model } from '../../shared/poise/model'
 import type { Result, SweepResult } from '../../shared/types/result'
-import { Workspace, presolve, type Limits, type SolverState } from './newton'
+import { presolve } from './presolve'
+import { Workspace, type Limits, type SolverState } from './workspace'
 import { solveWithPhases } from './phases'
 import { MODE_BALANCE, MODE_TOTAL, buildProblem, setComponent, setTemperature, type Problem } from './problem'
 import { buildResult } from './report'

@@ -4,7 +4,8 @@
  * negative, repeat until neither happens; a set seen twice is a cycle.
  */
 import { MODE_TOTAL, type Problem } from './problem'
-import { newton, type Limits, type SolverState, type Workspace } from './newton'
+import { newton } from './newton'
+import type { Limits, SolverState, Workspace } from './workspace'
 
 /** A solid joins when its saturation index exceeds this. */
 export const SUPERSATURATION_TOLERANCE = 1e-9

@@ -5,7 +5,8 @@
  */
 import type { ComponentResult, GasResult, Result, SolidResult, SpeciesResult } from '../../shared/types/result'
 import { ACTIVITY_RANGE_LIMIT } from './activity'
-import { computeResiduals, computeSpecies, type SolverState, type Workspace } from './newton'
+import { computeResiduals, computeSpecies } from './equations'
+import type { SolverState, Workspace } from './workspace'
 import { saturationIndex } from './phases'
 import { MODE_FIXED_ACTIVITY } from './problem'
 

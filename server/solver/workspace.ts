@@ -1,0 +1,135 @@
+/**
+ * The solver's state (the unknowns of one solve) and its workspace: scratch
+ * arrays sized once per problem and reused by every iteration and every
+ * sweep point, so the Newton loop allocates nothing but ml-matrix's own.
+ */
+import { Matrix } from 'ml-matrix'
+import { MODE_BALANCE, MODE_TOTAL, type Problem } from './problem'
+
+export interface SolverState {
+  /** log10 free concentration of the components under a balance (the unknowns). */
+  y: Float64Array
+  /** log10 activity of every component, derived by computeSpecies. */
+  x: Float64Array
+  /** mol/L of each solid (0 when absent). */
+  n: Float64Array
+  active: Uint8Array
+  /** √I, mol^½ L^−½. */
+  u: number
+}
+
+export interface Limits {
+  maxIterations: number
+  /** performance.now() value after which the solve gives up. */
+  deadline: number
+}
+
+export interface NewtonOutcome {
+  ok: boolean
+  iterations: number
+  maxScaled: number
+  /** Row of the worst residual (see Workspace.rowName). */
+  worstRow: number
+  reason?: string
+  singular?: boolean
+}
+
+/** Scratch arrays sized once per problem, reused by every iteration and every sweep point. */
+export class Workspace {
+  readonly lc: Float64Array
+  readonly c: Float64Array
+  readonly g: Float64Array
+  /** d log10 c_i / du at fixed unknowns. */
+  readonly dlc: Float64Array
+  /** d log10 a_j / du of each fixed-concentration component. */
+  readonly dxdu: Float64Array
+  readonly rowComponent: Int32Array
+  /** Row (= column) of each component among the unknowns, or −1. */
+  readonly rowOfComponent: Int32Array
+  balanceRow = -1
+  worstMax = 0
+  worstRow = 0
+  readonly rowSolid: Int32Array
+  readonly F: Float64Array
+  readonly scale: Float64Array
+  readonly Ftrial: Float64Array
+  readonly scaleTrial: Float64Array
+  readonly delta: Float64Array
+  readonly y0: Float64Array
+  readonly n0: Float64Array
+  nUnknownComponents = 0
+  nActive = 0
+  hasU = false
+  dim = 0
+  private readonly massNames: string[]
+  private readonly chargeNames: string[]
+  private readonly solidNames: string[]
+  private readonly matrices = new Map<number, Matrix>()
+  private readonly rhs = new Map<number, Matrix>()
+
+  constructor(readonly p: Problem) {
+    const rows = p.nc + p.nsol + 1
+    this.lc = new Float64Array(p.nsp)
+    this.c = new Float64Array(p.nsp)
+    this.g = new Float64Array(p.nsp)
+    this.dlc = new Float64Array(p.nsp)
+    this.dxdu = new Float64Array(p.nc)
+    this.rowComponent = new Int32Array(p.nc)
+    this.rowOfComponent = new Int32Array(p.nc)
+    this.rowSolid = new Int32Array(p.nsol)
+    this.F = new Float64Array(rows)
+    this.scale = new Float64Array(rows)
+    this.Ftrial = new Float64Array(rows)
+    this.scaleTrial = new Float64Array(rows)
+    this.delta = new Float64Array(rows)
+    this.y0 = new Float64Array(p.nc)
+    this.n0 = new Float64Array(p.nsol)
+    this.massNames = p.model.components.map((c) => `the mass balance of ${c.name}`)
+    this.chargeNames = p.model.components.map((c) => `the charge balance (solved for ${c.name})`)
+    this.solidNames = p.model.solids.map((s) => `the saturation of ${s.name}`)
+  }
+
+  /** Lays out the rows for the present solids. */
+  layout(state: SolverState): void {
+    const p = this.p
+    let r = 0
+    this.balanceRow = -1
+    for (let j = 0; j < p.nc; j++) {
+      this.rowOfComponent[j] = -1
+      if (p.mode[j] === MODE_TOTAL || p.mode[j] === MODE_BALANCE) {
+        if (p.mode[j] === MODE_BALANCE) this.balanceRow = r
+        this.rowOfComponent[j] = r
+        this.rowComponent[r++] = j
+      }
+    }
+    this.nUnknownComponents = r
+    let a = 0
+    for (let s = 0; s < p.nsol; s++) if (state.active[s]) this.rowSolid[a++] = s
+    this.nActive = a
+    this.hasU = p.activity !== 0 && p.fixedRootI < 0
+    this.dim = r + a + (this.hasU ? 1 : 0)
+  }
+
+  matrix(dim: number): Matrix {
+    let m = this.matrices.get(dim)
+    if (!m) { m = new Matrix(dim, dim); this.matrices.set(dim, m) }
+    return m
+  }
+
+  column(dim: number): Matrix {
+    let m = this.rhs.get(dim)
+    if (!m) { m = new Matrix(dim, 1); this.rhs.set(dim, m) }
+    return m
+  }
+
+  /** Plain words for an equation row. */
+  rowName(row: number): string {
+    const p = this.p
+    if (row < this.nUnknownComponents) {
+      const j = this.rowComponent[row]
+      return p.mode[j] === MODE_BALANCE ? this.chargeNames[j] : this.massNames[j]
+    }
+    if (row < this.nUnknownComponents + this.nActive) return this.solidNames[this.rowSolid[row - this.nUnknownComponents]]
+    return 'the ionic strength'
+  }
+}
