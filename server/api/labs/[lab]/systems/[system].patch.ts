@@ -4,7 +4,8 @@ import { SystemParams, SystemUpdateBody } from '#shared/utils/lab-schemas'
 /**
  * An editor renames a system and/or saves a new source as the next revision.
  * A source edited from an older revision than the latest is refused (409) so
- * nobody overwrites a colleague's save without seeing it.
+ * nobody overwrites a colleague's save without seeing it; the 409 carries the
+ * latest revision's text and the text sent (`data.latest`, `data.yourSource`).
  */
 export default defineEventHandler(async (event) => {
   const params = validateParams(event, SystemParams)
@@ -12,11 +13,7 @@ export default defineEventHandler(async (event) => {
   const body = await validateBody(event, SystemUpdateBody)
   const db = useDb()
   if (body.source !== undefined && body.baseRevision !== latest.number) {
-    throw createError({
-      statusCode: 409,
-      message: `Revision ${latest.number} was saved after the revision ${body.baseRevision} you edited; reload it and apply your change again`,
-      data: { latestRevision: latest.number },
-    })
+    throw staleRevisionError(latest, await authorNameOf(latest), body.baseRevision!, body.source)
   }
   if (body.title !== undefined && body.title !== system.title) {
     await db.update(tables.systems).set({ title: body.title }).where(eq(tables.systems.id, system.id))
@@ -32,10 +29,11 @@ export default defineEventHandler(async (event) => {
       source: body.source,
       authorId: user.id,
       message: body.message ?? '',
-    }).catch((error) => {
+    }).catch(async (error) => {
       // Two saves from the same base at once: the unique (system, number) index lets one win.
-      if (isDuplicateKey(error)) throw createError({ statusCode: 409, message: 'Someone saved this system at the same moment; reload it and apply your change again' })
-      throw error
+      if (!isDuplicateKey(error)) throw error
+      const winner = await findRevision(system.id, latest.number + 1)
+      throw staleRevisionError(winner, await authorNameOf(winner), latest.number, body.source!)
     })
     authorName = user.name
     await recordAudit({ actorId: user.id, labId: lab.id, action: 'system.revise', detail: { slug: system.slug, number: current.number } })

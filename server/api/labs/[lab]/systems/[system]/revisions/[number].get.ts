@@ -1,0 +1,8 @@
+/** GET /api/labs/:lab/systems/:system/revisions/:number — one revision with its text. */
+export default defineEventHandler(async (event) => {
+  const params = validateParams(event, RevisionParams)
+  const { system, latest } = await requireSystem(event, params.lab, params.system, 'viewer')
+  const revision = await findRevision(system.id, params.number)
+  const parent = revision.parentId ? (await findRevisionById(revision.parentId))?.number ?? null : null
+  return { revision: { ...revisionView(revision, await authorNameOf(revision)), parent }, latestRevision: latest.number }
+})

@@ -1,0 +1,89 @@
+/**
+ * The history of a system: each revision with its author, its latest run
+ * and the reviews it is part of, for the history page.
+ */
+import { desc, eq, inArray } from 'drizzle-orm'
+import { alias } from 'drizzle-orm/mysql-core'
+import type { Revision } from '../database/schema'
+import type { RunStatus } from './runs'
+
+export interface RevisionSummary {
+  number: number
+  parent: number | null
+  sha256: string
+  message: string
+  author: string | null
+  createdAt: string
+  /** The newest run of this revision, or null when it was never solved. */
+  run: { id: number; status: RunStatus; solverVersion: string; createdAt: string } | null
+  /** Reviews of this revision (as the newer side), newest first. */
+  reviews: { id: number; state: string; against: number; reviewer: string | null }[]
+}
+
+export async function listRevisions(systemId: number): Promise<RevisionSummary[]> {
+  const db = useDb()
+  const parent = alias(tables.revisions, 'parent')
+  const rows = await db
+    .select({ revision: tables.revisions, author: tables.users.name, parentNumber: parent.number })
+    .from(tables.revisions)
+    .leftJoin(tables.users, eq(tables.users.id, tables.revisions.authorId))
+    .leftJoin(parent, eq(parent.id, tables.revisions.parentId))
+    .where(eq(tables.revisions.systemId, systemId))
+    .orderBy(desc(tables.revisions.number))
+  const ids = rows.map(r => r.revision.id)
+  if (!ids.length) return []
+
+  const runs = await db.select({ id: tables.runs.id, revisionId: tables.runs.revisionId, status: tables.runs.status, solverVersion: tables.runs.solverVersion, createdAt: tables.runs.createdAt })
+    .from(tables.runs).where(inArray(tables.runs.revisionId, ids)).orderBy(desc(tables.runs.id))
+  const newestRun = new Map<number, RevisionSummary['run']>()
+  for (const run of runs) {
+    if (!newestRun.has(run.revisionId)) newestRun.set(run.revisionId, { id: run.id, status: run.status, solverVersion: run.solverVersion, createdAt: run.createdAt.toISOString() })
+  }
+
+  const against = alias(tables.revisions, 'against')
+  const reviews = await db
+    .select({ id: tables.reviews.id, state: tables.reviews.state, toId: tables.reviews.toRevisionId, against: against.number, reviewer: tables.users.name })
+    .from(tables.reviews)
+    .innerJoin(against, eq(against.id, tables.reviews.fromRevisionId))
+    .leftJoin(tables.users, eq(tables.users.id, tables.reviews.reviewerId))
+    .where(eq(tables.reviews.systemId, systemId))
+    .orderBy(desc(tables.reviews.id))
+  const reviewsOf = new Map<number, RevisionSummary['reviews']>()
+  for (const r of reviews) {
+    const list = reviewsOf.get(r.toId) ?? []
+    list.push({ id: r.id, state: r.state, against: r.against, reviewer: r.reviewer })
+    reviewsOf.set(r.toId, list)
+  }
+
+  return rows.map(({ revision, author, parentNumber }) => ({
+    number: revision.number,
+    parent: parentNumber ?? null,
+    sha256: revision.sha256,
+    message: revision.message,
+    author,
+    createdAt: revision.createdAt.toISOString(),
+    run: newestRun.get(revision.id) ?? null,
+    reviews: reviewsOf.get(revision.id) ?? [],
+  }))
+}
+
+/** The author's name of a revision (null when the account is gone). */
+export async function authorNameOf(revision: Revision): Promise<string | null> {
+  if (!revision.authorId) return null
+  const [row] = await useDb().select({ name: tables.users.name }).from(tables.users).where(eq(tables.users.id, revision.authorId))
+  return row?.name ?? null
+}
+
+/** The 409 answer for a save or restore edited from a revision that is no longer the latest: it carries both texts. */
+export function staleRevisionError(latest: Revision, latestAuthor: string | null, baseRevision: number, yourSource: string | null) {
+  return createError({
+    statusCode: 409,
+    message: `Revision ${latest.number} was saved after the revision ${baseRevision} you edited; compare your text with it and apply your change again`,
+    data: { latestRevision: latest.number, latest: revisionView(latest, latestAuthor), yourSource },
+  })
+}
+
+export async function findRevisionById(id: number): Promise<Revision | null> {
+  const [row] = await useDb().select().from(tables.revisions).where(eq(tables.revisions.id, id))
+  return row ?? null
+}

@@ -1,0 +1,75 @@
+// Compare: both texts, the model diff and the results diff of two revisions,
+// both solved with the current solver version and stored as runs.
+import { beforeAll, describe, expect, it } from 'vitest'
+import { useBuiltServer } from '../setup/server'
+import { api, makeLab, signUp, type SignedIn } from '../setup/accounts'
+
+await useBuiltServer()
+
+let owner: SignedIn, viewer: SignedIn, outsider: SignedIn
+let lab: string
+const system = () => `/api/labs/${lab}/systems/ammine`
+
+/** Copper and one ammine complex at a fixed free ammonia (demo values). */
+const ammine = (logBeta: string) => `system "Copper ammine at fixed free ammonia"
+temperature 25 C
+activity ideal
+component Cu^2+  total 1.0 mmol/L
+component NH3    free 1.0 mmol/L
+reaction Cu^2+ + NH3 <=> CuNH3^2+   logbeta ${logBeta}   cite "demo value"
+`
+
+beforeAll(async () => {
+  ;[owner, viewer, outsider] = await Promise.all([signUp('owner'), signUp('viewer'), signUp('outsider')])
+  lab = await makeLab(owner, [{ who: viewer, role: 'viewer' }])
+  expect((await api(`/api/labs/${lab}/systems`, { method: 'POST', cookie: owner.cookie, body: { title: 'Ammine', slug: 'ammine', source: ammine('4.0') } })).status).toBe(201)
+  expect((await api(system(), { method: 'PATCH', cookie: owner.cookie, body: { source: ammine('5.0'), baseRevision: 1, message: 'log beta up by one' } })).status).toBe(200)
+  expect((await api(system(), { method: 'PATCH', cookie: owner.cookie, body: { source: 'system "Broken"\ncomponent Cu^2+ total lots\n', baseRevision: 2 } })).status).toBe(200)
+})
+
+describe('compare', () => {
+  it('reports a raised log K in the model diff, and the complex up and the free metal down in the results diff', async () => {
+    const answer = await api(`${system()}/compare?from=1&to=2`, { cookie: viewer.cookie })
+    expect(answer.status).toBe(200)
+    expect(answer.body.from.source).toBe(ammine('4.0'))
+    expect(answer.body.to.source).toBe(ammine('5.0'))
+    expect(answer.body.problems).toEqual([])
+    expect(answer.body.modelDiff).toEqual([expect.objectContaining({ kind: 'constant', name: 'CuNH3^2+', from: 'log K 4.00', to: 'log K 5.00' })])
+    expect(answer.body.modelDiff[0].deltaLogK).toBeCloseTo(1, 9)
+    // Closed form of a 1:1 complex at fixed free ligand (mass action and mass balance, common practice):
+    // [M] = M_T / (1 + β[L]), so β from 1e4 to 1e5 at [L] = 1e-3 moves [M] by 11/101 and [ML] by (100/101)/(10/11).
+    const species = Object.fromEntries(answer.body.resultsDiff.species.map((s: any) => [s.name, s]))
+    expect(species['Cu^2+'].factor).toBeCloseTo(11 / 101, 6)
+    expect(species['CuNH3^2+'].factor).toBeCloseTo((100 / 101) / (10 / 11), 6)
+    expect(answer.body.resultsDiff.species[0].name).toBe('Cu^2+')
+  })
+
+  it('solves each revision once and reuses the stored runs of the same solver version', async () => {
+    const first = await api(`${system()}/compare?from=1&to=2`, { cookie: owner.cookie })
+    expect(first.body.solved.reused).toEqual({ from: true, to: true })
+    const runs = await api(`${system()}/runs`, { cookie: owner.cookie })
+    expect(runs.body.runs.filter((r: any) => r.revision === 1 || r.revision === 2)).toHaveLength(2)
+    expect(new Set(runs.body.runs.map((r: any) => r.solverVersion))).toEqual(new Set([first.body.solved.solverVersion]))
+    const history = await api(`${system()}/revisions`, { cookie: viewer.cookie })
+    expect(history.body.revisions.find((r: any) => r.number === 2).run.status).toBe('ok')
+  })
+
+  it('still compares the text of a revision that does not compile, and says why the diffs are missing', async () => {
+    const answer = await api(`${system()}/compare?from=2&to=3`, { cookie: viewer.cookie })
+    expect(answer.status).toBe(200)
+    expect(answer.body.to.source).toMatch(/total lots/)
+    expect(answer.body.modelDiff).toBeNull()
+    expect(answer.body.resultsDiff).toBeNull()
+    expect(answer.body.problems[0]).toMatch(/^Revision 3 cannot be solved: .*line 2/)
+  })
+
+  it('answers 400 to a query without revision numbers, 404 to a missing revision or an outsider', async () => {
+    const bad = await api(`${system()}/compare?from=one&to=2`, { cookie: viewer.cookie })
+    expect(bad.status).toBe(400)
+    expect(bad.body.message).toMatch(/^from: /)
+    expect((await api(`${system()}/compare?from=1`, { cookie: viewer.cookie })).status).toBe(400)
+    expect((await api(`${system()}/compare?from=1&to=99`, { cookie: viewer.cookie })).status).toBe(404)
+    expect((await api(`${system()}/compare?from=1&to=2`, { cookie: outsider.cookie })).status).toBe(404)
+    expect((await api(`${system()}/compare?from=1&to=2`)).status).toBe(401)
+  })
+})
