@@ -1,0 +1,26 @@
+/**
+ * GET /api/invitations/:token — what an invitation link offers (lab, role,
+ * address), for the accept page. Anyone holding the link may ask; a used or
+ * expired link answers 410 with what to do.
+ */
+import { eq } from 'drizzle-orm'
+import { z } from 'zod'
+import { LinkTokenSchema } from '#shared/utils/invitation-schemas'
+
+const Params = z.object({ token: LinkTokenSchema })
+
+export default defineEventHandler(async (event) => {
+  const { token } = validateParams(event, Params)
+  const open = await findOpenInvitation(token)
+  const [account] = await useDb().select({ id: tables.users.id }).from(tables.users)
+    .where(eq(tables.users.email, open.invitation.email))
+  return {
+    lab: { slug: open.lab.slug, name: open.lab.name },
+    email: open.invitation.email,
+    role: open.invitation.role,
+    invitedBy: open.inviterName,
+    expiresAt: open.invitation.expiresAt.toISOString(),
+    /** Whether the address already has an account (then: sign in; else: register). */
+    hasAccount: Boolean(account),
+  }
+})

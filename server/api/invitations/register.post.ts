@@ -1,0 +1,31 @@
+/**
+ * POST /api/invitations/register — create the account the invitation was
+ * sent to (its address, so the mail proved it), join the lab and sign in.
+ */
+import { eq } from 'drizzle-orm'
+import { InvitationRegisterBody } from '#shared/utils/invitation-schemas'
+
+export default defineEventHandler(async (event) => {
+  const body = await validateBody(event, InvitationRegisterBody)
+  const open = await findOpenInvitation(body.token)
+  const email = open.invitation.email
+  const db = useDb()
+  const taken = () => createError({ statusCode: 409, message: `An account with ${email} exists; sign in with it, then open the invitation link again` })
+  const [existing] = await db.select({ id: tables.users.id }).from(tables.users).where(eq(tables.users.email, email))
+  if (existing) throw taken()
+  let id: number
+  try {
+    const [inserted] = await db.insert(tables.users).values({ email, name: body.name, passwordHash: await hashPassword(body.password) }).$returningId()
+    id = inserted!.id
+  } catch (error) {
+    if (isDuplicateKey(error)) throw taken()
+    throw error
+  }
+  await recordAudit({ actorId: id, labId: null, action: 'user.register', detail: { via: 'invitation' } })
+  const role = await acceptInvitation(open, id)
+  await recordAudit({ actorId: id, labId: open.lab.id, action: 'invitation.accept', detail: { invitationId: open.invitation.id, role } })
+  const user = { id, email, name: body.name }
+  await setUserSession(event, { user, loggedInAt: Date.now() })
+  setResponseStatus(event, 201)
+  return { user: { ...user, isAdmin: false }, lab: { slug: open.lab.slug, name: open.lab.name }, role }
+})

@@ -1,0 +1,19 @@
+/** DELETE /api/labs/:lab/invitations/:id — an owner withdraws an invitation; its link stops working. */
+import { and, eq } from 'drizzle-orm'
+import { z } from 'zod'
+import { SlugSchema } from '#shared/utils/lab-schemas'
+
+const Params = z.object({
+  lab: SlugSchema,
+  id: z.coerce.number({ error: 'Invitation must be a number' }).int().positive({ error: 'Invitation must be a positive number' }),
+})
+
+export default defineEventHandler(async (event) => {
+  const params = validateParams(event, Params)
+  const { lab, user } = await requireLabRole(event, params.lab, 'owner')
+  const [result] = await useDb().delete(tables.invitations)
+    .where(and(eq(tables.invitations.id, params.id), eq(tables.invitations.labId, lab.id)))
+  if (result.affectedRows !== 1) throw createError({ statusCode: 404, message: 'No such invitation in this lab' })
+  await recordAudit({ actorId: user.id, labId: lab.id, action: 'invitation.withdraw', detail: { invitationId: params.id } })
+  return { withdrawn: true }
+})

@@ -1,0 +1,70 @@
+// Password reset by mail: the link sets a new password once; the request
+// answers the same for addresses with and without an account.
+import { describe, expect, it } from 'vitest'
+import { useBuiltServer } from '../setup/server'
+import { api, freshEmail, signIn, signInAs, signUp } from '../setup/accounts'
+import { capturedMail, linkTo, waitForMail } from '../setup/mail'
+
+await useBuiltServer()
+
+function tokenOf(link: string): string {
+  return new URL(link, 'http://x').searchParams.get('token') ?? ''
+}
+
+describe('password reset', () => {
+  it('mails a link that sets a new password once', async () => {
+    const me = await signUp('forgetful')
+    const asked = await api('/api/auth/password/forgot', { method: 'POST', body: { email: me.user.email.toUpperCase() } })
+    expect(asked.status).toBe(202)
+    const mail = await waitForMail(me.user.email, /new password/)
+    const link = linkTo(mail, '/password/reset')
+    expect((await api(link)).status).toBe(200)
+
+    const reset = await api('/api/auth/password/reset', { method: 'POST', body: { token: tokenOf(link), password: 'a brand new passphrase' } })
+    expect(reset.status).toBe(200)
+    await expect(signIn(me.user.email, 'a brand new passphrase')).resolves.toMatchObject({ user: { email: me.user.email } })
+    const old = await api('/api/auth/login', { method: 'POST', body: { email: me.user.email, password: me.password } })
+    expect(old.status).toBe(401)
+
+    const again = await api('/api/auth/password/reset', { method: 'POST', body: { token: tokenOf(link), password: 'someone elses passphrase' } })
+    expect(again.status).toBe(410)
+    expect(again.body.message).toMatch(/expired or was already used; ask for a new one/)
+  })
+
+  it('gives an unknown address the same answer and sends it nothing', async () => {
+    const known = await signUp('known')
+    const stranger = freshEmail('stranger')
+    const forKnown = await api('/api/auth/password/forgot', { method: 'POST', body: { email: known.user.email } })
+    const forStranger = await api('/api/auth/password/forgot', { method: 'POST', body: { email: stranger } })
+    expect(forStranger.status).toBe(forKnown.status)
+    expect(forStranger.body).toEqual(forKnown.body)
+    await waitForMail(known.user.email, /new password/)
+    expect(capturedMail().some((m) => m.to.includes(stranger))).toBe(false)
+  })
+
+  it('refuses a made-up token and a short password with messages saying what to do', async () => {
+    const madeUp = await api('/api/auth/password/reset', { method: 'POST', body: { token: 'A'.repeat(43), password: 'a long enough password' } })
+    expect(madeUp.status).toBe(404)
+    expect(madeUp.body.message).toMatch(/not valid/)
+    const truncated = await api('/api/auth/password/reset', { method: 'POST', body: { token: 'abc', password: 'a long enough password' } })
+    expect(truncated.status).toBe(400)
+    expect(truncated.body.message).toMatch(/open the whole link/)
+    const short = await api('/api/auth/password/reset', { method: 'POST', body: { token: 'A'.repeat(43), password: 'short' } })
+    expect(short.status).toBe(400)
+    expect(short.body.data.issues).toContainEqual(expect.objectContaining({ path: 'password' }))
+  })
+})
+
+describe('captured mail page', () => {
+  it('lists captured mail for a site administrator and is not found for anyone else', async () => {
+    const me = await signUp('reader')
+    await api('/api/auth/password/forgot', { method: 'POST', body: { email: me.user.email } })
+    await waitForMail(me.user.email, /new password/)
+    const admin = await signInAs('admin')
+    const list = await api('/api/admin/mail', { cookie: admin.cookie })
+    expect(list.status).toBe(200)
+    expect(list.body.messages).toContainEqual(expect.objectContaining({ to: [me.user.email], subject: 'Choose a new password for Equipoise' }))
+    expect((await api('/api/admin/mail', { cookie: me.cookie })).status).toBe(404)
+    expect((await api('/api/admin/mail')).status).toBe(401)
+  })
+})
