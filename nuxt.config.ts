@@ -38,5 +38,9 @@ export default defineNuxtConfig({
   // The examples travel with the built server (read with useStorage('assets:examples')).
   // Nitro resolves the folder from server/, hence the '..'.
   nitro: { serverAssets: [{ baseName: 'examples', dir: '../examples' }] },
+  // shared/ is external to the Vite server build and bundled by Nitro. Components import it by
+  // relative path (so they also run in plain vitest); rendered relative, those imports point
+  // nowhere, so keep them absolute for Nitro to resolve.
+  vite: { build: { rollupOptions: { makeAbsoluteExternalsRelative: false } } },
   typescript: { strict: true },
 })
