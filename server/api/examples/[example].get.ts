@@ -1,0 +1,55 @@
+/**
+ * GET /api/examples/:example — one example system by its address (the file
+ * name without `.poise`). The files are Nitro server assets, so the built
+ * server has them without the source tree.
+ */
+import { z } from 'zod'
+
+export interface ExampleView {
+  slug: string
+  title: string
+  /** The opening comment lines, joined: what the example is about. */
+  summary: string
+  source: string
+}
+
+const Params = z.object({ example: z.string().regex(/^[a-z0-9-]+$/, { error: 'Name an example by its address, e.g. copper-rinse-tank' }) })
+
+function asText(raw: unknown): string {
+  if (typeof raw === 'string') return raw
+  if (raw instanceof Uint8Array) return new TextDecoder().decode(raw)
+  return ''
+}
+
+function describe(slug: string, source: string): ExampleView {
+  const title = /^\s*system\s+"([^"]+)"/m.exec(source)?.[1] ?? slug
+  const lines = source.split(/\r?\n/)
+  const start = lines.findIndex((line) => line.trim().startsWith('#'))
+  const comment: string[] = []
+  for (let i = start; i >= 0 && i < lines.length && lines[i]!.trim().startsWith('#'); i++) {
+    const text = lines[i]!.trim().replace(/^#\s?/, '')
+    // The constants' provenance is for the file, not for choosing an example.
+    if (/^constants\b/i.test(text)) break
+    if (text) comment.push(text)
+  }
+  return { slug, title, summary: comment.join(' '), source }
+}
+
+export async function readExamples(): Promise<ExampleView[]> {
+  const storage = useStorage('assets:examples')
+  const keys = (await storage.getKeys()).filter((key) => key.endsWith('.poise')).sort()
+  const examples: ExampleView[] = []
+  for (const key of keys) {
+    const source = asText(await storage.getItemRaw(key))
+    if (source) examples.push(describe(key.replace(/\.poise$/, ''), source))
+  }
+  return examples
+}
+
+export default defineEventHandler(async (event) => {
+  await requireUser(event)
+  const { example } = validateParams(event, Params)
+  const found = (await readExamples()).find((e) => e.slug === example)
+  if (!found) throw createError({ statusCode: 404, message: `There is no example called "${example}"` })
+  return found
+})

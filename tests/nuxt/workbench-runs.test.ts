@@ -1,0 +1,116 @@
+// Stored runs of saved revisions, who may make and read them, and the
+// examples a new system can start from.
+import { beforeAll, describe, expect, it } from 'vitest'
+import { useBuiltServer } from '../setup/server'
+import { api, makeLab, signUp, type SignedIn } from '../setup/accounts'
+
+await useBuiltServer()
+
+let owner: SignedIn, editor: SignedIn, viewer: SignedIn, outsider: SignedIn
+let lab: string
+const system = (path = '') => `/api/labs/${lab}/systems/strong-acid${path}`
+
+// 1 mmol/L HCl: fully dissociated, so pH = −log10(1e-3) = 3.00 (strong acid, common practice).
+const strongAcid = `system "Pickling rinse"
+activity ideal
+component H+ total 1 mmol/L
+component Cl- total 1 mmol/L
+reaction H2O <=> H+ + OH- pKw 14.00 cite "water, 25 C (from memory)"
+`
+
+beforeAll(async () => {
+  ;[owner, editor, viewer, outsider] = await Promise.all([signUp('owner'), signUp('editor'), signUp('viewer'), signUp('outsider')])
+  lab = await makeLab(owner, [{ who: editor, role: 'editor' }, { who: viewer, role: 'viewer' }])
+  const created = await api(`/api/labs/${lab}/systems`, { method: 'POST', cookie: editor.cookie, body: { title: 'Pickling rinse', slug: 'strong-acid', source: strongAcid } })
+  expect(created.status).toBe(201)
+})
+
+describe('runs', () => {
+  it('lets a viewer run the saved revision and keeps the run with its result', async () => {
+    const made = await api(system('/runs'), { method: 'POST', cookie: viewer.cookie, body: {} })
+    expect(made.status).toBe(201)
+    expect(made.body).toMatchObject({ revision: 1, status: 'ok', kind: 'single', createdBy: viewer.user.name })
+    expect(made.body.result.pH).toBeCloseTo(3, 3)
+
+    const list = await api(system('/runs'), { cookie: editor.cookie })
+    expect(list.status).toBe(200)
+    expect(list.body.runs[0]).toMatchObject({ id: made.body.id, revision: 1 })
+    expect(list.body.runs[0].result).toBeUndefined()
+
+    const one = await api(system(`/runs/${made.body.id}`), { cookie: owner.cookie })
+    expect(one.status).toBe(200)
+    expect(one.body.result).toEqual(made.body.result)
+  })
+
+  it('runs an older revision when asked, and lists runs newest first', async () => {
+    const saved = await api(system(), { method: 'PATCH', cookie: editor.cookie, body: { source: strongAcid.replace(/1 mmol\/L/g, '10 mmol/L'), message: 'ten times stronger', baseRevision: 1 } })
+    expect(saved.status).toBe(200)
+    expect(saved.body.system.latest.number).toBe(2)
+    const latest = await api(system('/runs'), { method: 'POST', cookie: editor.cookie, body: {} })
+    expect(latest.body.revision).toBe(2)
+    expect(latest.body.result.pH).toBeCloseTo(2, 3)
+    const older = await api(system('/runs'), { method: 'POST', cookie: editor.cookie, body: { revision: 1 } })
+    expect(older.status).toBe(201)
+    expect(older.body.revision).toBe(1)
+    expect(older.body.result.pH).toBeCloseTo(3, 3)
+    const list = await api(system('/runs'), { cookie: viewer.cookie })
+    expect(list.body.runs.slice(0, 2).map((r: { id: number }) => r.id)).toEqual([older.body.id, latest.body.id])
+    expect((await api(system('/runs'), { method: 'POST', cookie: editor.cookie, body: { revision: 99 } })).status).toBe(404)
+  })
+
+  it('refuses a viewer the save (403) and keeps the revision', async () => {
+    const refused = await api(system(), { method: 'PATCH', cookie: viewer.cookie, body: { source: '# mine', baseRevision: 2 } })
+    expect(refused.status).toBe(403)
+    expect((await api(system(), { cookie: viewer.cookie })).body.system.latest.number).toBe(2)
+  })
+
+  it('refuses a save from a stale revision with 409 naming the latest', async () => {
+    const stale = await api(system(), { method: 'PATCH', cookie: owner.cookie, body: { source: strongAcid, baseRevision: 1 } })
+    expect(stale.status).toBe(409)
+    expect(stale.body.data.latestRevision).toBe(2)
+  })
+
+  it('answers 422 with the diagnostics when the saved text does not compile', async () => {
+    const created = await api(`/api/labs/${lab}/systems`, { method: 'POST', cookie: editor.cookie, body: { title: 'Broken', slug: 'broken', source: 'system "Broken"\ncomponent H+ balance\nreaction H2O <=> H+ pKw 14\n' } })
+    expect(created.status).toBe(201)
+    const run = await api(`/api/labs/${lab}/systems/broken/runs`, { method: 'POST', cookie: viewer.cookie, body: {} })
+    expect(run.status).toBe(422)
+    expect(run.body.data.diagnostics.some((d: { severity: string, range: { line: number } }) => d.severity === 'error' && d.range.line === 3)).toBe(true)
+    expect((await api(`/api/labs/${lab}/systems/broken/runs`, { cookie: viewer.cookie })).body.runs).toEqual([])
+  })
+
+  it('answers 404 to non-members and 401 to anonymous visitors', async () => {
+    const { body } = await api(system('/runs'), { cookie: owner.cookie })
+    const id = body.runs[0].id
+    expect((await api(system('/runs'), { cookie: outsider.cookie })).status).toBe(404)
+    expect((await api(system('/runs'), { method: 'POST', cookie: outsider.cookie, body: {} })).status).toBe(404)
+    expect((await api(system(`/runs/${id}`), { cookie: outsider.cookie })).status).toBe(404)
+    expect((await api(system('/runs'))).status).toBe(401)
+    expect((await api(system(`/runs/${id + 1000}`), { cookie: owner.cookie })).status).toBe(404)
+  })
+})
+
+describe('examples', () => {
+  it('lists the shipped examples with titles and summaries, from the built server', async () => {
+    const list = await api('/api/examples', { cookie: viewer.cookie })
+    expect(list.status).toBe(200)
+    const slugs = list.body.examples.map((e: { slug: string }) => e.slug)
+    expect(slugs).toContain('copper-rinse-tank')
+    expect(slugs).toContain('phosphate-buffer-recipe')
+    const copper = list.body.examples.find((e: { slug: string }) => e.slug === 'copper-rinse-tank')
+    expect(copper.title).toBe('Rinse tank after a copper ammonia etch')
+    expect(copper.source).toMatch(/^system "Rinse tank after a copper ammonia etch"/)
+    expect(copper.summary).not.toMatch(/^Constants/)
+  })
+
+  it('reads one example, and says when there is no such example', async () => {
+    const one = await api('/api/examples/zinc-sulfide-dosing', { cookie: viewer.cookie })
+    expect(one.status).toBe(200)
+    expect(one.body.source).toContain('sweep pH')
+    expect(one.body.summary).toMatch(/^Sodium hydrosulfide is dosed/)
+    const missing = await api('/api/examples/no-such-thing', { cookie: viewer.cookie })
+    expect(missing.status).toBe(404)
+    expect(missing.body.message).toBe('There is no example called "no-such-thing"')
+    expect((await api('/api/examples')).status).toBe(401)
+  })
+})
