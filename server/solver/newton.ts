@@ -7,7 +7,8 @@
  * activities as unknowns keep the free forms still while u moves, which is
  * what makes the joint Newton step safe at high ionic strength.
  */
-import { LuDecomposition } from 'ml-matrix'
+import { LuDecomposition, Matrix, SingularValueDecomposition } from 'ml-matrix'
+import { MODE_TOTAL } from './problem'
 import { assembleJacobian, computeResiduals, computeSpecies } from './equations'
 import type { Limits, NewtonOutcome, SolverState, Workspace } from './workspace'
 
@@ -44,17 +45,45 @@ function meritOf(ws: Workspace, F: Float64Array, scale: Float64Array): number {
 function applyStep(ws: Workspace, state: SolverState, u0: number, t: number): number {
   const nr = ws.nUnknownComponents
   for (let r = 0; r < nr; r++) { const j = ws.rowComponent[r]; state.y[j] = ws.y0[j] + t * ws.delta[r] }
-  for (let a = 0; a < ws.nActive; a++) { const s = ws.rowSolid[a]; state.n[s] = ws.n0[s] + t * ws.delta[nr + a] }
+  // A solid cannot hold more of a component than its total: without this
+  // bound a first step can overshoot and leave the free forms nowhere to go.
+  for (let a = 0; a < ws.nActive; a++) {
+    const s = ws.rowSolid[a]
+    state.n[s] = Math.min(ws.n0[s] + t * ws.delta[nr + a], ws.maxAmount[a])
+  }
   // √I may shrink tenfold at most in one step: it must stay positive.
   return ws.hasU ? Math.max(0.1 * u0, u0 + t * ws.delta[nr + ws.nActive]) : u0
 }
 
 /**
- * Solves J·delta = −F/scale; false when J is singular. Without solids a
- * singular J only means one species swamps the others (rows in proportion),
- * so a small diagonal shift (Levenberg–Marquardt) still gives a descent
- * direction; with solids it is reported, because it means dependent
- * saturation equations, which the phase loop resolves.
+ * Whether the present solids are dependent by stoichiometry alone: their
+ * saturation equations over the unknown activities, or their amounts in the
+ * mass balances, are linear combinations of each other (rank below their
+ * number). Then no point satisfies them all and the phase loop must swap.
+ */
+function solidsDependent(ws: Workspace): boolean {
+  const p = ws.p
+  const na = ws.nActive
+  const nr = ws.nUnknownComponents
+  const saturation = new Matrix(na, Math.max(nr, 1))
+  const amounts = new Matrix(na, Math.max(nr, 1))
+  for (let a = 0; a < na; a++) {
+    const s = ws.rowSolid[a]
+    for (let r = 0; r < nr; r++) {
+      const j = ws.rowComponent[r]
+      const v = p.solidNu[s * p.nc + j]
+      saturation.set(a, r, v)
+      if (p.mode[j] === MODE_TOTAL) amounts.set(a, r, v)
+    }
+  }
+  return new SingularValueDecomposition(saturation).rank < na || new SingularValueDecomposition(amounts).rank < na
+}
+
+/**
+ * Solves J·delta = −F/scale; false when J is singular because the present
+ * solids are dependent (the phase loop resolves that). Any other singular J
+ * only means one species swamps the others (rows in proportion), and a small
+ * diagonal shift (Levenberg–Marquardt) still gives a descent direction.
  */
 function newtonDirection(ws: Workspace, state: SolverState): boolean {
   const dim = ws.dim
@@ -64,7 +93,7 @@ function newtonDirection(ws: Workspace, state: SolverState): boolean {
   for (let r = 0; r < dim; r++) b.set(r, 0, -ws.F[r] / ws.scale[r])
   let lu = new LuDecomposition(J)
   if (lu.isSingular()) {
-    if (ws.nActive > 0) return false
+    if (ws.nActive > 0 && solidsDependent(ws)) return false
     let biggest = 0
     for (let r = 0; r < dim; r++) for (let k = 0; k < dim; k++) biggest = Math.max(biggest, Math.abs(J.get(r, k)))
     const shift = Math.max(biggest, 1) * 1e-8

@@ -50,6 +50,8 @@ export class Workspace {
   worstMax = 0
   worstRow = 0
   readonly rowSolid: Int32Array
+  /** Most of each present solid its components' totals allow (mol/L), by row. */
+  readonly maxAmount: Float64Array
   readonly F: Float64Array
   readonly scale: Float64Array
   readonly Ftrial: Float64Array
@@ -77,6 +79,7 @@ export class Workspace {
     this.rowComponent = new Int32Array(p.nc)
     this.rowOfComponent = new Int32Array(p.nc)
     this.rowSolid = new Int32Array(p.nsol)
+    this.maxAmount = new Float64Array(p.nsol)
     this.F = new Float64Array(rows)
     this.scale = new Float64Array(rows)
     this.Ftrial = new Float64Array(rows)
@@ -106,6 +109,15 @@ export class Workspace {
     let a = 0
     for (let s = 0; s < p.nsol; s++) if (state.active[s]) this.rowSolid[a++] = s
     this.nActive = a
+    for (let k = 0; k < a; k++) {
+      const s = this.rowSolid[k]
+      let most = Infinity
+      for (let j = 0; j < p.nc; j++) {
+        const v = p.solidNu[s * p.nc + j]
+        if (p.mode[j] === MODE_TOTAL && v > 0) most = Math.min(most, Math.max(p.total[j], 0) / v)
+      }
+      this.maxAmount[k] = most
+    }
     this.hasU = p.activity !== 0 && p.fixedRootI < 0
     this.dim = r + a + (this.hasU ? 1 : 0)
   }
