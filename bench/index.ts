@@ -41,6 +41,14 @@ function compiled(source: string): Model {
   return out.model
 }
 
+/** ns per Math.exp call in a tight loop: shows how loaded the shared machine is during the run. */
+function machineCheckNs(): number {
+  let acc = 0
+  const n = 2_000_000
+  const ms = timeMs(() => { for (let k = 0; k < n; k++) acc += Math.exp(-(k & 63) * 0.1) }, 5, 1)
+  return acc > 0 ? (ms * 1e6) / n : 0
+}
+
 function main(json: boolean): void {
   const longSource = twoHundredLineSource()
   const compileMs = timeMs(() => { compile(longSource) }, 40)
@@ -93,6 +101,7 @@ function main(json: boolean): void {
   const row = (name: string, value: string, target: string, ok: boolean) =>
     `${name.padEnd(44)} ${value.padStart(12)}   target ${target.padEnd(9)} ${ok ? 'met' : 'MISSED'}`
   console.log(`Equipoise solver ${SOLVER_VERSION} benchmark (medians; Node ${process.version})`)
+  console.log(`machine check: ${machineCheckNs().toFixed(1)} ns per Math.exp in a tight loop (lower is a quieter machine)`)
   console.log(`system: ${model.components.length} components, ${model.species.length} species, ${model.solids.length} solids (${cold.solids.filter((s) => s.present).length} present), cold solve ${cold.iterations} iterations`)
   console.log(row('compile a 200-line file', `${compileMs.toFixed(2)} ms`, '< 5 ms', compileMs < 5))
   console.log(row('one solve, cold start', `${solveColdUs.toFixed(0)} µs`, '< 1000 µs', solveColdUs < 1000))
