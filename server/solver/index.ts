@@ -18,7 +18,12 @@ export const SOLVER_VERSION = '1.0.0'
 export const SOLVER_LIMITS = { maxIterations: 2000, timeBudgetMs: 60_000 } as const
 
 export interface SolveOptions {
-  /** Newton iterations allowed for one solve, all solid sets together (default 300). */
+  /**
+   * Newton iterations allowed for one attempt, all solid sets together
+   * (default 300). A solve makes at most 11 attempts (two warm starts at a
+   * sweep point, three cold guesses of pH, six stages of activity
+   * continuation), so it never runs more than 11 × this many iterations.
+   */
   maxIterations?: number
   /** Wall-clock budget in ms for this call (a whole sweep for `sweep`); default 10 s. */
   timeBudgetMs?: number

@@ -79,7 +79,8 @@ describe('random systems', () => {
       const model = toModel(spec)
       const r = solve(model, { maxIterations: 400 })
       expect(hasNonFinite(r)).toBe(false)
-      expect(r.iterations).toBeLessThanOrEqual(400 * 4)
+      // Bounded work: at most 11 attempts of 400 iterations each (SolveOptions).
+      expect(r.iterations).toBeLessThanOrEqual(400 * 11)
       if (!r.converged) {
         expect(r.reason).toMatch(/\w/)
         return
