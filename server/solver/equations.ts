@@ -19,6 +19,8 @@ export function computeSpecies(ws: Workspace, state: SolverState): void {
   const p = ws.p
   const { nc, nsp, logK } = p
   const x = state.x
+  ws.evaluatedY.set(state.y)
+  ws.evaluatedU = state.u
   const uu = p.fixedRootI >= 0 ? p.fixedRootI : state.u
   for (let i = 0; i < nsp; i++) {
     const ba = p.B * p.ionSize[i]
@@ -54,6 +56,13 @@ export function computeSpecies(ws: Workspace, state: SolverState): void {
     ws.c[i] = Math.exp(l * Math.LN10)
     ws.dlc[i] = d
   }
+}
+
+/** Whether the species in ws were computed at this state (same unknowns, same problem since). */
+export function speciesAreOf(ws: Workspace, state: SolverState): boolean {
+  if (ws.evaluatedU !== state.u) return false
+  for (let j = 0; j < state.y.length; j++) if (ws.evaluatedY[j] !== state.y[j]) return false
+  return true
 }
 
 /** Residuals F and their natural scales at the species last computed, for the current layout. */

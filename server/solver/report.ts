@@ -5,7 +5,7 @@
  */
 import type { ComponentResult, GasResult, Result, SolidResult, SpeciesResult } from '../../shared/types/result'
 import { ACTIVITY_RANGE_LIMIT } from './activity'
-import { computeResiduals, computeSpecies } from './equations'
+import { computeResiduals, computeSpecies, speciesAreOf } from './equations'
 import type { SolverState, Workspace } from './workspace'
 import { saturationIndex } from './phases'
 import { MODE_FIXED_ACTIVITY } from './problem'
@@ -24,7 +24,8 @@ export function buildResult(ws: Workspace, state: SolverState, info: ReportInput
   const p = ws.p
   const m = p.model
   ws.layout(state)
-  computeSpecies(ws, state)
+  // The problem does not change between the last Newton evaluation and here.
+  if (!speciesAreOf(ws, state)) computeSpecies(ws, state)
   computeResiduals(ws, state, ws.F, ws.scale)
   const equations: { name: string; scaled: number }[] = []
   let maxScaled = 0

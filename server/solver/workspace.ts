@@ -50,6 +50,9 @@ export class Workspace {
   worstMax = 0
   worstRow = 0
   readonly rowSolid: Int32Array
+  /** The unknowns at the last computeSpecies, to skip a repeat evaluation. */
+  readonly evaluatedY: Float64Array
+  evaluatedU = NaN
   /** Most of each present solid its components' totals allow (mol/L), by row. */
   readonly maxAmount: Float64Array
   readonly F: Float64Array
@@ -79,6 +82,7 @@ export class Workspace {
     this.rowComponent = new Int32Array(p.nc)
     this.rowOfComponent = new Int32Array(p.nc)
     this.rowSolid = new Int32Array(p.nsol)
+    this.evaluatedY = new Float64Array(p.nc)
     this.maxAmount = new Float64Array(p.nsol)
     this.F = new Float64Array(rows)
     this.scale = new Float64Array(rows)
