@@ -1,7 +1,8 @@
 /**
  * POST /api/labs/:lab/systems/:system/runs — solve a saved revision (the
  * latest unless `revision` is given) and store the run. Viewers may run: a
- * run does not change the system.
+ * run does not change the system. Libraries named by `use` resolve within the
+ * lab, and the run records which revision of each it used.
  */
 import { z } from 'zod'
 
@@ -13,7 +14,7 @@ export default defineEventHandler(async (event) => {
   const access = await requireSystem(event, lab, system, 'viewer')
   const { revision: number } = await validateBody(event, Body)
   const revision = number === undefined || number === access.latest.number ? access.latest : await findRevision(access.system.id, number)
-  const { model } = compileForSolve(revision.source)
+  const { model } = compileForSolve(revision.source, { resolveLibrary: await libraryResolverFor(access.lab.id, revision.source) })
   const output = await solveInPool(model)
   const run = await storeRun(revision, access.user.id, output, model.libraries)
   setResponseStatus(event, 201)
