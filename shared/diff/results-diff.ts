@@ -114,7 +114,9 @@ export function diffResults(a: SolvedAnswer, b: SolvedAnswer): ResultsDiff {
     : [{ from: isSweep(a) ? a.points[0]! : a, to: isSweep(b) ? b.points[0]! : b, at: null }]
   const withPoints = points.filter(p => p.from && p.to)
 
-  const pH = largest(withPoints.map(p => ({ from: p.from.pH, to: p.to.pH, change: p.to.pH - p.from.pH, at: p.at })), c => Math.abs(c.change))
+  // A model without H+ has no pH to compare (the solver reports one anyway).
+  const withProton = withPoints.filter(p => speciesAt(p.from, 'H+') !== null && speciesAt(p.to, 'H+') !== null)
+  const pH = largest(withProton.map(p => ({ from: p.from.pH, to: p.to.pH, change: p.to.pH - p.from.pH, at: p.at })), c => Math.abs(c.change))
   const ionicStrength = largest(
     withPoints.map(p => ({ from: p.from.ionicStrength, to: p.to.ionicStrength, change: Math.max(p.to.ionicStrength, NEGLIGIBLE) / Math.max(p.from.ionicStrength, NEGLIGIBLE), at: p.at })),
     c => Math.abs(Math.log10(c.change)),

@@ -39,6 +39,10 @@ describe('results diff of a raised formation constant', () => {
     expect(diff.ionicStrength!.change).toBeCloseTo(1, 9)
     expect(diff.solids).toEqual([])
   })
+
+  it('reports no pH for a system without H+ (the number the solver reports there means nothing)', () => {
+    expect(diff.pH).toBeNull()
+  })
 })
 
 describe('results diff of sweeps', () => {
@@ -63,6 +67,8 @@ sweep pH from 4 to 9 step 1`
     expect(diff.kind).toBe('sweep')
     expect(diff.solids).toEqual([{ name: 'Cu(OH)2(s)', change: 'appears', at: supersaturated }])
     expect(diff.species.find(s => s.name === 'Cu^2+')!.factor).toBeLessThan(1)
+    // A pH sweep holds H+ at each value, so the pH itself cannot move.
+    expect(diff.pH!.change).toBeCloseTo(0, 9)
   })
 
   function point(pH: number, copper: number): Result {
