@@ -1,0 +1,84 @@
+// In the browser: a newcomer follows the invitation link from the captured
+// mail, creates the account there and lands in the lab; a used link shows
+// why it no longer works; a forgotten password is reset from its mail link;
+// the administrator reads the captured mail; a library page lists its users.
+import { describe, expect, it } from 'vitest'
+import { useBuiltServer } from '../setup/server'
+import { api, freshEmail, makeLab, signIn, signInAs, signUp } from '../setup/accounts'
+import { openPage, openSignedIn, screenshot } from '../setup/browser'
+import { linkTo, waitForMail } from '../setup/mail'
+
+await useBuiltServer()
+
+describe('mail links in the browser', () => {
+  it('joins a lab from the invitation link by creating the account, and refuses the link the second time', async () => {
+    const owner = await signUp('owner')
+    const lab = await makeLab(owner)
+    const email = freshEmail('newcomer')
+    const invited = await api(`/api/labs/${lab}/invitations`, { method: 'POST', cookie: owner.cookie, body: { email, role: 'editor' } })
+    expect(invited.status).toBe(201)
+    const link = linkTo(await waitForMail(email, /invites you to/), '/invitations/accept')
+
+    const page = await openPage(link)
+    await page.getByText(`invites ${email} to join`).waitFor()
+    await page.getByLabel('Name').fill('Nora Newcomer')
+    await page.getByLabel('Password').fill('a long enough password')
+    await screenshot(page, 'invitation-register')
+    await page.getByRole('button', { name: 'Create account and join' }).click()
+    await page.waitForURL(`**/labs/${lab}`)
+    await page.getByRole('heading', { name: `Lab ${lab}` }).waitFor()
+    expect(await page.getByText('You are editor').isVisible()).toBe(true)
+
+    const again = await openPage(link)
+    const refusal = again.locator('[data-test="invitation-refused"]')
+    await refusal.waitFor()
+    expect(await refusal.textContent()).toMatch(/already used .* works once/)
+    await screenshot(again, 'invitation-used')
+  })
+
+  it('sets a new password from the reset mail', async () => {
+    const me = await signUp('forgetful')
+    const forgot = await openPage('/password/forgot')
+    await forgot.getByLabel('E-mail').fill(me.user.email)
+    await forgot.getByRole('button', { name: 'Send the link' }).click()
+    await forgot.getByRole('status').waitFor()
+    expect(await forgot.getByRole('status').textContent()).toMatch(/If an account uses this address/)
+
+    const link = linkTo(await waitForMail(me.user.email, /new password/), '/password/reset')
+    const reset = await openPage(link)
+    await reset.getByLabel('New password').fill('a fresh long passphrase')
+    await reset.getByRole('button', { name: 'Save the new password' }).click()
+    await reset.getByText('Your password is changed.').waitFor()
+    await expect(signIn(me.user.email, 'a fresh long passphrase')).resolves.toBeTruthy()
+  })
+
+  it('shows captured mail to the administrator, with the link to follow', async () => {
+    const me = await signUp('reader')
+    await api('/api/auth/password/forgot', { method: 'POST', body: { email: me.user.email } })
+    await waitForMail(me.user.email, /new password/)
+    const admin = await signInAs('admin')
+    const page = await openSignedIn('/admin/mail', admin.cookie)
+    const item = page.locator('[data-test="captured-mail"] li', { hasText: `to ${me.user.email}` }).first()
+    await item.getByRole('button').click()
+    expect(await item.getByRole('link').first().getAttribute('href')).toMatch(/\/password\/reset\?token=/)
+    await screenshot(page, 'admin-mail')
+
+    const other = await openSignedIn('/admin/mail', me.cookie)
+    await other.getByRole('heading', { name: 'Nothing here' }).waitFor()
+  })
+
+  it("lists on a library's page the systems that use it and the revision they ask for", async () => {
+    const owner = await signUp('owner')
+    const lab = await makeLab(owner)
+    const library = 'system "Water"\ncomponent H+ balance\nreaction H2O <=> H+ + OH- pKw 14 cite "water (from memory)"\n'
+    await api(`/api/labs/${lab}/systems`, { method: 'POST', cookie: owner.cookie, body: { title: 'Water constants', slug: 'water', source: library } })
+    await api(`/api/labs/${lab}/systems/water/library`, { method: 'PUT', cookie: owner.cookie, body: { isLibrary: true } })
+    await api(`/api/labs/${lab}/systems`, { method: 'POST', cookie: owner.cookie, body: { title: 'Rinse water', slug: 'rinse', source: 'system "Rinse"\ncomponent H+ balance\nuse "water" @ 1\n' } })
+
+    const page = await openSignedIn(`/labs/${lab}/libraries/water`, owner.cookie)
+    const row = page.locator('[data-test="library-users"] tr', { hasText: 'Rinse water' })
+    await row.waitFor()
+    expect(await row.textContent()).toContain('revision 1')
+    await screenshot(page, 'library-page')
+  })
+})
