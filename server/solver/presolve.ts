@@ -6,7 +6,7 @@ import { MODE_BALANCE, MODE_TOTAL } from './problem'
 import type { SolverState, Workspace } from './workspace'
 
 /** Passes of the starting-point correction below. */
-const PRESOLVE_PASSES = 12
+const PRESOLVE_PASSES = 30
 
 /**
  * Brings a cold guess near the balances before Newton: each total
@@ -67,7 +67,7 @@ function balanceStep(ws: Workspace, state: SolverState): boolean {
 }
 
 /** Largest change of the balance component in one presolve pass. */
-const MAX_BALANCE_PRESTEP = 2
+const MAX_BALANCE_PRESTEP = 1
 
 /** Largest change of one log10 c in one presolve pass. */
 const MAX_PRESOLVE_STEP = 10
