@@ -64,6 +64,9 @@ describe('review in the browser', () => {
     const comments = theirs.getByTestId('review-comments')
     await comments.waitFor()
     await expect(comments.textContent()).resolves.toMatch(/r2 line 6.*Which compilation gives 5\.0\?/)
+    // The commented line carries a dot in the newer side's gutter, and only there.
+    await theirs.locator('.cm-merge-b .cm-comment-marker').waitFor()
+    await expect(theirs.locator('.cm-merge-a .cm-comment-marker').count()).resolves.toBe(0)
     await theirs.getByLabel('Note to the author').fill('Fine once the source is named.')
     await theirs.getByRole('button', { name: 'Approve' }).click()
     await theirs.getByRole('status').filter({ hasText: 'approved' }).waitFor()
