@@ -1,0 +1,294 @@
+/**
+ * The workbench of one system: the saved revision, the text being edited,
+ * the run on show and what went wrong with the last save or run.
+ *
+ * A run is one of two things, and the page always says which:
+ * - a stored run — the saved revision solved by the server and kept with it
+ *   (POST …/runs); chosen when the text in the editor is the saved text;
+ * - a preview — the unsaved text solved by POST /api/solve and kept nowhere;
+ *   chosen when there are unsaved edits.
+ * A viewer cannot edit, so a viewer's runs are always stored runs.
+ */
+import { defineStore } from 'pinia'
+import { computed, ref, shallowRef } from 'vue'
+import { compile } from '../shared/poise/index'
+import type { Diagnostic } from '../shared/poise/diagnostics'
+import type { Model } from '../shared/poise/model'
+import type { Result, SweepResult } from '../shared/types/result'
+import { labRoleAtLeast, type LabRole } from '../shared/utils/roles'
+
+export interface SavedRevision {
+  number: number
+  sha256: string
+  source: string
+  message: string
+  author: string | null
+  createdAt: string
+}
+
+/** GET /api/labs/:lab/systems/:system */
+export interface SystemAnswer {
+  lab: { slug: string; name: string }
+  role: LabRole
+  system: { slug: string; title: string; isLibrary: boolean; latest: SavedRevision }
+}
+
+/** A run as the runs routes return it (`result` only from the single-run routes). */
+export interface StoredRun {
+  id: number
+  revision: number
+  status: 'ok' | 'failed' | 'diverged'
+  kind: 'single' | 'sweep'
+  solverVersion: string
+  timingMs: number
+  createdAt: string
+  createdBy: string | null
+  failedPoints: number
+  result?: Result | SweepResult
+}
+
+/** POST /api/solve */
+export interface PreviewAnswer {
+  kind: 'single' | 'sweep'
+  solverVersion: string
+  elapsedMs: number
+  diagnostics: Diagnostic[]
+  result: Result | SweepResult
+}
+
+interface ShownBase {
+  kind: 'single' | 'sweep'
+  /** The text that was solved, so the tables and diagrams use its model. */
+  source: string
+  result: Result | SweepResult
+  solverVersion: string
+  solverMs: number
+  /** ISO time the answer arrived (stored runs: when the server made it). */
+  at: string
+}
+export type ShownRun = (ShownBase & { origin: 'stored'; run: StoredRun }) | (ShownBase & { origin: 'preview' })
+
+/** A refusal from the server, in a shape the page can show. */
+export interface ServerProblem {
+  status: number
+  message: string
+  diagnostics: Diagnostic[]
+}
+
+/** A save refused because someone saved after the revision being edited. */
+export interface SaveConflict {
+  mine: string
+  theirs: SavedRevision
+}
+
+export type RunPlan = 'stored' | 'preview'
+
+/** Stored run of the saved revision when the text is unchanged (or cannot change); otherwise a preview. */
+export function runPlan(canEdit: boolean, dirty: boolean): RunPlan {
+  return canEdit && dirty ? 'preview' : 'stored'
+}
+
+/** The status, message and diagnostics of an error thrown by `$fetch` (or anything else). */
+export function problemFrom(error: unknown): ServerProblem {
+  const e = error as { statusCode?: number; status?: number; response?: { status?: number }; data?: { message?: string; data?: { diagnostics?: Diagnostic[] } }; message?: string }
+  const status = e?.statusCode ?? e?.status ?? e?.response?.status ?? 0
+  const diagnostics = Array.isArray(e?.data?.data?.diagnostics) ? e.data!.data!.diagnostics! : []
+  const message =
+    e?.data?.message ??
+    (status === 0 ? 'The server could not be reached. Check the connection and try again.' : `The server answered ${status}. Try again.`)
+  return { status, message, diagnostics }
+}
+
+/** The newest run of the given revision from a newest-first list, or null. */
+export function latestRunOf(runs: StoredRun[], revision: number): StoredRun | null {
+  return runs.find((run) => run.revision === revision) ?? null
+}
+
+type Fetcher = <T>(url: string, options?: { method?: string; body?: unknown }) => Promise<T>
+
+/** Nuxt's global `$fetch` (stubbed in component tests). */
+function request<T>(url: string, options?: { method?: string; body?: unknown }): Promise<T> {
+  const fetcher = (globalThis as unknown as { $fetch: Fetcher }).$fetch
+  return fetcher<T>(url, options as never)
+}
+
+export const useWorkbenchStore = defineStore('workbench', () => {
+  const answer = ref<SystemAnswer | null>(null)
+  /** The text in the editor. */
+  const source = ref('')
+  /** The editor's latest diagnostics (the checker runs in the browser). */
+  const diagnostics = shallowRef<Diagnostic[]>([])
+  const shown = shallowRef<ShownRun | null>(null)
+  /** Runs stored for this system exist, but none of the latest revision. */
+  const olderRun = shallowRef<StoredRun | null>(null)
+  /** For a sweep: which point the tables show. */
+  const pointIndex = ref(0)
+  const running = ref(false)
+  const saving = ref(false)
+  const runProblem = shallowRef<ServerProblem | null>(null)
+  const saveProblem = shallowRef<ServerProblem | null>(null)
+  const conflict = shallowRef<SaveConflict | null>(null)
+  let runTicket = 0
+
+  const latest = computed(() => answer.value?.system.latest ?? null)
+  const canEdit = computed(() => labRoleAtLeast(answer.value?.role, 'editor'))
+  const dirty = computed(() => latest.value !== null && source.value !== latest.value.source)
+  const plan = computed<RunPlan>(() => runPlan(canEdit.value, dirty.value))
+  const base = computed(() => (answer.value ? `/api/labs/${answer.value.lab.slug}/systems/${answer.value.system.slug}` : ''))
+  const errorCount = computed(() => diagnostics.value.filter((d) => d.severity === 'error').length)
+  /** The model of the text that was solved: species, stoichiometry and citations for the results. */
+  const shownModel = computed<Model | null>(() => (shown.value ? compile(shown.value.source).model : null))
+  /** The shown answer no longer matches the editor's text. */
+  const shownIsStale = computed(() => shown.value !== null && shown.value.source !== source.value)
+  const sweep = computed<SweepResult | null>(() => (shown.value?.kind === 'sweep' ? (shown.value.result as SweepResult) : null))
+  /** The single result the tables show: the run's, or the chosen point of a sweep. */
+  const pointResult = computed<Result | null>(() => {
+    if (!shown.value) return null
+    if (!sweep.value) return shown.value.result as Result
+    const points = sweep.value.points
+    return points[Math.min(Math.max(pointIndex.value, 0), points.length - 1)] ?? null
+  })
+
+  /** Take a freshly loaded system. The same system at the same revision keeps its state (SSR, then the browser). */
+  function open(next: SystemAnswer) {
+    const same =
+      answer.value?.lab.slug === next.lab.slug &&
+      answer.value.system.slug === next.system.slug &&
+      answer.value.system.latest.number === next.system.latest.number
+    answer.value = next
+    if (same) return
+    source.value = next.system.latest.source
+    diagnostics.value = []
+    shown.value = null
+    olderRun.value = null
+    pointIndex.value = 0
+    runProblem.value = null
+    saveProblem.value = null
+    conflict.value = null
+  }
+
+  function showStored(run: StoredRun, solvedSource: string) {
+    if (!run.result) return
+    shown.value = {
+      origin: 'stored',
+      run,
+      kind: run.kind,
+      source: solvedSource,
+      result: run.result,
+      solverVersion: run.solverVersion,
+      solverMs: run.timingMs,
+      at: run.createdAt,
+    }
+    olderRun.value = null
+  }
+
+  /** On opening: the newest stored run of the latest revision, if there is one. */
+  async function loadLastRun() {
+    const saved = latest.value
+    if (!saved || shown.value) return
+    try {
+      const { runs } = await request<{ runs: StoredRun[] }>(`${base.value}/runs`)
+      const mine = latestRunOf(runs, saved.number)
+      if (!mine) {
+        olderRun.value = runs[0] ?? null
+        return
+      }
+      const full = await request<StoredRun>(`${base.value}/runs/${mine.id}`)
+      if (latest.value?.number === saved.number && !shown.value) showStored(full, saved.source)
+    } catch (error) {
+      runProblem.value = problemFrom(error)
+    }
+  }
+
+  async function run() {
+    const saved = latest.value
+    if (!saved) return
+    const ticket = ++runTicket
+    const how = plan.value
+    const text = how === 'stored' ? saved.source : source.value
+    running.value = true
+    runProblem.value = null
+    try {
+      if (how === 'stored') {
+        const stored = await request<StoredRun>(`${base.value}/runs`, { method: 'POST', body: { revision: saved.number } })
+        if (ticket === runTicket) showStored(stored, text)
+      } else {
+        const preview = await request<PreviewAnswer>('/api/solve', { method: 'POST', body: { source: text } })
+        if (ticket === runTicket) {
+          shown.value = {
+            origin: 'preview',
+            kind: preview.kind,
+            source: text,
+            result: preview.result,
+            solverVersion: preview.solverVersion,
+            solverMs: preview.elapsedMs,
+            at: new Date().toISOString(),
+          }
+        }
+      }
+      if (ticket === runTicket) pointIndex.value = Math.min(pointIndex.value, (sweep.value?.points.length ?? 1) - 1)
+    } catch (error) {
+      if (ticket === runTicket) runProblem.value = problemFrom(error)
+    } finally {
+      if (ticket === runTicket) running.value = false
+    }
+  }
+
+  /** The revision number the save started from, so the page can drop that draft; null when nothing was saved. */
+  async function save(message: string, baseRevision: number | undefined = latest.value?.number): Promise<number | null> {
+    const current = answer.value
+    if (!current || baseRevision === undefined || saving.value) return null
+    const text = source.value
+    saving.value = true
+    saveProblem.value = null
+    try {
+      const saved = await request<{ system: SystemAnswer['system'] }>(base.value, {
+        method: 'PATCH',
+        body: { source: text, message: message.trim() || undefined, baseRevision },
+      })
+      answer.value = { ...current, system: saved.system }
+      conflict.value = null
+      // A preview of exactly this text is now the saved revision's text, but it was still not stored.
+      return baseRevision
+    } catch (error) {
+      const problem = problemFrom(error)
+      if (problem.status === 409) {
+        try {
+          const fresh = await request<SystemAnswer>(base.value)
+          conflict.value = { mine: text, theirs: fresh.system.latest }
+        } catch (reload) {
+          saveProblem.value = problemFrom(reload)
+        }
+      } else {
+        saveProblem.value = problem
+      }
+      return null
+    } finally {
+      saving.value = false
+    }
+  }
+
+  /** Save my text on top of the revision that won, after seeing both. */
+  function keepMine(message: string): Promise<number | null> {
+    const theirs = conflict.value?.theirs
+    if (!theirs || !answer.value) return Promise.resolve(null)
+    return save(message, theirs.number)
+  }
+
+  /** Drop my text and continue from the revision that won. */
+  function takeTheirs() {
+    const current = answer.value
+    const theirs = conflict.value?.theirs
+    if (!current || !theirs) return
+    answer.value = { ...current, system: { ...current.system, latest: theirs } }
+    source.value = theirs.source
+    conflict.value = null
+    shown.value = null
+  }
+
+  return {
+    answer, source, diagnostics, shown, olderRun, pointIndex, running, saving, runProblem, saveProblem, conflict,
+    latest, canEdit, dirty, plan, errorCount, shownModel, shownIsStale, sweep, pointResult,
+    open, loadLastRun, run, save, keepMine, takeTheirs,
+  }
+})

@@ -1,0 +1,159 @@
+// The workbench store: which kind of run a click makes, what a refused run
+// or save leaves on screen, and that a save conflict never overwrites.
+import { beforeEach, describe, expect, it, vi } from 'vitest'
+import { createPinia, setActivePinia } from 'pinia'
+import { latestRunOf, problemFrom, runPlan, useWorkbenchStore, type StoredRun, type SystemAnswer } from '../../../stores/workbench'
+
+// Demo system (invented numbers).
+const saved = `system "Strike bath"
+activity ideal
+component H+ total 1 mmol/L
+component Cl- total 1 mmol/L
+reaction H2O <=> H+ + OH- pKw 14.00 cite "from memory"
+`
+
+function answer(role: SystemAnswer['role'] = 'editor', number = 4, source = saved): SystemAnswer {
+  return {
+    lab: { slug: 'plating', name: 'Plating' },
+    role,
+    system: { slug: 'strike', title: 'Strike bath', isLibrary: false, latest: { number, sha256: 'ab'.repeat(32), source, message: '', author: 'Ann', createdAt: '2026-12-01T10:00:00.000Z' } },
+  }
+}
+
+const result = { converged: true, iterations: 3, temperatureC: 25, pH: 3, ionicStrength: 1e-3, species: [], solids: [], components: [], residuals: { maxScaled: 0 } }
+const run = (id: number, revision: number, withResult = true): StoredRun => ({
+  id, revision, status: 'ok', kind: 'single', solverVersion: '1.0.0', timingMs: 4, createdAt: '2026-12-01T10:05:00.000Z', createdBy: 'Ann', failedPoints: 0,
+  ...(withResult ? { result } : {}),
+})
+
+/** An error shaped like ofetch's FetchError for an h3 createError answer. */
+function refusal(statusCode: number, message: string, data?: unknown) {
+  return Object.assign(new Error(message), { statusCode, data: { statusCode, message, data } })
+}
+
+let fetcher: ReturnType<typeof vi.fn>
+beforeEach(() => {
+  setActivePinia(createPinia())
+  fetcher = vi.fn()
+  vi.stubGlobal('$fetch', fetcher)
+})
+
+describe('runPlan', () => {
+  it('stores runs of unchanged text, previews unsaved edits, and always stores a viewer’s runs', () => {
+    expect(runPlan(true, false)).toBe('stored')
+    expect(runPlan(true, true)).toBe('preview')
+    expect(runPlan(false, true)).toBe('stored')
+  })
+})
+
+describe('problemFrom', () => {
+  it('keeps the server’s message and diagnostics, and words a lost connection', () => {
+    const diagnostics = [{ severity: 'error', code: 'P020', message: 'does not balance', range: { from: 0, to: 1, line: 5, column: 1, endLine: 5, endColumn: 2 } }]
+    expect(problemFrom(refusal(422, 'fix it', { diagnostics }))).toEqual({ status: 422, message: 'fix it', diagnostics })
+    expect(problemFrom(new TypeError('fetch failed'))).toMatchObject({ status: 0, message: expect.stringMatching(/could not be reached/) })
+  })
+})
+
+describe('latestRunOf', () => {
+  it('takes the newest run of the given revision only', () => {
+    expect(latestRunOf([run(9, 3), run(8, 4), run(7, 4)], 4)?.id).toBe(8)
+    expect(latestRunOf([run(9, 3)], 4)).toBeNull()
+  })
+})
+
+describe('useWorkbenchStore', () => {
+  it('runs unchanged text as a stored run of the saved revision', async () => {
+    const store = useWorkbenchStore()
+    store.open(answer())
+    fetcher.mockResolvedValueOnce(run(12, 4))
+    await store.run()
+    expect(fetcher).toHaveBeenCalledWith('/api/labs/plating/systems/strike/runs', { method: 'POST', body: { revision: 4 } })
+    expect(store.shown).toMatchObject({ origin: 'stored', solverMs: 4 })
+    expect(store.shownModel?.title).toBe('Strike bath')
+  })
+
+  it('solves unsaved edits as a preview of exactly the edited text', async () => {
+    const store = useWorkbenchStore()
+    store.open(answer())
+    store.source = saved.replace('1 mmol/L\ncomponent Cl-', '2 mmol/L\ncomponent Cl-')
+    fetcher.mockResolvedValueOnce({ kind: 'single', solverVersion: '1.0.0', elapsedMs: 2.5, diagnostics: [], result })
+    await store.run()
+    expect(fetcher).toHaveBeenCalledWith('/api/solve', { method: 'POST', body: { source: store.source } })
+    expect(store.shown?.origin).toBe('preview')
+    expect(store.shownIsStale).toBe(false)
+    store.source += '# a note\n'
+    expect(store.shownIsStale).toBe(true)
+  })
+
+  it('keeps a refused run’s diagnostics for the page to show', async () => {
+    const store = useWorkbenchStore()
+    store.open(answer())
+    const diagnostics = [{ severity: 'error', code: 'P020', message: 'does not balance', range: { from: 0, to: 1, line: 5, column: 1, endLine: 5, endColumn: 2 } }]
+    fetcher.mockRejectedValueOnce(refusal(422, 'The system has 1 error', { diagnostics }))
+    await store.run()
+    expect(store.runProblem).toEqual({ status: 422, message: 'The system has 1 error', diagnostics })
+    expect(store.shown).toBeNull()
+    expect(store.running).toBe(false)
+  })
+
+  it('loads the newest run of the latest revision on opening, and notes an older one otherwise', async () => {
+    const store = useWorkbenchStore()
+    store.open(answer())
+    fetcher.mockResolvedValueOnce({ runs: [run(8, 4, false), run(7, 3, false)] }).mockResolvedValueOnce(run(8, 4))
+    await store.loadLastRun()
+    expect(fetcher).toHaveBeenLastCalledWith('/api/labs/plating/systems/strike/runs/8', undefined)
+    expect(store.shown).toMatchObject({ origin: 'stored', run: { id: 8 } })
+
+    setActivePinia(createPinia())
+    const other = useWorkbenchStore()
+    other.open(answer())
+    fetcher.mockResolvedValueOnce({ runs: [run(7, 3, false)] })
+    await other.loadLastRun()
+    expect(other.shown).toBeNull()
+    expect(other.olderRun?.revision).toBe(3)
+  })
+
+  it('on a 409 keeps my text and shows theirs, and saves mine on top only when asked', async () => {
+    const store = useWorkbenchStore()
+    store.open(answer())
+    const mine = saved.replace('Cl- total 1', 'Cl- total 5')
+    store.source = mine
+    const theirs = answer('editor', 5, saved.replace('H+ total 1', 'H+ total 2'))
+    fetcher.mockRejectedValueOnce(refusal(409, 'Revision 5 was saved after the revision 4 you edited')).mockResolvedValueOnce(theirs)
+    expect(await store.save('my change')).toBeNull()
+    expect(store.conflict).toEqual({ mine, theirs: theirs.system.latest })
+    expect(store.source).toBe(mine)
+    expect(store.latest?.number).toBe(4)
+
+    fetcher.mockResolvedValueOnce({ system: { ...theirs.system, latest: { ...theirs.system.latest, number: 6, source: mine } } })
+    expect(await store.keepMine('my change')).toBe(5)
+    expect(fetcher).toHaveBeenLastCalledWith('/api/labs/plating/systems/strike', { method: 'PATCH', body: { source: mine, message: 'my change', baseRevision: 5 } })
+    expect(store.conflict).toBeNull()
+    expect(store.latest?.number).toBe(6)
+    expect(store.dirty).toBe(false)
+  })
+
+  it('drops my text for theirs when I choose so', async () => {
+    const store = useWorkbenchStore()
+    store.open(answer())
+    store.source = saved + '# mine\n'
+    const theirs = answer('editor', 5, saved + '# theirs\n')
+    fetcher.mockRejectedValueOnce(refusal(409, 'stale')).mockResolvedValueOnce(theirs)
+    await store.save('')
+    store.takeTheirs()
+    expect(store.source).toBe(saved + '# theirs\n')
+    expect(store.latest?.number).toBe(5)
+    expect(store.dirty).toBe(false)
+  })
+
+  it('keeps other refusals of a save as a message, not a conflict', async () => {
+    const store = useWorkbenchStore()
+    store.open(answer('editor'))
+    store.source = saved + '#\n'
+    fetcher.mockRejectedValueOnce(refusal(403, 'You need the editor role'))
+    await store.save('')
+    expect(store.conflict).toBeNull()
+    expect(store.saveProblem?.message).toBe('You need the editor role')
+    expect(store.canEdit).toBe(true)
+  })
+})
