@@ -80,7 +80,7 @@ export function solveWithPhases(ws: Workspace, state: SolverState, limits: Limit
     for (let s = 0; s < p.nsol; s++) if (state.active[s] && state.n[s] < 0 && (drop < 0 || state.n[s] < state.n[drop])) drop = s
     if (drop >= 0) {
       state.active[drop] = 0; state.n[drop] = 0
-      if (!remember(seen, state.active)) return cycling(p, iterations, out, notes)
+      if (!remember(seen, state.active)) return cycling(p, drop, 'leaves', iterations, out, notes)
       continue
     }
     let add = -1
@@ -108,7 +108,7 @@ export function solveWithPhases(ws: Workspace, state: SolverState, limits: Limit
     }
     state.active[add] = 1; state.n[add] = 0
     lastAdd = add
-    if (!remember(seen, state.active)) return cycling(p, iterations, out, notes)
+    if (!remember(seen, state.active)) return cycling(p, add, 'joins', iterations, out, notes)
   }
   return { ok: false, iterations, maxScaled: Infinity, worstRow: 0, notes, reason: 'the choice of solids present did not settle' }
 }
@@ -160,10 +160,10 @@ function remember(seen: Set<string>, active: Uint8Array): boolean {
   return true
 }
 
-function cycling(p: Problem, iterations: number, out: { maxScaled: number; worstRow: number }, notes: string[]): PhaseOutcome {
+function cycling(p: Problem, solid: number, move: 'joins' | 'leaves', iterations: number, out: { maxScaled: number; worstRow: number }, notes: string[]): PhaseOutcome {
   return {
     ok: false, iterations, maxScaled: out.maxScaled, worstRow: out.worstRow, notes,
-    reason: `the set of solids present cycles (${p.model.solids.map((s) => s.name).join(', ')} keep joining and leaving): their constants may contradict each other`,
+    reason: `the set of solids present cycles: ${p.model.solids[solid].name} ${move} a set of solids tried before; their constants may be too close to tell which is stable`,
   }
 }
 

@@ -79,6 +79,31 @@ describe('solids', () => {
   })
 })
 
+describe('competing solids', () => {
+  // Two solids of one metal at fixed pH: only the less soluble can be present
+  // at equilibrium (phase rule: one total component, one solid), and the
+  // other is left undersaturated (common practice). Demo constants.
+  it('keeps only the more stable of two solids that fix the same activity', () => {
+    const model = buildModel({
+      components: [{ name: 'H+', charge: 1, mode: 'pH', value: 10 }, { name: 'M^2+', charge: 2, mode: 'total', value: 1e-2 },
+        { name: 'L-', charge: -1, mode: 'free', value: 1e-2 }],
+      species: [hydroxide()],
+      solids: [
+        { name: 'M(OH)2(s)', nu: { 'M^2+': 1, 'H+': -2 }, logK: 15 - 28 },
+        { name: 'ML2(s)', nu: { 'M^2+': 1, 'L-': 2 }, logK: 12 },
+      ],
+    })
+    const r = solve(model)
+    expect(r.converged).toBe(true)
+    const [hydroxideSolid, salt] = r.solids
+    // Free M from each solid alone: hydroxide 10^(−15+8) = 1e-7, salt 10^(−12+4) = 1e-8: the salt is more stable.
+    expect(salt.present).toBe(true)
+    expect(hydroxideSolid.present).toBe(false)
+    expect(hydroxideSolid.saturationIndex).toBeCloseTo(-1, 8)
+    expect(species(r, 'M^2+')).toBeCloseTo(1e-8, 15)
+  })
+})
+
 describe('gases and fixed pressures', () => {
   // Henry's law: [H2CO3*] = KH pCO2 with log KH −1.47 (constants.md, from memory).
   it('reports the partial pressure of a gas that is not a component', () => {
