@@ -1,7 +1,8 @@
 /**
  * What changed in the chemistry between two compiled models: species, solids
  * and gases added or removed, formation constants moved (old → new and the
- * change in log K), totals and conditions changed, citations changed.
+ * change in log K), totals and conditions changed, a solid allowed to form or
+ * suppressed, citations changed.
  *
  * Constants are compared as the model uses them — the log10 formation
  * constant from components at the reference temperature — so rewriting a
@@ -13,7 +14,7 @@ import type { Model, ModelComponent, ModelReaction } from '../poise/model'
 
 export type ModelChangeKind =
   | 'added' | 'removed'
-  | 'constant' | 'total' | 'condition' | 'citation'
+  | 'constant' | 'total' | 'condition' | 'assumption' | 'citation'
 
 export type ModelEntity = 'species' | 'solid' | 'gas' | 'component' | 'condition'
 
@@ -67,13 +68,13 @@ function componentValue(c: ModelComponent): string {
   }
 }
 
-interface Formed { name: string; logKRef: number; line: number; entity: ModelEntity }
+interface Formed { name: string; logKRef: number; line: number; entity: ModelEntity; suppressed?: boolean }
 
 function formedOf(model: Model): Map<string, Formed> {
   const map = new Map<string, Formed>()
   // A component's free form is a species of the model too, with logK 0: it is reported as a component instead.
   for (const s of model.species) if (s.componentIndex === null) map.set(`species:${s.name}`, { name: s.name, logKRef: s.logKRef, line: s.line, entity: 'species' })
-  for (const s of model.solids) map.set(`solid:${s.name}`, { name: s.name, logKRef: s.logKRef, line: s.line, entity: 'solid' })
+  for (const s of model.solids) map.set(`solid:${s.name}`, { name: s.name, logKRef: s.logKRef, line: s.line, entity: 'solid', suppressed: s.suppressed })
   for (const g of model.gases) map.set(`gas:${g.name}`, { name: g.name, logKRef: g.logKRef, line: g.line, entity: 'gas' })
   return map
 }
@@ -87,6 +88,10 @@ function formationChanges(a: Model, b: Model): ModelChange[] {
     if (!now) {
       changes.push({ kind: 'removed', entity: old.entity, name: old.name, from: `log K ${fixed(old.logKRef)}`, to: null, size: STRUCTURAL_SIZE, fromLine: old.line })
       continue
+    }
+    if (old.suppressed !== now.suppressed) {
+      const words = (suppressed?: boolean) => suppressed ? 'never precipitates' : 'may precipitate'
+      changes.push({ kind: 'assumption', entity: old.entity, name: old.name, from: words(old.suppressed), to: words(now.suppressed), size: CONDITION_SIZE, fromLine: old.line, toLine: now.line })
     }
     const delta = now.logKRef - old.logKRef
     // Constants are written with two or three decimals: differences below that are rounding of a rewritten reaction.

@@ -63,6 +63,34 @@ describe('compare', () => {
     expect(answer.body.problems[0]).toMatch(/^Revision 3 cannot be solved: .*line 2/)
   })
 
+  it('for sweeps, reports where along the sweep a solid starts to precipitate and the largest change of each species', async () => {
+    const hydroxide = (solidLine: string) => `system "Copper hydroxide across pH"
+temperature 25 C
+activity ideal
+component H+     pH 5
+component Cu^2+  total 1.0 mmol/L
+reaction H2O <=> H+ + OH-              pKw 14.00   cite "demo value"
+reaction Cu(OH)2(s) <=> Cu^2+ + 2 OH-  pKsp 19.66  cite "demo value"
+${solidLine}
+sweep pH from 4 to 9 step 1
+`
+    const path = `/api/labs/${lab}/systems/hydroxide`
+    expect((await api(`/api/labs/${lab}/systems`, { method: 'POST', cookie: owner.cookie, body: { title: 'Hydroxide', slug: 'hydroxide', source: hydroxide('solid Cu(OH)2(s) suppressed') } })).status).toBe(201)
+    expect((await api(path, { method: 'PATCH', cookie: owner.cookie, body: { source: hydroxide(''), baseRevision: 1, message: 'let the hydroxide form' } })).status).toBe(200)
+    const answer = await api(`${path}/compare?from=1&to=2`, { cookie: viewer.cookie })
+    expect(answer.status).toBe(200)
+    const diff = answer.body.resultsDiff
+    expect(diff).toMatchObject({ kind: 'sweep', sweep: 'pH' })
+    // With pKsp 19.66 and pKw 14, 1 mmol/L Cu2+ is saturated from pH 14 − (19.66 − 3)/2 ≈ 5.67 up
+    // (solubility product, common practice): the hydroxide forms at pH 6, 7, 8 and 9.
+    expect(diff.solids).toEqual([{ name: 'Cu(OH)2(s)', change: 'appears', at: [6, 7, 8, 9] }])
+    // Free copper falls most at the top of the sweep, where [Cu2+] = Ksp / [OH-]^2 is smallest.
+    const copper = diff.species.find((s: any) => s.name === 'Cu^2+')
+    expect(copper.at).toBe(9)
+    expect(Math.log10(copper.to)).toBeCloseTo(-19.66 + 2 * 5, 3)
+    expect(answer.body.modelDiff).toEqual([expect.objectContaining({ kind: 'assumption', entity: 'solid', name: 'Cu(OH)2(s)', from: 'never precipitates', to: 'may precipitate' })])
+  })
+
   it('answers 400 to a query without revision numbers, 404 to a missing revision or an outsider', async () => {
     const bad = await api(`${system()}/compare?from=one&to=2`, { cookie: viewer.cookie })
     expect(bad.status).toBe(400)

@@ -45,4 +45,10 @@ describe('model diff', () => {
     expect(byKind['total:Cu^2+']!.size).toBeCloseTo(Math.log10(2), 10)
     expect(byKind['citation:CuNH3^2+']).toMatchObject({ from: 'demo value', to: 'checked again' })
   })
+
+  it('reports a solid that is suppressed in one revision and allowed to form in the other', () => {
+    const solid = 'reaction Cu(OH)2(s) <=> Cu^2+ + 2 OH-  pKsp 19.66  cite "demo value"\nreaction H2O <=> H+ + OH-  pKw 14.00  cite "demo value"\ncomponent H+ pH 7'
+    const changes = diffModels(compiled(copperAmmine(4, `${solid}\nsolid Cu(OH)2(s) suppressed`)), compiled(copperAmmine(4, solid)))
+    expect(changes).toEqual([expect.objectContaining({ kind: 'assumption', entity: 'solid', name: 'Cu(OH)2(s)', from: 'never precipitates', to: 'may precipitate' })])
+  })
 })
