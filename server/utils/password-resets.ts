@@ -4,20 +4,28 @@
  * address has an account, so the form cannot be used to find out who has one.
  */
 import type { H3Event } from 'h3'
-import { and, eq, gt, isNull } from 'drizzle-orm'
+import { and, count, eq, gt, isNull } from 'drizzle-orm'
 import { PASSWORD_RESET_MINUTES } from '../../shared/utils/invitation-schemas'
 import { tables, useDb } from './db'
 import { sendMail, siteLink } from './mail'
 import { hashToken, newToken } from './tokens'
 
+/** At most this many reset mails per account in RESET_WINDOW_MINUTES, so the form cannot flood a mailbox. */
+const RESETS_PER_WINDOW = 3
+const RESET_WINDOW_MINUTES = 15
+
 /** The one answer to "send me a reset link", for known and unknown addresses alike. */
 export const RESET_REQUESTED_MESSAGE = `If an account uses this address, a link to choose a new password is on its way; it works once, for ${PASSWORD_RESET_MINUTES} minutes`
 
-/** Mails a reset link when the address has an account; does nothing visible otherwise. */
+/** Mails a reset link when the address has an account (and has not had too many lately); does nothing visible otherwise. */
 export async function requestPasswordReset(event: H3Event, email: string): Promise<void> {
   const db = useDb()
   const [account] = await db.select({ id: tables.users.id, name: tables.users.name }).from(tables.users).where(eq(tables.users.email, email))
   if (!account) return
+  const since = new Date(Date.now() - RESET_WINDOW_MINUTES * 60 * 1000)
+  const [recent] = await db.select({ n: count() }).from(tables.passwordResets)
+    .where(and(eq(tables.passwordResets.userId, account.id), gt(tables.passwordResets.createdAt, since)))
+  if ((recent?.n ?? 0) >= RESETS_PER_WINDOW) return
   const { token, hash } = newToken()
   await db.insert(tables.passwordResets).values({
     userId: account.id,

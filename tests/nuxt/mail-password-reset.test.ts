@@ -1,7 +1,9 @@
 // Password reset by mail: the link sets a new password once; the request
 // answers the same for addresses with and without an account.
 import { describe, expect, it } from 'vitest'
+import mysql from 'mysql2/promise'
 import { useBuiltServer } from '../setup/server'
+import { TEST_DATABASE_URL } from '../setup/test-database'
 import { api, freshEmail, signIn, signInAs, signUp } from '../setup/accounts'
 import { capturedMail, linkTo, waitForMail } from '../setup/mail'
 
@@ -40,6 +42,17 @@ describe('password reset', () => {
     expect(forStranger.body).toEqual(forKnown.body)
     await waitForMail(known.user.email, /new password/)
     expect(capturedMail().some((m) => m.to.includes(stranger))).toBe(false)
+  })
+
+  it('sends at most three reset links in a quarter of an hour, answering the same to the fourth request', async () => {
+    const me = await signUp('impatient')
+    const answers = []
+    for (let i = 0; i < 4; i++) answers.push(await api('/api/auth/password/forgot', { method: 'POST', body: { email: me.user.email } }))
+    expect(new Set(answers.map((a) => JSON.stringify([a.status, a.body]))).size).toBe(1)
+    const connection = await mysql.createConnection(TEST_DATABASE_URL)
+    const [rows] = await connection.query('SELECT COUNT(*) AS n FROM password_resets WHERE user_id = ?', [me.user.id])
+    await connection.end()
+    expect(Number((rows as Array<{ n: number }>)[0]!.n)).toBe(3)
   })
 
   it('refuses a made-up token and a short password with messages saying what to do', async () => {

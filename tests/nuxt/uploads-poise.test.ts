@@ -11,7 +11,7 @@ let editor: SignedIn
 let viewer: SignedIn
 let lab: string
 
-async function upload(path: string, who: SignedIn, file: { name: string, bytes: Uint8Array | string }, fields: Record<string, string> = {}) {
+async function upload(path: string, who: SignedIn, file: { name: string, bytes: Uint8Array<ArrayBuffer> | string }, fields: Record<string, string> = {}) {
   const form = new FormData()
   form.append('file', new Blob([file.bytes]), file.name)
   for (const [key, value] of Object.entries(fields)) form.append(key, value)
