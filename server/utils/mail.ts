@@ -45,6 +45,10 @@ function transporterFor(config: MailConfig): Transporter {
     auth: config.user ? { user: config.user, pass: config.password } : undefined,
     // The local fake server speaks plain SMTP on loopback; a real provider is reached with STARTTLS when it offers it.
     ignoreTLS: config.host === '127.0.0.1' || config.host === 'localhost',
+    // nodemailer waits up to two minutes by default; a request that mails should not hang that long on a dead server.
+    connectionTimeout: 10_000,
+    greetingTimeout: 10_000,
+    socketTimeout: 20_000,
   })
   transport = { key, transporter }
   return transporter
