@@ -6,7 +6,7 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { createTransport } from 'nodemailer'
-import { startFakeSmtp } from '../../../scripts/fake-smtp.mjs'
+import { readMessage, startFakeSmtp } from '../../../scripts/fake-smtp.mjs'
 
 let server: { port: number; dir: string; close: () => Promise<void> }
 const dir = mkdtempSync(join(tmpdir(), 'equipoise-mail-'))
@@ -49,5 +49,33 @@ describe('fake SMTP server', () => {
 
     const message = captured().find((m) => m.subject === 'Reset')
     expect(message).toMatchObject({ to: ['a@example.org', 'b@example.org'], text, html: null })
+  })
+
+  it('decodes base64 parts and encoded-word subjects from other mail programs too', () => {
+    const text = 'Neue Einladung: Zn²⁺-Bad'
+    const raw = [
+      'Subject: =?UTF-8?B?' + Buffer.from('Zn²⁺ bath').toString('base64') + '?= =?UTF-8?Q?_=E2=80=94_invite?=',
+      'Content-Type: multipart/alternative; boundary="b1"',
+      '',
+      '--b1',
+      'Content-Type: text/plain; charset=utf-8',
+      'Content-Transfer-Encoding: base64',
+      '',
+      Buffer.from(text).toString('base64'),
+      '--b1',
+      'Content-Type: text/html; charset=utf-8',
+      'Content-Transfer-Encoding: quoted-printable',
+      '',
+      '<p>Zn=C2=B2=E2=81=BA-Bad</p>',
+      '--b1--',
+      '',
+    ].join('\r\n')
+    expect(readMessage(Buffer.from(raw, 'utf8').toString('latin1'), { from: 'a@example.org', to: ['b@example.org'] })).toEqual({
+      from: 'a@example.org',
+      to: ['b@example.org'],
+      subject: 'Zn²⁺ bath — invite',
+      text,
+      html: '<p>Zn²⁺-Bad</p>',
+    })
   })
 })
