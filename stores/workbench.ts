@@ -15,6 +15,7 @@ import { compile } from '../shared/poise/index'
 import type { Diagnostic } from '../shared/poise/diagnostics'
 import type { Model } from '../shared/poise/model'
 import type { Result, SweepResult } from '../shared/types/result'
+import { distributableComponents, type StoichiometryModel } from '../shared/results/share'
 import { labRoleAtLeast, type LabRole } from '../shared/utils/roles'
 
 export interface SavedRevision {
@@ -102,6 +103,25 @@ export function problemFrom(error: unknown): ServerProblem {
 /** The newest run of the given revision from a newest-first list, or null. */
 export function latestRunOf(runs: StoredRun[], revision: number): StoredRun | null {
   return runs.find((run) => run.revision === revision) ?? null
+}
+
+/**
+ * The component to share out first: the one held by the most species (the
+ * phosphate of a sodium phosphate buffer, not its sodium); ties go to the
+ * first declared.
+ */
+export function richestComponent(model: StoichiometryModel): string | null {
+  let best: string | null = null
+  let most = 0
+  for (const name of distributableComponents(model)) {
+    const j = model.components.findIndex((c) => c.name === name)
+    const holders = model.species.filter((s) => (s.nu[j] ?? 0) > 0).length
+    if (holders > most) {
+      best = name
+      most = holders
+    }
+  }
+  return best
 }
 
 type Fetcher = <T>(url: string, options?: { method?: string; body?: unknown }) => Promise<T>

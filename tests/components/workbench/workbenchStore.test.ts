@@ -2,7 +2,7 @@
 // or save leaves on screen, and that a save conflict never overwrites.
 import { beforeEach, describe, expect, it, vi } from 'vitest'
 import { createPinia, setActivePinia } from 'pinia'
-import { latestRunOf, problemFrom, runPlan, useWorkbenchStore, type StoredRun, type SystemAnswer } from '../../../stores/workbench'
+import { latestRunOf, problemFrom, richestComponent, runPlan, useWorkbenchStore, type StoredRun, type SystemAnswer } from '../../../stores/workbench'
 
 // Demo system (invented numbers).
 const saved = `system "Strike bath"
@@ -155,5 +155,19 @@ describe('useWorkbenchStore', () => {
     expect(store.conflict).toBeNull()
     expect(store.saveProblem?.message).toBe('You need the editor role')
     expect(store.canEdit).toBe(true)
+  })
+})
+
+describe('richestComponent', () => {
+  it('shares out the component most species hold, not a counter-ion', () => {
+    const model = {
+      components: [{ name: 'H+' }, { name: 'Na+' }, { name: 'H2PO4-' }],
+      species: [
+        { name: 'H+', nu: [1, 0, 0] }, { name: 'Na+', nu: [0, 1, 0] }, { name: 'H2PO4-', nu: [0, 0, 1] },
+        { name: 'OH-', nu: [-1, 0, 0] }, { name: 'H3PO4', nu: [1, 0, 1] }, { name: 'HPO4^2-', nu: [-1, 0, 1] },
+      ],
+    }
+    expect(richestComponent(model)).toBe('H2PO4-')
+    expect(richestComponent({ components: [{ name: 'H+' }], species: [{ name: 'OH-', nu: [-1] }] })).toBeNull()
   })
 })
