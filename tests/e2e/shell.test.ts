@@ -75,7 +75,7 @@ describe('first visit in the browser', () => {
     await page.getByRole('link', { name: 'Sealing bath' }).click()
     await page.waitForURL(url(`/labs/${labSlug}/systems/sealing-bath`))
     await page.getByRole('heading', { name: 'Sealing bath' }).waitFor()
-    await expect(page.getByLabel('Poise source', { exact: true }).inputValue()).resolves.toMatch(/^system "Sealing bath"/)
+    await expect(page.locator('.cm-content').innerText()).resolves.toMatch(/^system "Sealing bath"/)
 
     await page.locator('[data-test=user-menu]').click()
     await page.getByRole('button', { name: 'Sign out' }).click()
