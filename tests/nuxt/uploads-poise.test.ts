@@ -77,5 +77,8 @@ describe('importing .poise files', () => {
     expect(noFile.status).toBe(400)
     const json = await api(`/api/labs/${lab}/imports`, { method: 'POST', cookie: editor.cookie, body: { source: rinse } })
     expect(json.status).toBe(415)
+    const garbled = await fetch(url(`/api/labs/${lab}/imports`), { method: 'POST', headers: { cookie: editor.cookie, 'content-type': 'multipart/form-data; boundary=zz' }, body: 'not a form at all' })
+    expect(garbled.status).toBe(400)
+    expect((await garbled.json()).message).toMatch(/Choose a \.poise file|could not be read as a form/)
   })
 })
