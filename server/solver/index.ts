@@ -164,22 +164,44 @@ export function solve(model: Model, options?: SolveOptions): Result {
   }
 }
 
+/** A converged sweep point: its unknowns and where along the sweep it lies. */
+interface SweepPoint { state: SolverState; at: number }
+
 /**
- * Secant predictor for continuation: extrapolates the unknowns linearly
- * from the last two converged points to position t, keeping the solids of
- * the last. False when the two points cannot define a line.
+ * Predictor for continuation: extrapolates the unknowns to position t
+ * through the last converged points, keeping the solids of the last one. A
+ * parabola through three points when all three have the same solids (its
+ * error is third order in the spacing, so a point usually needs one Newton
+ * step less than after a secant), else the secant through two. False when
+ * the points cannot define a line or t is far beyond them.
  */
-function predict(out: SolverState, last: SolverState, before: SolverState, t: number, tLast: number, tBefore: number): boolean {
-  const span = tLast - tBefore
+function predict(out: SolverState, t: number, points: SweepPoint[]): boolean {
+  const [last, before, oldest] = points
+  const span = last.at - before.at
   if (!Number.isFinite(span) || span === 0 || !Number.isFinite(t)) return false
-  const f = (t - tLast) / span
-  if (Math.abs(f) > 2) return false
-  copyState(out, last)
-  for (let j = 0; j < out.y.length; j++) out.y[j] = last.y[j] + f * (last.y[j] - before.y[j])
-  for (let s = 0; s < out.n.length; s++) {
-    if (last.active[s] && before.active[s]) out.n[s] = Math.max(0, last.n[s] + f * (last.n[s] - before.n[s]))
+  if (Math.abs((t - last.at) / span) > 2) return false
+  const sameSolids = (a: SolverState, b: SolverState) => a.active.every((v, s) => v === b.active[s])
+  const quadratic = oldest !== undefined && Number.isFinite(oldest.at) && oldest.at !== last.at && oldest.at !== before.at
+    && sameSolids(last.state, before.state) && sameSolids(last.state, oldest.state)
+  // Lagrange weights of the points used.
+  let w0: number, w1: number, w2 = 0
+  if (quadratic) {
+    const t0 = last.at, t1 = before.at, t2 = oldest.at
+    w0 = ((t - t1) * (t - t2)) / ((t0 - t1) * (t0 - t2))
+    w1 = ((t - t0) * (t - t2)) / ((t1 - t0) * (t1 - t2))
+    w2 = ((t - t0) * (t - t1)) / ((t2 - t0) * (t2 - t1))
+  } else {
+    const f = (t - last.at) / span
+    w0 = 1 + f
+    w1 = -f
   }
-  out.u = Math.max(0, last.u + f * (last.u - before.u))
+  const a = last.state, b = before.state, c = quadratic ? oldest.state : last.state
+  copyState(out, a)
+  for (let j = 0; j < out.y.length; j++) out.y[j] = w0 * a.y[j] + w1 * b.y[j] + w2 * c.y[j]
+  for (let s = 0; s < out.n.length; s++) {
+    if (a.active[s] && b.active[s]) out.n[s] = Math.max(0, w0 * a.n[s] + w1 * b.n[s] + w2 * c.n[s])
+  }
+  out.u = Math.max(0, w0 * a.u + w1 * b.u + w2 * c.u)
   return true
 }
 
@@ -217,8 +239,8 @@ function sweepComponentIndex(model: Model): { index: number } | { error: string 
 }
 
 /**
- * The model's sweep: each point starts from a secant prediction through the
- * two previous converged points, or else from the last one (continuation);
+ * The model's sweep: each point starts from a prediction through the
+ * previous converged points, or else from the last one (continuation);
  * a point that fails is marked converged:false with its reason and the sweep
  * goes on. Never throws.
  */
@@ -235,12 +257,10 @@ export function sweep(model: Model, options?: SolveOptions): SweepResult {
     if ('error' in target) return { ...base, points: values.map(() => unsolvable(model, `The sweep cannot run: ${target.error}.`)) }
     const ws = new Workspace(p)
     const state = newState(p)
-    const previous = newState(p)
-    const older = newState(p)
     const predicted = newState(p)
-    let previousValue = NaN
-    let olderValue = NaN
-    let converged = 0
+    // The last three converged points, newest first; their states are reused round robin.
+    const recent: SweepPoint[] = []
+    const spare: SolverState[] = [newState(p), newState(p), newState(p)]
     const maxIterations = iterationsOf(options)
     const deadline = deadlineOf(options)
     const position = (v: number) => (sw.log && v > 0 ? Math.log10(v) : v)
@@ -252,13 +272,13 @@ export function sweep(model: Model, options?: SolveOptions): SweepResult {
         continue
       }
       const starts: SolverState[] = []
-      if (converged >= 2 && predict(predicted, previous, older, position(v), position(previousValue), position(olderValue))) starts.push(predicted)
-      if (converged >= 1) starts.push(previous)
+      if (recent.length >= 2 && predict(predicted, position(v), recent)) starts.push(predicted)
+      if (recent.length >= 1) starts.push(recent[0].state)
       const out = solveProblem(ws, state, { maxIterations, deadline }, starts)
       if (out.ok) {
-        copyState(older, previous); olderValue = previousValue
-        copyState(previous, state); previousValue = v
-        converged++
+        const slot = recent.length === 3 ? recent.pop()!.state : spare.pop()!
+        copyState(slot, state)
+        recent.unshift({ state: slot, at: position(v) })
       }
       base.points.push(out.result)
     }

@@ -94,6 +94,8 @@ function newtonDirection(ws: Workspace, state: SolverState): boolean {
   let lu = new LuDecomposition(J)
   if (lu.isSingular()) {
     if (ws.nActive > 0 && solidsDependent(ws)) return false
+    // The factorisation overwrote J (in place): build it again to shift it.
+    assembleJacobian(ws, state.u, ws.scale, J)
     let biggest = 0
     for (let r = 0; r < dim; r++) for (let k = 0; k < dim; k++) biggest = Math.max(biggest, Math.abs(J.get(r, k)))
     const shift = Math.max(biggest, 1) * 1e-8

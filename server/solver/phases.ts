@@ -5,6 +5,7 @@
  */
 import { MODE_TOTAL, type Problem } from './problem'
 import { newton } from './newton'
+import { estimateJoining, joinIndependent } from './joining'
 import type { Limits, SolverState, Workspace } from './workspace'
 
 /** A solid joins when its saturation index exceeds this. */
@@ -55,11 +56,22 @@ export function solveWithPhases(ws: Workspace, state: SolverState, limits: Limit
   const good = { y: new Float64Array(state.y), n: new Float64Array(state.n), u: state.u }
   let iterations = 0
   let lastAdd = -1
+  // Solids that joined with lastAdd, and whether the round started from estimates.
+  let alongside: number[] = []
+  let estimated = false
   const rounds = 4 * p.nsol + 4
   for (let round = 0; round <= rounds; round++) {
     const left = limits.maxIterations - iterations
     const out = newton(ws, state, { maxIterations: Math.max(1, left), deadline: limits.deadline })
     iterations += out.iterations
+    if (!out.ok && (estimated || alongside.length > 0)) {
+      // The shortcut did not work out: repeat the round the plain way, lastAdd alone from zero.
+      restore(state, good)
+      for (const s of alongside) { state.active[s] = 0; state.n[s] = 0 }
+      alongside = []
+      estimated = false
+      continue
+    }
     if (!out.ok) {
       const added = lastAdd
       if (out.singular && added >= 0 && state.active[added]) {
@@ -75,6 +87,8 @@ export function solveWithPhases(ws: Workspace, state: SolverState, limits: Limit
       return { ok: false, iterations, maxScaled: out.maxScaled, worstRow: out.worstRow, reason: out.reason, notes }
     }
     lastAdd = -1
+    alongside = []
+    estimated = false
     snapshot(good, state)
     let drop = -1
     for (let s = 0; s < p.nsol; s++) if (state.active[s] && state.n[s] < 0 && (drop < 0 || state.n[s] < state.n[drop])) drop = s
@@ -85,9 +99,11 @@ export function solveWithPhases(ws: Workspace, state: SolverState, limits: Limit
     }
     let add = -1
     let best = SUPERSATURATION_TOLERANCE
+    const supersaturated: { solid: number; si: number }[] = []
     for (let s = 0; s < p.nsol; s++) {
       if (state.active[s] || blocked[s] || !canPrecipitate(p, s)) continue
       const si = saturationIndex(p, state.x, s)
+      if (si > SUPERSATURATION_TOLERANCE) supersaturated.push({ solid: s, si })
       if (si > best) { best = si; add = s }
     }
     if (add < 0) {
@@ -109,6 +125,13 @@ export function solveWithPhases(ws: Workspace, state: SolverState, limits: Limit
     state.active[add] = 1; state.n[add] = 0
     lastAdd = add
     if (!remember(seen, state.active)) return cycling(p, add, 'joins', iterations, out, notes)
+    alongside = joinIndependent(p, state, supersaturated.filter((c) => c.solid !== add), maxSolids - present - 1)
+    if (alongside.length > 0 && !remember(seen, state.active)) {
+      for (const s of alongside) { state.active[s] = 0; state.n[s] = 0 }
+      alongside = []
+    }
+    const joining = supersaturated.filter((c) => c.solid === add || alongside.includes(c.solid))
+    estimated = estimateJoining(ws, state, joining)
   }
   return { ok: false, iterations, maxScaled: Infinity, worstRow: 0, notes, reason: 'the choice of solids present did not settle' }
 }

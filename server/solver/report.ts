@@ -34,18 +34,21 @@ export function buildResult(ws: Workspace, state: SolverState, info: ReportInput
     equations.push({ name: ws.rowName(r), scaled: v })
     maxScaled = Math.max(maxScaled, v)
   }
-  const species: SpeciesResult[] = []
+  const species: SpeciesResult[] = new Array(p.nsp)
   let ionic = 0
+  // Dissolved amount of each component, summed over the nonzero stoichiometry only.
+  const dissolvedOf = new Float64Array(p.nc)
   for (let i = 0; i < p.nsp; i++) {
     const s = m.species[p.speciesIndex[i]]
     const c = ws.c[i]
-    const gamma = Math.pow(10, ws.g[i])
+    for (let e = p.nzStart[i]; e < p.nzStart[i + 1]; e++) dissolvedOf[p.nzComponent[e]] += p.nzNu[e] * c
+    const gamma = Math.exp(ws.g[i] * Math.LN10)
     ionic += 0.5 * p.z2[i] * c
-    species.push({
+    species[i] = {
       name: s.name, charge: s.charge,
       concentration: safe(c), log10: safe(ws.lc[i], -400),
       activity: safe(c * gamma), gamma: safe(gamma, 1),
-    })
+    }
   }
   const ionicStrength = p.fixedRootI >= 0 ? p.fixedRootI * p.fixedRootI : ionic
   const solids: SolidResult[] = m.solids.map((s, k) => ({
@@ -56,13 +59,12 @@ export function buildResult(ws: Workspace, state: SolverState, info: ReportInput
     ...(s.suppressed ? { suppressed: true } : {}),
   }))
   const components: ComponentResult[] = m.components.map((comp, j) => {
-    let dissolved = 0
-    for (let i = 0; i < p.nsp; i++) dissolved += p.nu[i * p.nc + j] * ws.c[i]
+    const dissolved = dissolvedOf[j]
     let inSolids = 0
     for (let k = 0; k < p.nsol; k++) if (state.active[k]) inSolids += p.solidNu[k * p.nc + j] * state.n[k]
     // Held activities (pH, pressure, excess) are reported as such; the rest as concentrations.
     const own = p.componentSpecies[j]
-    const free = own >= 0 && p.mode[j] !== MODE_FIXED_ACTIVITY ? ws.c[own] : Math.pow(10, state.x[j])
+    const free = own >= 0 && p.mode[j] !== MODE_FIXED_ACTIVITY ? ws.c[own] : Math.exp(state.x[j] * Math.LN10)
     return { name: comp.name, mode: comp.mode, total: safe(dissolved + inSolids), free: safe(free), dissolved: safe(dissolved) }
   })
   m.components.forEach((comp, j) => {
@@ -73,7 +75,7 @@ export function buildResult(ws: Workspace, state: SolverState, info: ReportInput
   const gases: GasResult[] = m.gases.map((g, k) => {
     let l = p.gasLogK[k]
     for (let j = 0; j < p.nc; j++) l += p.gasNu[k * p.nc + j] * state.x[j]
-    return { name: g.name, pressure: safe(Math.pow(10, l)), log10: safe(l, -400) }
+    return { name: g.name, pressure: safe(Math.exp(l * Math.LN10)), log10: safe(l, -400) }
   })
   const warnings = [...info.notes, ...rangeWarnings(ws, ionicStrength)]
   const hasH = p.hIndex >= 0

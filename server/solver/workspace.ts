@@ -34,6 +34,19 @@ export interface NewtonOutcome {
   singular?: boolean
 }
 
+/**
+ * A Matrix that ml-matrix's LuDecomposition factors in place: the
+ * decomposition starts by cloning its argument, and this clone is the matrix
+ * itself. The Jacobian is rebuilt before every factorisation, so nothing is
+ * lost, and the solve saves a copy (through a slow generator) and its
+ * garbage every iteration.
+ */
+export class InPlaceMatrix extends Matrix {
+  override clone(): this {
+    return this
+  }
+}
+
 /** Scratch arrays sized once per problem, reused by every iteration and every sweep point. */
 export class Workspace {
   readonly lc: Float64Array
@@ -69,7 +82,7 @@ export class Workspace {
   private readonly massNames: string[]
   private readonly chargeNames: string[]
   private readonly solidNames: string[]
-  private readonly matrices = new Map<number, Matrix>()
+  private readonly matrices = new Map<number, InPlaceMatrix>()
   private readonly rhs = new Map<number, Matrix>()
 
   constructor(readonly p: Problem) {
@@ -126,9 +139,10 @@ export class Workspace {
     this.dim = r + a + (this.hasU ? 1 : 0)
   }
 
-  matrix(dim: number): Matrix {
+  /** The Jacobian's matrix for this size; LuDecomposition overwrites it with its factors. */
+  matrix(dim: number): InPlaceMatrix {
     let m = this.matrices.get(dim)
-    if (!m) { m = new Matrix(dim, dim); this.matrices.set(dim, m) }
+    if (!m) { m = new InPlaceMatrix(dim, dim); this.matrices.set(dim, m) }
     return m
   }
 
