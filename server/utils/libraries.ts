@@ -1,77 +1,32 @@
 /**
  * Lab libraries: a system marked as a library can be imported by the other
  * systems of its lab with `use "slug"` (latest revision) or `use "slug" @ N`.
- * The compiler asks for libraries synchronously, so the revisions a source
- * names — and the ones those libraries name in turn — are loaded from the
- * database first, and the resolver answers from memory.
+ * Here: the resolver over the database, and who uses a library.
  */
 import { and, asc, desc, eq, inArray, max, ne } from 'drizzle-orm'
-import type { CompileOptions } from '../../shared/poise/index'
 import { findUses } from '../../shared/poise/index'
+import { preloadLibraries, type LibraryText, type ResolveLibrary } from '../../shared/utils/library-preload'
 import { tables, useDb } from './db'
 
-type ResolveLibrary = NonNullable<CompileOptions['resolveLibrary']>
-
-/** More distinct library revisions than any sane file needs; stops a pathological chain of uses. */
-const MAX_LOADED_REVISIONS = 64
-
-interface LoadedLibrary {
-  latest: number
-  sources: Map<number, string>
-}
-
 /**
- * Loads every library revision `source` reaches through `use` statements
- * (within `labId` only) and returns the compiler's resolver over them. A
- * missing library or revision resolves to null, so the compiler reports it
- * (P070 / P071) under the line that names it.
+ * The compiler's resolver for `source` in lab `labId`: every library revision
+ * the text reaches is loaded first. A missing library or revision resolves to
+ * null, so the compiler reports it (P070 / P071) under the line that names it.
  */
-export async function libraryResolverFor(labId: number, source: string): Promise<ResolveLibrary> {
-  const db = useDb()
-  const loaded = new Map<string, LoadedLibrary | null>()
-  const wanted = findUses(source).map((u) => ({ name: u.name, revision: u.revision }))
-  const seen = new Set<string>()
-  let loads = 0
-  while (wanted.length && loads < MAX_LOADED_REVISIONS) {
-    const next = wanted.shift()!
-    if (!loaded.has(next.name)) loaded.set(next.name, await loadLibraryHead(labId, next.name))
-    const library = loaded.get(next.name)
-    if (!library) continue
-    const number = next.revision ?? library.latest
-    const key = `${next.name}@${number}`
-    if (seen.has(key)) continue
-    seen.add(key)
-    loads += 1
-    let text = library.sources.get(number)
-    if (text === undefined) {
-      const [row] = await db.select({ source: tables.revisions.source }).from(tables.revisions)
-        .innerJoin(tables.systems, eq(tables.systems.id, tables.revisions.systemId))
-        .where(and(eq(tables.systems.labId, labId), eq(tables.systems.slug, next.name), eq(tables.revisions.number, number)))
-      if (!row) continue
-      text = row.source
-      library.sources.set(number, text)
-    }
-    for (const use of findUses(text)) wanted.push({ name: use.name, revision: use.revision })
-  }
-  return (name, revision) => {
-    const library = loaded.get(name)
-    if (!library) return null
-    const number = revision ?? library.latest
-    const text = library.sources.get(number)
-    return text === undefined ? null : { source: text, revision: number }
-  }
+export function libraryResolverFor(labId: number, source: string): Promise<ResolveLibrary> {
+  return preloadLibraries(source, (name, revision) => loadLibraryRevision(labId, name, revision))
 }
 
-/** The library system of the lab with that slug and its latest revision (with its text), or null. */
-async function loadLibraryHead(labId: number, slug: string): Promise<LoadedLibrary | null> {
-  const [row] = await useDb().select({ number: tables.revisions.number, source: tables.revisions.source })
+/** A revision (the latest when null) of the library system with that slug in the lab, or null. */
+async function loadLibraryRevision(labId: number, slug: string, revision: number | null): Promise<LibraryText | null> {
+  const isThatLibrary = and(eq(tables.systems.labId, labId), eq(tables.systems.slug, slug), eq(tables.systems.isLibrary, true))
+  const [row] = await useDb().select({ revision: tables.revisions.number, source: tables.revisions.source })
     .from(tables.revisions)
     .innerJoin(tables.systems, eq(tables.systems.id, tables.revisions.systemId))
-    .where(and(eq(tables.systems.labId, labId), eq(tables.systems.slug, slug), eq(tables.systems.isLibrary, true)))
+    .where(revision === null ? isThatLibrary : and(isThatLibrary, eq(tables.revisions.number, revision)))
     .orderBy(desc(tables.revisions.number))
     .limit(1)
-  if (!row) return null
-  return { latest: row.number, sources: new Map([[row.number, row.source]]) }
+  return row ?? null
 }
 
 export interface LibraryUse {
