@@ -28,6 +28,8 @@ export interface ModelChange {
   to: string | null
   /** For constants: new log K minus old (at the reference temperature). */
   deltaLogK?: number
+  /** For constants: the log10 formation constants from components behind `from` and `to`. */
+  logK?: { from: number; to: number }
   /** How large the change is, for ordering: log10 units for constants and totals. */
   size: number
   /** 1-based source lines in the old and new file, when the change has one. */
@@ -68,14 +70,26 @@ function componentValue(c: ModelComponent): string {
   }
 }
 
-interface Formed { name: string; logKRef: number; line: number; entity: ModelEntity; suppressed?: boolean }
+interface Formed { name: string; logKRef: number; line: number; entity: ModelEntity; suppressed?: boolean; written: string | null }
+
+/** Kinds whose number is the constant itself rather than its logarithm. */
+const LINEAR_KINDS = new Set(['K', 'beta', 'Ka', 'Ksp'])
+
+/** The constant as the file wrote it (`pKsp 19.66`), or null for a species no reaction of the file defines. */
+function writtenConstant(model: Model, name: string): string | null {
+  const reaction = model.reactions.find(r => r.defines === name)
+  if (!reaction) return null
+  return `${reaction.kind} ${LINEAR_KINDS.has(reaction.kind) ? reaction.value.toExponential(2) : fixed(reaction.value)}`
+}
 
 function formedOf(model: Model): Map<string, Formed> {
   const map = new Map<string, Formed>()
   // A component's free form is a species of the model too, with logK 0: it is reported as a component instead.
-  for (const s of model.species) if (s.componentIndex === null) map.set(`species:${s.name}`, { name: s.name, logKRef: s.logKRef, line: s.line, entity: 'species' })
-  for (const s of model.solids) map.set(`solid:${s.name}`, { name: s.name, logKRef: s.logKRef, line: s.line, entity: 'solid', suppressed: s.suppressed })
-  for (const g of model.gases) map.set(`gas:${g.name}`, { name: g.name, logKRef: g.logKRef, line: g.line, entity: 'gas' })
+  const entry = (name: string, logKRef: number, line: number, entity: ModelEntity, suppressed?: boolean): Formed =>
+    ({ name, logKRef, line, entity, suppressed, written: writtenConstant(model, name) })
+  for (const s of model.species) if (s.componentIndex === null) map.set(`species:${s.name}`, entry(s.name, s.logKRef, s.line, 'species'))
+  for (const s of model.solids) map.set(`solid:${s.name}`, entry(s.name, s.logKRef, s.line, 'solid', s.suppressed))
+  for (const g of model.gases) map.set(`gas:${g.name}`, entry(g.name, g.logKRef, g.line, 'gas'))
   return map
 }
 
@@ -96,10 +110,14 @@ function formationChanges(a: Model, b: Model): ModelChange[] {
     const delta = now.logKRef - old.logKRef
     // Constants are written with two or three decimals: differences below that are rounding of a rewritten reaction.
     if (Math.abs(delta) >= 5e-4) {
+      // As written when the text of the constant changed; else it moved through another reaction it is built from.
+      const asWritten = old.written !== null && now.written !== null && old.written !== now.written
       changes.push({
         kind: 'constant', entity: old.entity, name: old.name,
-        from: `log K ${fixed(old.logKRef)}`, to: `log K ${fixed(now.logKRef)}`,
-        deltaLogK: delta, size: Math.abs(delta), fromLine: old.line, toLine: now.line,
+        from: asWritten ? old.written : `log K ${fixed(old.logKRef)}`,
+        to: asWritten ? now.written : `log K ${fixed(now.logKRef)}`,
+        deltaLogK: delta, logK: { from: old.logKRef, to: now.logKRef },
+        size: Math.abs(delta), fromLine: old.line, toLine: now.line,
       })
     }
   }
@@ -160,8 +178,9 @@ function citationChanges(a: Model, b: Model): ModelChange[] {
   for (const now of b.reactions) {
     const old = before.get(now.defines)
     if (!old || old.cite === now.cite) continue
+    const entity: ModelEntity = b.solids.some(x => x.name === now.defines) ? 'solid' : b.gases.some(x => x.name === now.defines) ? 'gas' : 'species'
     changes.push({
-      kind: 'citation', entity: 'species', name: now.defines,
+      kind: 'citation', entity, name: now.defines,
       from: old.cite ?? 'no citation', to: now.cite ?? 'no citation',
       size: now.cite === null ? 0.5 : 0, fromLine: old.line, toLine: now.line,
     })

@@ -37,6 +37,8 @@ export interface SolidChange {
   change: 'appears' | 'vanishes'
   /** The sweep values where it does so (empty for a single solve). */
   at: number[]
+  /** The same points as runs of neighbouring sweep points, [first, last] each, for a short description. */
+  ranges: [number, number][]
 }
 
 export interface ResultsDiff {
@@ -91,6 +93,17 @@ function pairs(a: SolvedAnswer, b: SolvedAnswer): { from: Result; to: Result; at
   return [{ from: a as Result, to: b as Result, at: null }]
 }
 
+/** Runs of consecutive indices, as [first, last] pairs. */
+function runsOf(indices: number[]): [number, number][] {
+  const runs: [number, number][] = []
+  for (const i of indices) {
+    const last = runs[runs.length - 1]
+    if (last && i === last[1] + 1) last[1] = i
+    else runs.push([i, i])
+  }
+  return runs
+}
+
 /** The change with the largest size along the sweep (the first one on ties). */
 function largest<T>(items: T[], size: (t: T) => number): T | null {
   let best: T | null = null
@@ -114,8 +127,9 @@ export function diffResults(a: SolvedAnswer, b: SolvedAnswer): ResultsDiff {
     : [{ from: isSweep(a) ? a.points[0]! : a, to: isSweep(b) ? b.points[0]! : b, at: null }]
   const withPoints = points.filter(p => p.from && p.to)
 
-  // A model without H+ has no pH to compare (the solver reports one anyway).
-  const withProton = withPoints.filter(p => speciesAt(p.from, 'H+') !== null && speciesAt(p.to, 'H+') !== null)
+  // A model without H+ has no pH to compare (the solver reports one anyway); along a pH sweep the pH is the given variable.
+  const pHSwept = comparable && isSweep(a) && a.variable === 'pH'
+  const withProton = pHSwept ? [] : withPoints.filter(p => speciesAt(p.from, 'H+') !== null && speciesAt(p.to, 'H+') !== null)
   const pH = largest(withProton.map(p => ({ from: p.from.pH, to: p.to.pH, change: p.to.pH - p.from.pH, at: p.at })), c => Math.abs(c.change))
   const ionicStrength = largest(
     withPoints.map(p => ({ from: p.from.ionicStrength, to: p.to.ionicStrength, change: Math.max(p.to.ionicStrength, NEGLIGIBLE) / Math.max(p.from.ionicStrength, NEGLIGIBLE), at: p.at })),
@@ -138,16 +152,19 @@ export function diffResults(a: SolvedAnswer, b: SolvedAnswer): ResultsDiff {
   for (const name of solidNames) {
     const appears: number[] = []
     const vanishes: number[] = []
-    let appearsSingle = false
-    let vanishesSingle = false
-    for (const p of withPoints) {
+    for (let i = 0; i < withPoints.length; i++) {
+      const p = withPoints[i]!
       const was = p.from.solids.find(s => s.name === name)?.present ?? false
       const is = p.to.solids.find(s => s.name === name)?.present ?? false
-      if (!was && is) { if (p.at === null) appearsSingle = true; else appears.push(p.at) }
-      if (was && !is) { if (p.at === null) vanishesSingle = true; else vanishes.push(p.at) }
+      if (!was && is) appears.push(i)
+      if (was && !is) vanishes.push(i)
     }
-    if (appears.length || appearsSingle) solids.push({ name, change: 'appears', at: appears })
-    if (vanishes.length || vanishesSingle) solids.push({ name, change: 'vanishes', at: vanishes })
+    for (const [change, indices] of [['appears', appears], ['vanishes', vanishes]] as const) {
+      if (!indices.length) continue
+      const value = (i: number) => withPoints[i]!.at
+      const at = indices.map(value).filter((v): v is number => v !== null)
+      solids.push({ name, change, at, ranges: at.length ? runsOf(indices).map(([first, last]) => [value(first)!, value(last)!]) : [] })
+    }
   }
   solids.sort((x, y) => y.at.length - x.at.length || x.name.localeCompare(y.name))
 

@@ -38,7 +38,7 @@ describe('review in the browser', () => {
     await mine.waitForURL(url(`/labs/${lab}/systems/ammine/compare?from=1&to=2`))
     const modelDiff = mine.getByTestId('model-diff')
     await modelDiff.waitFor()
-    await expect(modelDiff.textContent()).resolves.toMatch(/CuNH₃²⁺.*log K 4\.00.*log K 5\.00.*\+1\.00/)
+    await expect(modelDiff.textContent()).resolves.toMatch(/CuNH₃²⁺.*logbeta 4\.00.*logbeta 5\.00.*\+1\.00/)
     await expect(mine.getByTestId('species-changes').textContent()).resolves.toMatch(/Cu²⁺/)
     await mine.locator('.cm-mergeView').waitFor()
     await screenshot(mine, 'review-compare-editor')

@@ -34,7 +34,7 @@ describe('compare', () => {
     expect(answer.body.from.source).toBe(ammine('4.0'))
     expect(answer.body.to.source).toBe(ammine('5.0'))
     expect(answer.body.problems).toEqual([])
-    expect(answer.body.modelDiff).toEqual([expect.objectContaining({ kind: 'constant', name: 'CuNH3^2+', from: 'log K 4.00', to: 'log K 5.00' })])
+    expect(answer.body.modelDiff).toEqual([expect.objectContaining({ kind: 'constant', name: 'CuNH3^2+', from: 'logbeta 4.00', to: 'logbeta 5.00' })])
     expect(answer.body.modelDiff[0].deltaLogK).toBeCloseTo(1, 9)
     // Closed form of a 1:1 complex at fixed free ligand (mass action and mass balance, common practice):
     // [M] = M_T / (1 + β[L]), so β from 1e4 to 1e5 at [L] = 1e-3 moves [M] by 11/101 and [ML] by (100/101)/(10/11).
@@ -83,7 +83,7 @@ sweep pH from 4 to 9 step 1
     expect(diff).toMatchObject({ kind: 'sweep', sweep: 'pH' })
     // With pKsp 19.66 and pKw 14, 1 mmol/L Cu2+ is saturated from pH 14 − (19.66 − 3)/2 ≈ 5.67 up
     // (solubility product, common practice): the hydroxide forms at pH 6, 7, 8 and 9.
-    expect(diff.solids).toEqual([{ name: 'Cu(OH)2(s)', change: 'appears', at: [6, 7, 8, 9] }])
+    expect(diff.solids).toEqual([{ name: 'Cu(OH)2(s)', change: 'appears', at: [6, 7, 8, 9], ranges: [[6, 9]] }])
     // Free copper falls most at the top of the sweep, where [Cu2+] = Ksp / [OH-]^2 is smallest.
     const copper = diff.species.find((s: any) => s.name === 'Cu^2+')
     expect(copper.at).toBe(9)

@@ -6,12 +6,22 @@ describe('model diff', () => {
   it('reports a raised formation constant with old, new and the change in log K', () => {
     const changes = diffModels(compiled(copperAmmine(4)), compiled(copperAmmine(5)))
     expect(changes).toHaveLength(1)
-    expect(changes[0]).toMatchObject({ kind: 'constant', entity: 'species', name: 'CuNH3^2+', from: 'log K 4.00', to: 'log K 5.00', toLine: 6 })
+    expect(changes[0]).toMatchObject({ kind: 'constant', entity: 'species', name: 'CuNH3^2+', from: 'logbeta 4.00', to: 'logbeta 5.00', logK: { from: 4, to: 5 }, toLine: 6 })
     expect(changes[0]!.deltaLogK).toBeCloseTo(1, 10)
   })
 
   it('finds nothing between a model and itself', () => {
     expect(diffModels(compiled(copperAmmine(4)), compiled(copperAmmine(4)))).toEqual([])
+  })
+
+  it('shows a solubility product as written, with the change of the formation constant behind it', () => {
+    const solid = (pKsp: string) => copperAmmine(4, `reaction Cu(OH)2(s) <=> Cu^2+ + 2 OH-  pKsp ${pKsp}  cite "demo value"\nreaction H2O <=> H+ + OH-  pKw 14.00  cite "demo value"\ncomponent H+ pH 7`)
+    const [change] = diffModels(compiled(solid('19.66')), compiled(solid('19.32')))
+    expect(change).toMatchObject({ kind: 'constant', entity: 'solid', from: 'pKsp 19.66', to: 'pKsp 19.32' })
+    const recited = diffModels(compiled(solid('19.66')), compiled(solid('19.66').replace('pKsp 19.66  cite "demo value"', 'pKsp 19.66  cite "checked"')))
+    expect(recited).toEqual([expect.objectContaining({ kind: 'citation', entity: 'solid', name: 'Cu(OH)2(s)', from: 'demo value', to: 'checked' })])
+    // A smaller pKsp is a more soluble solid: its formation constant from the ions falls by the same 0.34 (definition of Ksp, common practice).
+    expect(change!.deltaLogK).toBeCloseTo(-0.34, 9)
   })
 
   it('does not call a constant rewritten in another form a change', () => {
