@@ -168,6 +168,9 @@ function conditionChanges(a: Model, b: Model): ModelChange[] {
   const ionic = (m: Model) => m.fixedIonicStrength === null ? 'from the species' : `${quantity(m.fixedIonicStrength)} mol/L`
   condition('ionic strength', ionic(a), ionic(b), CONDITION_SIZE)
   condition('sweep', sweepText(a), sweepText(b), 1)
+  // Which library revisions the constants came from: a moved library can change many constants at once.
+  const libraries = (m: Model) => m.libraries.map(l => `${l.name} @ ${l.revision}`).sort().join(', ') || 'none'
+  condition('libraries used', libraries(a), libraries(b), CONDITION_SIZE)
   return changes
 }
 

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { diffModels } from '../../../shared/diff/model-diff'
+import { compile } from '../../../shared/poise/index'
 import { compiled, copperAmmine } from './fixtures'
 
 describe('model diff', () => {
@@ -60,5 +61,18 @@ describe('model diff', () => {
     const solid = 'reaction Cu(OH)2(s) <=> Cu^2+ + 2 OH-  pKsp 19.66  cite "demo value"\nreaction H2O <=> H+ + OH-  pKw 14.00  cite "demo value"\ncomponent H+ pH 7'
     const changes = diffModels(compiled(copperAmmine(4, `${solid}\nsolid Cu(OH)2(s) suppressed`)), compiled(copperAmmine(4, solid)))
     expect(changes).toEqual([expect.objectContaining({ kind: 'assumption', entity: 'solid', name: 'Cu(OH)2(s)', from: 'never precipitates', to: 'may precipitate' })])
+  })
+
+  it('reports a library moved to another revision, and the constant it changed', () => {
+    const library = (pKa: string) => `system "acids"\ncomponent H+ balance\ncomponent F- total 1 mM\nreaction H2O <=> H+ + OH- pKw 14 cite "demo value"\nreaction HF <=> F- + H+ pKa ${pKa} cite "demo value"\n`
+    const revisions: Record<number, string> = { 1: library('3.17'), 2: library('3.20') }
+    const resolveLibrary = (name: string, revision: number | null) => name === 'acids' && revision !== null && revisions[revision] ? { source: revisions[revision]!, revision } : null
+    const file = (revision: number) => `system "rinse"\ncomponent H+ balance\ncomponent F- total 1 mM\ncomponent Na+ total 1 mM\nuse "acids" @ ${revision}\n`
+    const [a, b] = [1, 2].map(n => compile(file(n), { resolveLibrary }).model!)
+    const changes = diffModels(a!, b!)
+    expect(changes.map(c => [c.kind, c.name, c.from, c.to])).toEqual([
+      ['condition', 'libraries used', 'acids @ 1', 'acids @ 2'],
+      ['constant', 'HF', 'pKa 3.17', 'pKa 3.20'],
+    ])
   })
 })

@@ -16,9 +16,10 @@ const RevisionNumber = z.coerce.number({ error: 'Give revision numbers, e.g. ?fr
   .positive({ error: 'Revision numbers start at 1' })
 const Query = z.object({ from: RevisionNumber, to: RevisionNumber })
 
-function compiledOrProblem(source: string, number: number, problems: string[]): Model | null {
+/** The compiled model of a revision, with the lab's libraries it uses, or null with the reason in `problems`. */
+async function compiledOrProblem(labId: number, source: string, number: number, problems: string[]): Promise<Model | null> {
   try {
-    return compileForSolve(source).model
+    return compileForSolve(source, { resolveLibrary: await libraryResolverFor(labId, source) }).model
   } catch (error) {
     problems.push(`Revision ${number} cannot be solved: ${(error as { message?: string }).message ?? String(error)}`)
     return null
@@ -36,8 +37,8 @@ export default defineEventHandler(async (event) => {
   const [from, to] = await Promise.all([findRevision(access.system.id, query.data.from), findRevision(access.system.id, query.data.to)])
 
   const problems: string[] = []
-  const fromModel = compiledOrProblem(from.source, from.number, problems)
-  const toModel = compiledOrProblem(to.source, to.number, problems)
+  const fromModel = await compiledOrProblem(access.lab.id, from.source, from.number, problems)
+  const toModel = await compiledOrProblem(access.lab.id, to.source, to.number, problems)
   const modelDiff: ModelChange[] | null = fromModel && toModel ? diffModels(fromModel, toModel) : null
 
   let resultsDiff: ResultsDiff | null = null
