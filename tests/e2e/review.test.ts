@@ -78,5 +78,13 @@ describe('review in the browser', () => {
     await mine.goto(url(`/labs/${lab}/systems/ammine/history`))
     await expect(mine.locator('[data-revision="2"]').textContent()).resolves.toContain('approved')
     await screenshot(mine, 'review-history-after')
+
+    // Restoring revision 1 from the history saves its text as revision 3; revision 2 stays.
+    await mine.locator('[data-revision="1"]').getByRole('button', { name: 'restore' }).click()
+    await mine.getByRole('status').filter({ hasText: 'Revision 1 restored as revision 3.' }).waitFor()
+    await expect(mine.locator('[data-revision="3"]').textContent()).resolves.toContain('Restore revision 1')
+    await expect(mine.locator('[data-revision]').count()).resolves.toBe(3)
+    const restored = await api(`/api/labs/${lab}/systems/ammine/revisions/3`, { cookie: reviewer.cookie })
+    expect(restored.body.revision.source).toBe(ammine('4.0'))
   })
 })
