@@ -4,7 +4,7 @@
  * solids, and their Jacobian.
  */
 import type { Matrix } from 'ml-matrix'
-import { dLogGammaDu, logGamma } from './activity'
+import { ACTIVITY_DEBYE_HUCKEL, dLogGammaDu, logGamma } from './activity'
 import { MODE_BALANCE, MODE_FIXED_CONCENTRATION, MODE_TOTAL } from './problem'
 import type { SolverState, Workspace } from './workspace'
 
@@ -22,10 +22,20 @@ export function computeSpecies(ws: Workspace, state: SolverState): void {
   ws.evaluatedY.set(state.y)
   ws.evaluatedU = state.u
   const uu = p.fixedRootI >= 0 ? p.fixedRootI : state.u
-  for (let i = 0; i < nsp; i++) {
-    const ba = p.B * p.ionSize[i]
-    ws.g[i] = logGamma(p.activity, p.A, ba, p.z2[i], uu)
-    ws.dlc[i] = -dLogGammaDu(p.activity, p.A, ba, p.z2[i], uu)
+  if (p.activity === ACTIVITY_DEBYE_HUCKEL) {
+    for (let i = 0; i < nsp; i++) {
+      const ba = p.B * p.ionSize[i]
+      ws.g[i] = logGamma(p.activity, p.A, ba, p.z2[i], uu)
+      ws.dlc[i] = -dLogGammaDu(p.activity, p.A, ba, p.z2[i], uu)
+    }
+  } else {
+    // Davies and ideal: log10 γ is z² times one function of u, evaluated once.
+    const perZ2 = logGamma(p.activity, p.A, 0, 1, uu)
+    const dPerZ2 = -dLogGammaDu(p.activity, p.A, 0, 1, uu)
+    for (let i = 0; i < nsp; i++) {
+      ws.g[i] = p.z2[i] * perZ2
+      ws.dlc[i] = p.z2[i] * dPerZ2
+    }
   }
   // Components known or solved by concentration have log10 a_j = log10 c_j +
   // log10 γ_j(u); dxdu carries that dependence into the Jacobian.
@@ -69,7 +79,7 @@ export function speciesAreOf(ws: Workspace, state: SolverState): boolean {
 export function computeResiduals(ws: Workspace, state: SolverState, F: Float64Array, scale: Float64Array): void {
   const { x, n, u } = state
   const p = ws.p
-  const { nc, nsp, nu, charge, z2 } = p
+  const { nc, nsp, charge, z2, colStart, colSpecies, colNu } = p
   const c = ws.c
   const nr = ws.nUnknownComponents
   for (let r = 0; r < nr; r++) {
@@ -79,10 +89,7 @@ export function computeResiduals(ws: Workspace, state: SolverState, F: Float64Ar
     if (p.mode[j] === MODE_BALANCE) {
       for (let i = 0; i < nsp; i++) { const q = charge[i] * c[i]; sum += q; mag += Math.abs(q) }
     } else {
-      for (let i = 0; i < nsp; i++) {
-        const v = nu[i * nc + j]
-        if (v !== 0) { const q = v * c[i]; sum += q; mag += Math.abs(q) }
-      }
+      for (let e = colStart[j]; e < colStart[j + 1]; e++) { const q = colNu[e] * c[colSpecies[e]]; sum += q; mag += Math.abs(q) }
       for (let a = 0; a < ws.nActive; a++) {
         const s = ws.rowSolid[a]
         const q = p.solidNu[s * nc + j] * n[s]

@@ -17,7 +17,7 @@ const PRESOLVE_PASSES = 30
  */
 export function presolve(ws: Workspace, state: SolverState): void {
   const p = ws.p
-  const { nc, nsp, nu } = p
+  const { nc, colStart, colSpecies, colNu } = p
   for (let pass = 0; pass < PRESOLVE_PASSES; pass++) {
     computeSpecies(ws, state)
     let moved = false
@@ -26,10 +26,10 @@ export function presolve(ws: Workspace, state: SolverState): void {
       let sum = 0
       let nuMax = 0
       let positive = true
-      for (let i = 0; i < nsp; i++) {
-        const v = nu[i * nc + j]
+      for (let e = colStart[j]; e < colStart[j + 1]; e++) {
+        const v = colNu[e]
         if (v < 0) { positive = false; break }
-        if (v > 0) { sum += v * ws.c[i]; nuMax = Math.max(nuMax, v) }
+        sum += v * ws.c[colSpecies[e]]; nuMax = Math.max(nuMax, v)
       }
       if (!positive || nuMax === 0 || !(sum > 0) || !Number.isFinite(sum)) continue
       const change = Math.log10(p.total[j] / sum) / nuMax

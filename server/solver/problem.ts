@@ -31,6 +31,10 @@ export interface Problem {
   nzStart: Int32Array
   nzComponent: Int32Array
   nzNu: Float64Array
+  /** The same by columns: component j appears in species colSpecies[colStart[j] … colStart[j+1]−1]. */
+  colStart: Int32Array
+  colSpecies: Int32Array
+  colNu: Float64Array
   logK: Float64Array
   charge: Float64Array
   z2: Float64Array
@@ -131,6 +135,9 @@ export function buildProblem(model: Model): { problem: Problem } | { error: stri
     nzStart: new Int32Array(nsp + 1),
     nzComponent: new Int32Array(0),
     nzNu: new Float64Array(0),
+    colStart: new Int32Array(nc + 1),
+    colSpecies: new Int32Array(0),
+    colNu: new Float64Array(0),
     logK: new Float64Array(nsp),
     charge: new Float64Array(nsp),
     z2: new Float64Array(nsp),
@@ -168,6 +175,15 @@ export function buildProblem(model: Model): { problem: Problem } | { error: stri
   p.nzStart[nsp] = nzComponent.length
   p.nzComponent = Int32Array.from(nzComponent)
   p.nzNu = Float64Array.from(nzNu)
+  const colSpecies: number[] = []
+  const colNu: number[] = []
+  for (let j = 0; j < nc; j++) {
+    p.colStart[j] = colSpecies.length
+    for (let i = 0; i < nsp; i++) if (p.nu[i * nc + j] !== 0) { colSpecies.push(i); colNu.push(p.nu[i * nc + j]) }
+  }
+  p.colStart[nc] = colSpecies.length
+  p.colSpecies = Int32Array.from(colSpecies)
+  p.colNu = Float64Array.from(colNu)
   solids.forEach((s, k) => {
     for (let j = 0; j < nc; j++) p.solidNu[k * nc + j] = s.nu[j]
     p.solidLogK[k] = s.logK

@@ -262,16 +262,20 @@ function sideText(terms: PreparedTerm[]): string {
 
 function prepareReaction(r: ReactionStatement, report: Reporter, sources: Record<string, string>, isComponent: (n: string) => boolean): PreparedReaction | null {
   let ok = true
-  const side = (terms: ReactionStatement['left']): PreparedTerm[] => terms.flatMap((t) => {
-    const f = formulaOf(t.formula, report)
-    if (!f) { ok = false; return [] }
-    if (!(t.coefficient > 0) || !Number.isFinite(t.coefficient)) {
-      report.error('P010', 'a coefficient must be a positive number', t.coefficientTok ?? t.formula)
-      ok = false
-      return []
+  const side = (terms: ReactionStatement['left']): PreparedTerm[] => {
+    const out: PreparedTerm[] = []
+    for (const t of terms) {
+      const f = formulaOf(t.formula, report)
+      if (!f) { ok = false; continue }
+      if (!(t.coefficient > 0) || !Number.isFinite(t.coefficient)) {
+        report.error('P010', 'a coefficient must be a positive number', t.coefficientTok ?? t.formula)
+        ok = false
+        continue
+      }
+      out.push({ coefficient: t.coefficient, formula: f, tok: t.formula })
     }
-    return [{ coefficient: t.coefficient, formula: f, tok: t.formula }]
-  })
+    return out
+  }
   const left = side(r.left)
   const right = side(r.right)
   if (!ok) return null

@@ -103,17 +103,26 @@ export function checkComponent(stmt: ComponentStatement, f: ParsedFormula, repor
  * and charge. Returns the indexes of dependent components.
  */
 export function dependentComponents(components: ModelComponent[]): number[] {
-  const keys = [...new Set(components.flatMap((c) => Object.keys(c.elements)).concat(['H', 'O']))].sort()
-  const vector = (elements: Record<string, number>, charge: number) => [...keys.map((k) => elements[k] ?? 0), charge]
+  const keySet = new Set<string>()
+  for (const c of components) for (const k in c.elements) keySet.add(k)
+  keySet.add('H').add('O')
+  const keys = [...keySet].sort()
+  const vector = (elements: Record<string, number>, charge: number) => {
+    const v = new Array<number>(keys.length + 1)
+    for (let k = 0; k < keys.length; k++) v[k] = elements[keys[k]!] ?? 0
+    v[keys.length] = charge
+    return v
+  }
   const basis: number[][] = []
   const pivots: number[] = []
-  const reduce = (v: number[]): number[] => {
-    const r = [...v]
-    basis.forEach((b, i) => {
+  // Reduces v in place against the basis (v is a fresh vector).
+  const reduce = (r: number[]): number[] => {
+    for (let i = 0; i < basis.length; i++) {
+      const b = basis[i]!
       const p = pivots[i]!
       const factor = r[p]! / b[p]!
       if (factor !== 0) for (let k = 0; k < r.length; k++) r[k]! -= factor * b[k]!
-    })
+    }
     return r
   }
   const addToBasis = (v: number[]): boolean => {

@@ -5,7 +5,10 @@
 import { Lexer, type IToken } from 'chevrotain'
 import { allTokens } from './tokens'
 
-const poiseLexer = new Lexer(allTokens, { ensureOptimizations: false, positionTracking: 'full' })
+// Offsets and start lines are all anything reads (diagnostics compute their
+// own end line and column), and the first-character optimisation must hold
+// so a token type is not tried at every position.
+const poiseLexer = new Lexer(allTokens, { ensureOptimizations: true, positionTracking: 'onlyStart' })
 
 export interface LexedToken {
   /** The chevrotain token name (see grammar/README.md, "Token names"). */

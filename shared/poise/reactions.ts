@@ -40,27 +40,33 @@ export function logKFromConstant(kind: ConstantKind, value: number): number | nu
   }
 }
 
-function sideSum(terms: PreparedTerm[]): { elements: Map<string, number>; charge: number } {
+/** Element counts and charge of the left side minus the right side. */
+function imbalance(left: PreparedTerm[], right: PreparedTerm[]): { elements: Map<string, number>; leftCharge: number; rightCharge: number } {
   const elements = new Map<string, number>()
-  let charge = 0
-  for (const t of terms) {
-    for (const [el, n] of Object.entries(t.formula.elements)) elements.set(el, (elements.get(el) ?? 0) + n * t.coefficient)
-    charge += t.formula.charge * t.coefficient
+  let leftCharge = 0
+  let rightCharge = 0
+  for (const t of left) {
+    const counts = t.formula.elements
+    for (const el in counts) elements.set(el, (elements.get(el) ?? 0) + counts[el]! * t.coefficient)
+    leftCharge += t.formula.charge * t.coefficient
   }
-  return { elements, charge }
+  for (const t of right) {
+    const counts = t.formula.elements
+    for (const el in counts) elements.set(el, (elements.get(el) ?? 0) - counts[el]! * t.coefficient)
+    rightCharge += t.formula.charge * t.coefficient
+  }
+  return { elements, leftCharge, rightCharge }
 }
 
 const fmt = (n: number) => String(Number(n.toPrecision(10)))
 
 /** Reports element and charge imbalance; true when the reaction balances. */
 export function checkBalance(left: PreparedTerm[], right: PreparedTerm[], stmt: ReactionStatement, report: Reporter): boolean {
-  const l = sideSum(left)
-  const r = sideSum(right)
+  const net = imbalance(left, right)
   const diffs: string[] = []
-  const symbols = [...new Set([...l.elements.keys(), ...r.elements.keys()])].sort()
-  for (const el of symbols) {
-    const d = (l.elements.get(el) ?? 0) - (r.elements.get(el) ?? 0)
-    if (Math.abs(d) > 1e-9) diffs.push(d > 0 ? `left side has ${fmt(d)} more ${el} than right` : `right side has ${fmt(-d)} more ${el} than left`)
+  // Messages only for a reaction that does not balance, in element order.
+  for (const [el, d] of [...net.elements].filter(([, d]) => Math.abs(d) > 1e-9).sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0))) {
+    diffs.push(d > 0 ? `left side has ${fmt(d)} more ${el} than right` : `right side has ${fmt(-d)} more ${el} than left`)
   }
   let ok = true
   const at = { from: stmt.left[0]!.formula.from, to: stmt.constantKind.from > 0 ? lastFormulaEnd(stmt) : stmt.to }
@@ -68,10 +74,10 @@ export function checkBalance(left: PreparedTerm[], right: PreparedTerm[], stmt: 
     report.error('P020', `the reaction does not balance: ${diffs.join('; ')}`, at)
     ok = false
   }
-  const dz = l.charge - r.charge
+  const dz = net.leftCharge - net.rightCharge
   if (Math.abs(dz) > 1e-9) {
     const sign = (z: number) => (z > 0 ? `+${fmt(z)}` : fmt(z))
-    report.error('P021', `the charge does not balance: left side ${sign(l.charge)}, right side ${sign(r.charge)} (differs by ${fmt(Math.abs(dz))})`, at)
+    report.error('P021', `the charge does not balance: left side ${sign(net.leftCharge)}, right side ${sign(net.rightCharge)} (differs by ${fmt(Math.abs(dz))})`, at)
     ok = false
   }
   return ok
@@ -131,7 +137,9 @@ function netCoefficients(r: PreparedReaction): Map<string, { s: number; term: Pr
 }
 
 function unknownsOf(r: PreparedReaction, known: Map<string, Known>): string[] {
-  return [...netCoefficients(r).keys()].filter((name) => !known.has(name))
+  const out: string[] = []
+  for (const name of netCoefficients(r).keys()) if (!known.has(name)) out.push(name)
+  return out
 }
 
 /** Solves reaction r for its one unknown species and records it. */
