@@ -16,6 +16,7 @@ import type { Diagnostic } from '../shared/poise/diagnostics'
 import type { Model } from '../shared/poise/model'
 import type { Result, SweepResult } from '../shared/types/result'
 import { distributableComponents, type StoichiometryModel } from '../shared/results/share'
+import { diagramPrefsKey, parseDiagramPrefs } from '../shared/results/diagramPrefs'
 import { labRoleAtLeast, type LabRole } from '../shared/utils/roles'
 
 export interface SavedRevision {
@@ -122,6 +123,17 @@ export function richestComponent(model: StoichiometryModel): string | null {
     }
   }
   return best
+}
+
+/** The component to show first: the one the diagram remembers for this system (browser only), else the richest. */
+export function startingComponent(model: StoichiometryModel, systemKey: string): string | null {
+  let remembered: string | undefined
+  try {
+    remembered = typeof window === 'undefined' ? undefined : parseDiagramPrefs(window.localStorage.getItem(diagramPrefsKey(systemKey))).component
+  } catch {
+    // Storage refused: nothing remembered.
+  }
+  return remembered ?? richestComponent(model)
 }
 
 type Fetcher = <T>(url: string, options?: { method?: string; body?: unknown }) => Promise<T>

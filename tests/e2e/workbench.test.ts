@@ -112,6 +112,13 @@ describe('the workbench', () => {
     await expect(page.locator('[data-test=report-source]').textContent()).resolves.toContain('sweep total Na+ from 100 mmol/L')
     await page.getByText('These numbers come from a model').waitFor()
     await screenshot(page, 'workbench-report')
+    // On paper the controls go: no filter box, no download buttons, no navigation.
+    await page.emulateMedia({ media: 'print' })
+    await expect(page.locator('[data-test=species-filter]').isVisible()).resolves.toBe(false)
+    await expect(page.locator('[data-test=export-svg]').isVisible()).resolves.toBe(false)
+    await expect(page.locator('[data-test=print]').isVisible()).resolves.toBe(false)
+    await expect(page.locator('[data-test=constants]').isVisible()).resolves.toBe(true)
+    await screenshot(page, 'workbench-report-print')
   })
 
   it('lets a viewer run the saved revision but not edit or save it', async () => {

@@ -32,7 +32,15 @@ function describe(slug: string, source: string): ExampleView {
     if (/^constants\b/i.test(text)) break
     if (text) comment.push(text)
   }
-  return { slug, title, summary: comment.join(' '), source }
+  return { slug, title, summary: comment.length ? comment.join(' ') : outline(lines), source }
+}
+
+/** For a file whose opening comment is only provenance: its components and its sweep. */
+function outline(lines: string[]): string {
+  const components = lines.map((line) => /^\s*component\s+(\S+)/.exec(line)?.[1]).filter((name): name is string => Boolean(name))
+  const sweep = lines.find((line) => /^\s*sweep\s/.test(line))?.trim()
+  return [components.length ? `Components ${components.join(', ')}` : '', sweep ? `sweep: ${sweep.replace(/^sweep\s+/, '')}` : '']
+    .filter(Boolean).join('; ')
 }
 
 export async function readExamples(): Promise<ExampleView[]> {

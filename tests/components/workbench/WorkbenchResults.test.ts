@@ -77,4 +77,14 @@ describe('WorkbenchResults', () => {
     await nextTick()
     expect(wrapper.find('[data-test=report-link]').attributes('href')).toBe('/labs/demo/systems/buffer/report?run=31&point=1')
   })
+
+  it('starts from the component the diagram remembers for this system', async () => {
+    window.localStorage.setItem('equipoise:diagram:demo/buffer', JSON.stringify({ kind: 'distribution', component: 'Na+' }))
+    const store = useWorkbenchStore()
+    store.open(answer)
+    fetcher.mockResolvedValueOnce({ id: 32, revision: 2, status: 'ok', kind: 'single', solverVersion: '1.0.0', timingMs: 9, createdAt: '2026-12-01T10:05:00.000Z', createdBy: 'Ann', failedPoints: 0, result: point(7.2) })
+    await store.run()
+    const wrapper = mount(WorkbenchResults, { global: { stubs } })
+    expect((wrapper.find('[data-test=share-component]').element as HTMLSelectElement).value).toBe('Na+')
+  })
 })
