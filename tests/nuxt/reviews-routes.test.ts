@@ -17,7 +17,10 @@ beforeAll(async () => {
   lab = await makeLab(owner, [{ who: editor, role: 'editor' }, { who: reviewer, role: 'reviewer' }, { who: viewer, role: 'viewer' }])
   const system = `/api/labs/${lab}/systems/rinse`
   expect((await api(`/api/labs/${lab}/systems`, { method: 'POST', cookie: editor.cookie, body: { title: 'Rinse', slug: 'rinse', source: 'system "Rinse"\ncomponent H+ pH 7\n' } })).status).toBe(201)
-  expect((await api(system, { method: 'PATCH', cookie: editor.cookie, body: { source: 'system "Rinse"\ncomponent H+ pH 8\n# rinse at pH 8\n', baseRevision: 1 } })).status).toBe(200)
+  // Revisions 2, 3 and 4, so each test below asks for a review of its own pair.
+  for (const [base, pH] of [[1, 8], [2, 8.5], [3, 9]]) {
+    expect((await api(system, { method: 'PATCH', cookie: editor.cookie, body: { source: `system "Rinse"\ncomponent H+ pH ${pH}\n# rinse at pH ${pH}\n`, baseRevision: base } })).status).toBe(200)
+  }
 })
 
 async function request(by: SignedIn, reviewerId: number, extra: Record<string, unknown> = {}) {
@@ -34,10 +37,14 @@ describe('reviews', () => {
     expect((await api('/api/reviews/waiting', { cookie: editor.cookie })).body.waiting).toEqual([])
     expect((await api('/api/reviews/waiting', { cookie: editor.cookie })).body.requested[0].id).toBe(asked.body.review.id)
     const history = await api(`/api/labs/${lab}/systems/rinse/revisions`, { cookie: viewer.cookie })
-    expect(history.body.revisions[0].reviews).toEqual([{ id: asked.body.review.id, state: 'open', against: 1, reviewer: reviewer.user.name }])
+    expect(history.body.revisions.find((r: any) => r.number === 2).reviews).toEqual([{ id: asked.body.review.id, state: 'open', against: 1, reviewer: reviewer.user.name }])
     const mail = await waitForMail(reviewer.user.email, /^Review requested: Rinse, revision 2 against 1$/)
     expect(mail.text).toContain(`/labs/${lab}/reviews/${asked.body.review.id}`)
     expect(mail.text).toContain('pH raised for the new line')
+    // Asking the same person again for the same pair while it is open points to the open review.
+    const again = await request(editor, reviewer.user.id)
+    expect(again.status).toBe(409)
+    expect(again.body.message).toBe(`${reviewer.user.name} already has this review open (review ${asked.body.review.id}); add a comment there instead`)
   })
 
   it('refuses a reviewer who is a viewer, the requester themself, an outsider, and equal revisions, saying what to change', async () => {
@@ -51,7 +58,7 @@ describe('reviews', () => {
   })
 
   it('takes comments on a line of either side from reviewers, refusing viewers and lines past the end', async () => {
-    const id = (await request(editor, reviewer.user.id)).body.review.id
+    const id = (await request(editor, reviewer.user.id, { to: 3 })).body.review.id
     const url = `${reviews()}/${id}/comments`
     const onNew = await api(url, { method: 'POST', cookie: reviewer.cookie, body: { side: 'to', line: 2, body: 'Why pH 8 and not 7.5?' } })
     expect(onNew.status).toBe(201)
@@ -71,7 +78,7 @@ describe('reviews', () => {
   })
 
   it('lets the reviewer approve or ask for changes, never the one who asked, and mails the decision', async () => {
-    const id = (await request(editor, reviewer.user.id)).body.review.id
+    const id = (await request(editor, reviewer.user.id, { to: 4 })).body.review.id
     const decide = (who: SignedIn, decision: string) => api(`${reviews()}/${id}/decision`, { method: 'POST', cookie: who.cookie, body: { decision, note: 'ok' } })
     const own = await decide(editor, 'approved')
     expect(own.status).toBe(403)
@@ -83,13 +90,13 @@ describe('reviews', () => {
     const approved = await decide(reviewer, 'approved')
     expect(approved.status).toBe(200)
     expect(approved.body.review).toMatchObject({ state: 'approved', decisionNote: 'ok' })
-    const mail = await waitForMail(editor.user.email, /^Review approved: Rinse, revision 2$/)
+    const mail = await waitForMail(editor.user.email, /^Review approved: Rinse, revision 4$/)
     expect(mail.text).toContain(`/labs/${lab}/reviews/${id}`)
     expect((await api('/api/reviews/waiting', { cookie: reviewer.cookie })).body.waiting.map((r: any) => r.id)).not.toContain(id)
   })
 
   it('hides reviews from outsiders (404) and refuses viewers and reviewers asking for one (403)', async () => {
-    const id = (await request(editor, reviewer.user.id)).body.review.id
+    const id = (await request(editor, reviewer.user.id, { from: 2, to: 3 })).body.review.id
     expect((await api(reviews(), { cookie: outsider.cookie })).status).toBe(404)
     expect((await api(`${reviews()}/${id}`, { cookie: outsider.cookie })).status).toBe(404)
     expect((await api(`${reviews()}/${id}/comments`, { method: 'POST', cookie: outsider.cookie, body: { side: 'to', line: 1, body: 'x' } })).status).toBe(404)

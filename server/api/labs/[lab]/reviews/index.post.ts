@@ -36,6 +36,13 @@ export default defineEventHandler(async (event) => {
   if (!labRoleAtLeast(member.role, 'reviewer')) {
     throw createError({ statusCode: 400, message: `${member.name} is a ${member.role} here; choose a member with the reviewer role or higher`, data: { issues: [{ path: 'reviewerId', message: 'Choose a reviewer, editor or owner' }] } })
   }
+  const [same] = await useDb().select({ id: tables.reviews.id }).from(tables.reviews).where(and(
+    eq(tables.reviews.fromRevisionId, from.id), eq(tables.reviews.toRevisionId, to.id),
+    eq(tables.reviews.reviewerId, body.reviewerId), eq(tables.reviews.state, 'open'),
+  ))
+  if (same) {
+    throw createError({ statusCode: 409, message: `${member.name} already has this review open (review ${same.id}); add a comment there instead`, data: { reviewId: same.id } })
+  }
   const [inserted] = await useDb().insert(tables.reviews).values({
     labId: lab.id,
     systemId: system.id,
