@@ -18,6 +18,11 @@ export const RESIDUAL_TOLERANCE = 1e-10
 export const STEP_TOLERANCE = 1e-12
 /** Largest change of any log10 a in one iteration. */
 const MAX_LOG_STEP = 1.5
+/**
+ * A step this small (in stepSize units) changes the Jacobian by about as
+ * little, so its factors still give the next step to five digits.
+ */
+const CHORD_STEP_LIMIT = 1e-6
 /** Largest change of √I in one iteration. */
 const MAX_ROOT_I_STEP = 0.5
 /** Iterations spent below the residual tolerance without the step shrinking: the rounding floor. */
@@ -89,8 +94,6 @@ function newtonDirection(ws: Workspace, state: SolverState): boolean {
   const dim = ws.dim
   const J = ws.matrix(dim)
   assembleJacobian(ws, state.u, ws.scale, J)
-  const b = ws.column(dim)
-  for (let r = 0; r < dim; r++) b.set(r, 0, -ws.F[r] / ws.scale[r])
   let lu = new LuDecomposition(J)
   if (lu.isSingular()) {
     if (ws.nActive > 0 && solidsDependent(ws)) return false
@@ -103,6 +106,18 @@ function newtonDirection(ws: Workspace, state: SolverState): boolean {
     lu = new LuDecomposition(J)
     if (lu.isSingular()) return false
   }
+  ws.factors = null
+  if (!solveWithFactors(ws, lu, ws.scale)) return false
+  ws.factors = lu
+  ws.factorScale.set(ws.scale)
+  return true
+}
+
+/** delta from factors of the Jacobian scaled by `scale`: J·delta = −F/scale. False when not finite. */
+function solveWithFactors(ws: Workspace, lu: LuDecomposition, scale: Float64Array): boolean {
+  const dim = ws.dim
+  const b = ws.column(dim)
+  for (let r = 0; r < dim; r++) b.set(r, 0, -ws.F[r] / scale[r])
   const sol = lu.solve(b)
   for (let r = 0; r < dim; r++) {
     const v = sol.get(r, 0)
@@ -126,6 +141,15 @@ function stepSize(ws: Workspace, state: SolverState): number {
   }
   if (ws.hasU) m = Math.max(m, Math.abs(ws.delta[nr + ws.nActive]) / Math.max(state.u, 1e-12))
   return m
+}
+
+/** Takes the last, tiny step in ws.delta too (it brings the answer to rounding level) and reports convergence. */
+function finalStep(ws: Workspace, state: SolverState, it: number): NewtonOutcome {
+  ws.y0.set(state.y)
+  ws.n0.set(state.n)
+  state.u = applyStep(ws, state, state.u, 1)
+  computeSpecies(ws, state)
+  return { ok: true, iterations: it + 1, maxScaled: ws.worstMax, worstRow: ws.worstRow }
 }
 
 /** Largest √I a starting point may take (I = 25 mol/L): guesses far off must not blow γ up. */
@@ -165,6 +189,9 @@ export function newton(ws: Workspace, state: SolverState, limits: Limits): Newto
   let belowTolerance = 0
   ws.worstMax = Infinity
   ws.worstRow = 0
+  ws.factors = null
+  // Whether the last step was small enough for its factors to stand in for the Jacobian here.
+  let chord = false
   for (let it = 0; it <= limits.maxIterations; it++) {
     if (!fresh) computeSpecies(ws, state)
     computeResiduals(ws, state, ws.F, ws.scale)
@@ -172,6 +199,12 @@ export function newton(ws: Workspace, state: SolverState, limits: Limits): Newto
     if (ws.dim === 0) return { ok: true, iterations: it, maxScaled: 0, worstRow: 0 }
     if (ws.worstMax < RESIDUAL_TOLERANCE) belowTolerance++
     if (it === limits.maxIterations || performance.now() > limits.deadline) break
+    // Converged by the last factors (a chord step): the Newton step here
+    // differs from it by a relative CHORD_STEP_LIMIT, far inside the test.
+    if (chord && ws.worstMax < RESIDUAL_TOLERANCE && ws.factors && solveWithFactors(ws, ws.factors, ws.factorScale)
+      && stepSize(ws, state) < STEP_TOLERANCE) {
+      return finalStep(ws, state, it)
+    }
     if (!newtonDirection(ws, state)) {
       return {
         ok: false, iterations: it, maxScaled: ws.worstMax, worstRow: ws.worstRow, singular: true,
@@ -179,12 +212,7 @@ export function newton(ws: Workspace, state: SolverState, limits: Limits): Newto
       }
     }
     if (ws.worstMax < RESIDUAL_TOLERANCE && (stepSize(ws, state) < STEP_TOLERANCE || belowTolerance >= FLOOR_ITERATIONS)) {
-      // Take the last, tiny step too: it brings the answer to rounding level.
-      ws.y0.set(state.y)
-      ws.n0.set(state.n)
-      state.u = applyStep(ws, state, state.u, 1)
-      computeSpecies(ws, state)
-      return { ok: true, iterations: it + 1, maxScaled: ws.worstMax, worstRow: ws.worstRow }
+      return finalStep(ws, state, it)
     }
     let cap = 1
     for (let r = 0; r < nr; r++) cap = Math.min(cap, MAX_LOG_STEP / Math.max(Math.abs(ws.delta[r]), 1e-300))
@@ -204,6 +232,7 @@ export function newton(ws: Workspace, state: SolverState, limits: Limits): Newto
       if (merit <= (1 - 2e-4 * t) * merit0 || merit0 < 1e-28) break
       t *= 0.5
     }
+    chord = t * stepSize(ws, state) < CHORD_STEP_LIMIT
     fresh = true
   }
   const stoppedBy = performance.now() > limits.deadline ? 'the time limit ran out' : `${limits.maxIterations} iterations`

@@ -1,9 +1,10 @@
 /**
  * The solver's state (the unknowns of one solve) and its workspace: scratch
  * arrays sized once per problem and reused by every iteration and every
- * sweep point, so the Newton loop allocates nothing but ml-matrix's own.
+ * sweep point, so the Newton loop allocates little beyond what ml-matrix's
+ * LU solve returns.
  */
-import { Matrix } from 'ml-matrix'
+import { Matrix, type LuDecomposition } from 'ml-matrix'
 import { MODE_BALANCE, MODE_TOTAL, type Problem } from './problem'
 
 export interface SolverState {
@@ -47,6 +48,14 @@ export class InPlaceMatrix extends Matrix {
   }
 }
 
+/**
+ * Jacobian matrices and right-hand sides by size, shared by every solve in
+ * this thread: a solve runs synchronously to its end and a factorisation
+ * never outlives the Newton step that made it, so no two users overlap.
+ */
+const sharedMatrices = new Map<number, InPlaceMatrix>()
+const sharedColumns = new Map<number, Matrix>()
+
 /** Scratch arrays sized once per problem, reused by every iteration and every sweep point. */
 export class Workspace {
   readonly lc: Float64Array
@@ -75,6 +84,9 @@ export class Workspace {
   readonly delta: Float64Array
   readonly y0: Float64Array
   readonly n0: Float64Array
+  /** The last LU factors of the scaled Jacobian and the row scales they were made with. */
+  factors: LuDecomposition | null = null
+  readonly factorScale: Float64Array
   nUnknownComponents = 0
   nActive = 0
   hasU = false
@@ -82,8 +94,6 @@ export class Workspace {
   private readonly massNames: string[]
   private readonly chargeNames: string[]
   private readonly solidNames: string[]
-  private readonly matrices = new Map<number, InPlaceMatrix>()
-  private readonly rhs = new Map<number, Matrix>()
 
   constructor(readonly p: Problem) {
     const rows = p.nc + p.nsol + 1
@@ -104,6 +114,7 @@ export class Workspace {
     this.delta = new Float64Array(rows)
     this.y0 = new Float64Array(p.nc)
     this.n0 = new Float64Array(p.nsol)
+    this.factorScale = new Float64Array(rows)
     this.massNames = p.model.components.map((c) => `the mass balance of ${c.name}`)
     this.chargeNames = p.model.components.map((c) => `the charge balance (solved for ${c.name})`)
     this.solidNames = p.model.solids.map((s) => `the saturation of ${s.name}`)
@@ -141,14 +152,14 @@ export class Workspace {
 
   /** The Jacobian's matrix for this size; LuDecomposition overwrites it with its factors. */
   matrix(dim: number): InPlaceMatrix {
-    let m = this.matrices.get(dim)
-    if (!m) { m = new InPlaceMatrix(dim, dim); this.matrices.set(dim, m) }
+    let m = sharedMatrices.get(dim)
+    if (!m) { m = new InPlaceMatrix(dim, dim); sharedMatrices.set(dim, m) }
     return m
   }
 
   column(dim: number): Matrix {
-    let m = this.rhs.get(dim)
-    if (!m) { m = new Matrix(dim, 1); this.rhs.set(dim, m) }
+    let m = sharedColumns.get(dim)
+    if (!m) { m = new Matrix(dim, 1); sharedColumns.set(dim, m) }
     return m
   }
 
