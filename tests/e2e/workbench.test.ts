@@ -49,6 +49,12 @@ describe('the workbench', () => {
     await expect(message.textContent()).resolves.toMatch(/does not balance/)
     await expect(page.getByTestId('status-errors').textContent()).resolves.toMatch(/^\s*[1-9]\d* errors?\s*$/)
     await screenshot(page, 'workbench-diagnostic')
+    // Run anyway: the server refuses (422) and its diagnostics link to their line.
+    await page.keyboard.press('Control+Enter')
+    const problem = page.locator('[data-test=server-problem]')
+    await problem.waitFor()
+    await expect(problem.textContent()).resolves.toMatch(/Not solved\. The system has \d+ errors?/)
+    await expect(problem.locator('[data-test=problem-diagnostic]').first().textContent()).resolves.toMatch(/^\s*Line 16: the reaction does not balance/)
 
     // Fix it, take the activity model to ideal (for a closed-form check) and drop the sweep: a single point.
     await replaceLine(page, 'reaction H2PO4- <=> HPO4^2-', intact)
