@@ -41,6 +41,16 @@ export interface SolidChange {
   ranges: [number, number][]
 }
 
+export interface SaturationChange {
+  name: string
+  /** Saturation index (log10 of ion activity product over the solubility product) before and after. */
+  from: number
+  to: number
+  /** to − from, in log10 units like a species' factor. */
+  change: number
+  at: number | null
+}
+
 export interface ResultsDiff {
   kind: 'single' | 'sweep'
   /** For sweeps: the swept variable and its component, e.g. "pH" or "total of Cu^2+". */
@@ -50,6 +60,8 @@ export interface ResultsDiff {
   /** Largest effect first. */
   species: SpeciesChange[]
   solids: SolidChange[]
+  /** Saturation indices that moved, largest first (also of solids that stay dissolved). */
+  saturation: SaturationChange[]
   /** Points (or the single solve) that did not converge in either answer, so their numbers are not trusted. */
   unconverged: { revision: 'from' | 'to'; at: number | null }[]
 }
@@ -168,6 +180,22 @@ export function diffResults(a: SolvedAnswer, b: SolvedAnswer): ResultsDiff {
   }
   solids.sort((x, y) => y.at.length - x.at.length || x.name.localeCompare(y.name))
 
+  const saturation: SaturationChange[] = []
+  for (const name of solidNames) {
+    const along: SaturationChange[] = []
+    for (const p of withPoints) {
+      const was = p.from.solids.find(s => s.name === name)
+      const is = p.to.solids.find(s => s.name === name)
+      if (was && is && Number.isFinite(was.saturationIndex) && Number.isFinite(is.saturationIndex)) {
+        along.push({ name, from: was.saturationIndex, to: is.saturationIndex, change: is.saturationIndex - was.saturationIndex, at: p.at })
+      }
+    }
+    const biggest = largest(along, c => Math.abs(c.change))
+    // Saturation indices are read to two decimals: smaller moves are noise of the solve.
+    if (biggest && Math.abs(biggest.change) >= 0.005) saturation.push(biggest)
+  }
+  saturation.sort((x, y) => Math.abs(y.change) - Math.abs(x.change) || x.name.localeCompare(y.name))
+
   const unconverged: ResultsDiff['unconverged'] = []
   for (const p of withPoints) {
     if (!p.from.converged) unconverged.push({ revision: 'from', at: p.at })
@@ -177,6 +205,6 @@ export function diffResults(a: SolvedAnswer, b: SolvedAnswer): ResultsDiff {
   return {
     kind: comparable && isSweep(a) ? 'sweep' : 'single',
     sweep: comparable && isSweep(a) ? sweepLabel(a) : null,
-    pH, ionicStrength, species, solids, unconverged,
+    pH, ionicStrength, species, solids, saturation, unconverged,
   }
 }

@@ -71,6 +71,14 @@ sweep pH from 4 to 9 step 1`
     expect(diff.pH).toBeNull()
   })
 
+  it('reports a saturation index raised by log10 2 at every point when a total is doubled and the solid cannot form', () => {
+    const doubled = withSolid(true).replace('total 1.0 mmol/L', 'total 2.0 mmol/L')
+    const diff = diffResults(sweep(compiled(withSolid(true))), sweep(compiled(doubled)))
+    // SI = log K + log a(Cu2+) + 2 log a(OH-); ideal activities, no complexes, pH held: a(Cu2+) doubles (definition of the saturation index, common practice).
+    expect(diff.saturation).toEqual([expect.objectContaining({ name: 'Cu(OH)2(s)', change: expect.closeTo(Math.log10(2), 9) })])
+    expect(diff.solids).toEqual([])
+  })
+
   function point(pH: number, copper: number): Result {
     return {
       converged: true, iterations: 1, temperatureC: 25, pH, ionicStrength: 3 * copper,
