@@ -94,7 +94,8 @@ describe('WorkbenchConflict', () => {
   }
 
   it('shows both texts with the lines found in only one of them marked', () => {
-    wrapper = mount(WorkbenchConflict, { props: { conflict } })
+    wrapper = mount(WorkbenchConflict, { props: { conflict }, attachTo: document.body })
+    expect(document.activeElement).toBe(wrapper.find('[data-test=save-conflict]').element)
     const marked = (side: string) => wrapper!.find(`[data-test=conflict-${side}]`).findAll('.bg-accent-soft').map((l) => l.text())
     expect(marked('mine')).toEqual(['2component Cl- total 5 mmol/L'])
     expect(marked('theirs')).toEqual(['2component H+ total 2 mmol/L'])
