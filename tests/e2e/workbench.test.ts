@@ -170,6 +170,29 @@ describe('the workbench', () => {
     expect(latest.source).toContain('component H+ total 1 mmol/L')
   })
 
+  it('asks before leaving unsaved text, and offers it back as a draft on return', async () => {
+    const owner = await signUp('owner')
+    const lab = await makeLab(owner)
+    const source = 'system "Anodising rinse"\nactivity ideal\ncomponent H+ total 1 mmol/L\ncomponent Cl- total 1 mmol/L\nreaction H2O <=> H+ + OH- pKw 14.00 cite "from memory"\n'
+    expect((await api(`/api/labs/${lab}/systems`, { method: 'POST', cookie: owner.cookie, body: { title: 'Anodising rinse', slug: 'anodising-rinse', source } })).status).toBe(201)
+    const page = await openSignedIn(`/labs/${lab}/systems/anodising-rinse`, owner.cookie)
+    await openWorkbench(page)
+    await replaceLine(page, 'component Cl-', 'component Cl- total 4 mmol/L')
+    const asked: string[] = []
+    page.on('dialog', (dialog) => {
+      asked.push(dialog.message())
+      void dialog.accept()
+    })
+    await page.getByRole('navigation', { name: 'Breadcrumb' }).getByRole('link', { name: `Lab ${lab}` }).click()
+    await page.waitForURL(url(`/labs/${lab}`))
+    expect(asked).toEqual(['This system has unsaved changes. Leave anyway? (A draft stays in this browser.)'])
+    await page.getByRole('link', { name: 'Anodising rinse' }).click()
+    await page.getByTestId('draft-notice').waitFor()
+    await expect(page.locator('.cm-content').textContent()).resolves.toContain('component Cl- total 4 mmol/L')
+    await expect(page.locator('[data-test=save]').textContent()).resolves.toMatch(/Save as revision 2/)
+    await screenshot(page, 'workbench-draft')
+  })
+
   it('creates a system from an example', async () => {
     const owner = await signUp('owner')
     const lab = await makeLab(owner)
