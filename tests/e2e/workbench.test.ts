@@ -210,5 +210,9 @@ describe('the workbench', () => {
     const saved = (await api(`/api/labs/${lab}/systems/zinc-line-2`, { cookie: owner.cookie })).body.system.latest.source
     expect(saved).toContain('reaction ZnS(s) <=> Zn^2+ + S^2-')
     expect(saved).toMatch(/^system "Zinc line 2"\n# Sodium hydrosulfide/)
+    // Before any run the report says what to do rather than showing empty tables.
+    await page.goto(url(`/labs/${lab}/systems/zinc-line-2/report`))
+    await expect(page.locator('[data-test=report-no-run]').textContent()).resolves.toMatch(/Revision 1 has no stored run yet\./)
+    await expect(page.locator('[data-test=report-source]').textContent()).resolves.toContain('system "Zinc line 2"')
   })
 })
