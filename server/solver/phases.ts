@@ -62,14 +62,19 @@ export function solveWithPhases(ws: Workspace, state: SolverState, limits: Limit
   const rounds = 4 * p.nsol + 4
   for (let round = 0; round <= rounds; round++) {
     const left = limits.maxIterations - iterations
-    const out = newton(ws, state, { maxIterations: Math.max(1, left), deadline: limits.deadline })
+    const shortcut = estimated || alongside.length > 0
+    // A round started by the shortcut leaves half the iterations to the plain repeat.
+    const allowed = shortcut ? Math.ceil(left / 2) : left
+    const out = newton(ws, state, { maxIterations: Math.max(1, allowed), deadline: limits.deadline })
     iterations += out.iterations
-    if (!out.ok && (estimated || alongside.length > 0)) {
-      // The shortcut did not work out: repeat the round the plain way, lastAdd alone from zero.
+    if (!out.ok && shortcut) {
+      // The shortcut did not work out: repeat the round the plain way, lastAdd
+      // alone from zero, without counting it as a round of its own.
       restore(state, good)
       for (const s of alongside) { state.active[s] = 0; state.n[s] = 0 }
       alongside = []
       estimated = false
+      round--
       continue
     }
     if (!out.ok) {
