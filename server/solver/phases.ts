@@ -67,13 +67,17 @@ export function solveWithPhases(ws: Workspace, state: SolverState, limits: Limit
     const allowed = shortcut ? Math.ceil(left / 2) : left
     const out = newton(ws, state, { maxIterations: Math.max(1, allowed), deadline: limits.deadline })
     iterations += out.iterations
-    if (!out.ok && shortcut) {
-      // The shortcut did not work out: repeat the round the plain way, lastAdd
-      // alone from zero, without counting it as a round of its own.
+    // Solids that joined together must all stay; if one would leave, the
+    // plain way (one at a time) decides, so the sets tried are its own.
+    if (shortcut && (!out.ok || (alongside.length > 0 && anyNegative(state)))) {
+      // Repeat the round the plain way, lastAdd alone from zero, without
+      // counting it as a round of its own.
+      seen.delete(keyOf(state.active))
       restore(state, good)
       for (const s of alongside) { state.active[s] = 0; state.n[s] = 0 }
       alongside = []
       estimated = false
+      remember(seen, state.active)
       round--
       continue
     }
@@ -129,16 +133,22 @@ export function solveWithPhases(ws: Workspace, state: SolverState, limits: Limit
     }
     state.active[add] = 1; state.n[add] = 0
     lastAdd = add
-    if (!remember(seen, state.active)) return cycling(p, add, 'joins', iterations, out, notes)
+    if (seen.has(keyOf(state.active))) return cycling(p, add, 'joins', iterations, out, notes)
     alongside = joinIndependent(p, state, supersaturated.filter((c) => c.solid !== add), maxSolids - present - 1)
-    if (alongside.length > 0 && !remember(seen, state.active)) {
+    if (alongside.length > 0 && seen.has(keyOf(state.active))) {
       for (const s of alongside) { state.active[s] = 0; state.n[s] = 0 }
       alongside = []
     }
+    remember(seen, state.active)
     const joining = supersaturated.filter((c) => c.solid === add || alongside.includes(c.solid))
     estimated = estimateJoining(ws, state, joining)
   }
   return { ok: false, iterations, maxScaled: Infinity, worstRow: 0, notes, reason: 'the choice of solids present did not settle' }
+}
+
+function anyNegative(state: SolverState): boolean {
+  for (let s = 0; s < state.n.length; s++) if (state.active[s] && state.n[s] < 0) return true
+  return false
 }
 
 interface Snapshot { y: Float64Array; n: Float64Array; u: number }
