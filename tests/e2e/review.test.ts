@@ -48,8 +48,15 @@ describe('review in the browser', () => {
     await mine.waitForURL(new RegExp(`/labs/${lab}/reviews/\\d+$`))
     await mine.getByText('waiting for review').first().waitFor()
 
-    // The reviewer: the compare page shows the review of this pair; open it, comment on line 6 of revision 2, approve.
-    const theirs = await openSignedIn(`/labs/${lab}/systems/ammine/compare?from=1&to=2`, reviewer.cookie)
+    // The reviewer: the home page lists the review as waiting for them.
+    const theirs = await openSignedIn('/', reviewer.cookie)
+    const waiting = theirs.getByTestId('reviews-waiting')
+    await waiting.waitFor()
+    await expect(waiting.textContent()).resolves.toMatch(new RegExp(`Ammine rinse: revision 2 against 1.*asked by ${editor.user.name}`))
+    await screenshot(theirs, 'review-home-waiting')
+
+    // The compare page shows the review of this pair; open it, comment on line 6 of revision 2, approve.
+    await theirs.goto(url(`/labs/${lab}/systems/ammine/compare?from=1&to=2`))
     await theirs.getByTestId('model-diff').waitFor()
     await expect(theirs.getByRole('button', { name: 'Ask for review' }).count()).resolves.toBe(0)
     await theirs.getByRole('link', { name: /waiting for review/ }).click()
@@ -71,6 +78,8 @@ describe('review in the browser', () => {
     await theirs.getByRole('button', { name: 'Approve' }).click()
     await theirs.getByRole('status').filter({ hasText: 'approved' }).waitFor()
     await screenshot(theirs, 'review-approved')
+    await theirs.goto(url('/'))
+    await theirs.getByText('Nothing to review.').waitFor()
 
     // The editor sees the decision and the comment, and the history shows the review approved.
     const review = await api(`/api/labs/${lab}/reviews?system=ammine`, { cookie: editor.cookie })
