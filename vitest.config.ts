@@ -7,6 +7,7 @@ import vue from '@vitejs/plugin-vue'
 //  nuxt       routes of the built server against the real MariaDB, and the browser (Chromium) tests
 export default defineConfig({
   test: {
+    reporters: ['default', './tests/setup/summary-reporter.ts'],
     projects: [
       {
         test: {

@@ -1,0 +1,24 @@
+/**
+ * Prints one plain closing line, `Tests: N passed, N failed, N skipped`, after
+ * vitest's own summary, so a CI log reader that knows no vitest output can
+ * still count the tests.
+ */
+import type { Reporter, TestModule } from 'vitest/node'
+
+export default class SummaryReporter implements Reporter {
+  onTestRunEnd(testModules: ReadonlyArray<TestModule>): void {
+    let passed = 0
+    let failed = 0
+    let skipped = 0
+    for (const module of testModules) {
+      for (const test of module.children.allTests()) {
+        const state = test.result().state
+        if (state === 'passed') passed++
+        else if (state === 'failed') failed++
+        else skipped++
+      }
+      if (module.state() === 'failed' && ![...module.children.allTests()].length) failed++
+    }
+    console.log(`\nTests: ${passed} passed, ${failed} failed, ${skipped} skipped`)
+  }
+}
