@@ -196,7 +196,9 @@ describe('the workbench', () => {
   it('creates a system from an example', async () => {
     const owner = await signUp('owner')
     const lab = await makeLab(owner)
-    const page = await openSignedIn(`/labs/${lab}/systems/new`, owner.cookie)
+    const page = await openSignedIn(`/labs/${lab}`, owner.cookie)
+    await page.getByRole('link', { name: 'Start from an example', exact: true }).click()
+    await page.waitForURL(url(`/labs/${lab}/systems/new`))
     await page.locator('[data-test=start-zinc-sulfide-dosing]').check()
     await expect(page.getByLabel('Title').inputValue()).resolves.toBe('Zinc removal from a rinse water by sulfide dosing')
     await page.getByLabel('Title').fill('Zinc line 2')
