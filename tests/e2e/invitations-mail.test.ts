@@ -67,6 +67,40 @@ describe('mail links in the browser', () => {
     await other.getByRole('heading', { name: 'Nothing here' }).waitFor()
   })
 
+  it('invites from the members page and shows the invitation as pending', async () => {
+    const owner = await signUp('owner')
+    const lab = await makeLab(owner)
+    const email = freshEmail('colleague')
+    const page = await openSignedIn(`/labs/${lab}/members`, owner.cookie)
+    const form = page.locator('[data-test="invite"]')
+    await form.getByLabel('E-mail').fill(email)
+    await form.getByLabel('Role').selectOption('reviewer')
+    await form.getByRole('button', { name: 'Send invitation' }).click()
+    await form.getByRole('status').waitFor()
+    expect(await form.getByRole('status').textContent()).toContain(`Invitation sent to ${email} as reviewer`)
+    await page.locator('[data-test="invitations"] li', { hasText: email }).getByText(/reviewer · until/).waitFor()
+    expect((await waitForMail(email, /invites you to/)).text).toContain('as reviewer')
+    await screenshot(page, 'members-invite')
+  })
+
+  it('imports a .poise file from the lab page as a new system', async () => {
+    const owner = await signUp('owner')
+    const lab = await makeLab(owner)
+    const page = await openSignedIn(`/labs/${lab}`, owner.cookie)
+    const form = page.locator('[data-test="import"]')
+    await form.locator('input[type="file"]').setInputFiles({ name: 'bath.poise', mimeType: 'text/plain', buffer: Buffer.from('system "Nickel bath, line 4"\ncomponent H+ balance\n') })
+    await form.getByRole('button', { name: 'Import' }).click()
+    await form.getByRole('status').waitFor()
+    expect(await form.getByRole('status').textContent()).toContain('Imported as “Nickel bath, line 4”')
+    await page.getByRole('link', { name: 'Nickel bath, line 4' }).waitFor()
+
+    await form.locator('input[type="file"]').setInputFiles({ name: 'latin1.poise', mimeType: 'text/plain', buffer: Buffer.from([0x73, 0x79, 0x73, 0xb2, 0x0a]) })
+    await form.getByRole('button', { name: 'Import' }).click()
+    await form.getByRole('alert').waitFor()
+    expect(await form.getByRole('alert').textContent()).toMatch(/not UTF-8 text/)
+    await screenshot(page, 'lab-import')
+  })
+
   it("lists on a library's page the systems that use it and the revision they ask for", async () => {
     const owner = await signUp('owner')
     const lab = await makeLab(owner)
