@@ -101,6 +101,19 @@ describe('mail links in the browser', () => {
     await screenshot(page, 'lab-import')
   })
 
+  it('shares a system as a lab library from the workbench', async () => {
+    const owner = await signUp('owner')
+    const lab = await makeLab(owner)
+    await api(`/api/labs/${lab}/systems`, { method: 'POST', cookie: owner.cookie, body: { title: 'Carbonate constants', slug: 'carbonates' } })
+    const page = await openSignedIn(`/labs/${lab}/systems/carbonates`, owner.cookie)
+    const mark = page.locator('[data-test="library-mark"]')
+    await mark.getByRole('button', { name: 'Share as a lab library' }).click()
+    await mark.getByRole('link', { name: 'Who uses it' }).waitFor()
+    expect(await mark.textContent()).toContain('use "carbonates"')
+    const list = await api(`/api/labs/${lab}/libraries`, { cookie: owner.cookie })
+    expect(list.body.libraries).toEqual([{ name: 'carbonates', title: 'Carbonate constants', latestRevision: 1 }])
+  })
+
   it("lists on a library's page the systems that use it and the revision they ask for", async () => {
     const owner = await signUp('owner')
     const lab = await makeLab(owner)
