@@ -37,10 +37,21 @@ export default defineNuxtConfig({
   },
   // The examples travel with the built server (read with useStorage('assets:examples')).
   // Nitro resolves the folder from server/, hence the '..'.
-  nitro: { serverAssets: [{ baseName: 'examples', dir: '../examples' }] },
+  nitro: {
+    serverAssets: [{ baseName: 'examples', dir: '../examples' }],
+    typescript: { tsConfig: { compilerOptions: { noUncheckedIndexedAccess: false } } },
+  },
   // shared/ is external to the Vite server build and bundled by Nitro. Components import it by
   // relative path (so they also run in plain vitest); rendered relative, those imports point
   // nowhere, so keep them absolute for Nitro to resolve.
   vite: { build: { rollupOptions: { makeAbsoluteExternalsRelative: false } } },
-  typescript: { strict: true },
+  // Strict, but without noUncheckedIndexedAccess: the solver and the language
+  // index typed arrays and token lists inside bounds-checked loops, where the
+  // flag would only add a non-null assertion to every line of numeric code.
+  typescript: {
+    strict: true,
+    tsConfig: { compilerOptions: { noUncheckedIndexedAccess: false } },
+    sharedTsConfig: { compilerOptions: { noUncheckedIndexedAccess: false } },
+    nodeTsConfig: { compilerOptions: { noUncheckedIndexedAccess: false } },
+  },
 })
