@@ -5,8 +5,8 @@
  * A run is one of two things, and the page always says which:
  * - a stored run — the saved revision solved by the server and kept with it
  *   (POST …/runs); chosen when the text in the editor is the saved text;
- * - a preview — the unsaved text solved by POST /api/solve and kept nowhere;
- *   chosen when there are unsaved edits.
+ * - a preview — the unsaved text solved by POST /api/labs/:lab/solve (with
+ *   the lab's libraries) and kept nowhere; chosen when there are unsaved edits.
  * A viewer cannot edit, so a viewer's runs are always stored runs.
  */
 import { defineStore } from 'pinia'
@@ -18,6 +18,8 @@ import type { Result, SweepResult } from '../shared/types/result'
 import { distributableComponents, type StoichiometryModel } from '../shared/results/share'
 import { diagramPrefsKey, parseDiagramPrefs } from '../shared/results/diagramPrefs'
 import { labRoleAtLeast, type LabRole } from '../shared/utils/roles'
+import type { ResolveLibrary } from '../shared/utils/library-preload'
+import { labLibraryPreloader, resolverFrom } from './libraryTexts'
 
 export interface SavedRevision {
   number: number
@@ -46,10 +48,12 @@ export interface StoredRun {
   createdAt: string
   createdBy: string | null
   failedPoints: number
+  /** The library revisions the run was solved with. */
+  libraries?: { name: string; revision: number }[]
   result?: Result | SweepResult
 }
 
-/** POST /api/solve */
+/** POST /api/labs/:lab/solve */
 export interface PreviewAnswer {
   kind: 'single' | 'sweep'
   solverVersion: string
@@ -160,7 +164,11 @@ export const useWorkbenchStore = defineStore('workbench', () => {
   const runProblem = shallowRef<ServerProblem | null>(null)
   const saveProblem = shallowRef<ServerProblem | null>(null)
   const conflict = shallowRef<SaveConflict | null>(null)
+  /** How the browser's compiler finds the lab libraries the text `use`s; undefined until they are loaded. */
+  const resolveLibrary = shallowRef<ResolveLibrary | undefined>(undefined)
   let runTicket = 0
+  let preloadTicket = 0
+  let preloader: { lab: string; preload: ReturnType<typeof labLibraryPreloader> } | null = null
 
   const latest = computed(() => answer.value?.system.latest ?? null)
   const canEdit = computed(() => labRoleAtLeast(answer.value?.role, 'editor'))
@@ -169,7 +177,7 @@ export const useWorkbenchStore = defineStore('workbench', () => {
   const base = computed(() => (answer.value ? `/api/labs/${answer.value.lab.slug}/systems/${answer.value.system.slug}` : ''))
   const errorCount = computed(() => diagnostics.value.filter((d) => d.severity === 'error').length)
   /** The model of the text that was solved: species, stoichiometry and citations for the results. */
-  const shownModel = computed<Model | null>(() => (shown.value ? compile(shown.value.source).model : null))
+  const shownModel = computed<Model | null>(() => (shown.value ? compile(shown.value.source, { resolveLibrary: resolveLibrary.value }).model : null))
   /** The shown answer no longer matches the editor's text. */
   const shownIsStale = computed(() => shown.value !== null && shown.value.source !== source.value)
   const sweep = computed<SweepResult | null>(() => (shown.value?.kind === 'sweep' ? (shown.value.result as SweepResult) : null))
@@ -197,6 +205,7 @@ export const useWorkbenchStore = defineStore('workbench', () => {
     runProblem.value = null
     saveProblem.value = null
     conflict.value = null
+    resolveLibrary.value = undefined
   }
 
   function showStored(run: StoredRun, solvedSource: string) {
@@ -245,7 +254,7 @@ export const useWorkbenchStore = defineStore('workbench', () => {
         const stored = await request<StoredRun>(`${base.value}/runs`, { method: 'POST', body: { revision: saved.number } })
         if (ticket === runTicket) showStored(stored, text)
       } else {
-        const preview = await request<PreviewAnswer>('/api/solve', { method: 'POST', body: { source: text } })
+        const preview = await request<PreviewAnswer>(`/api/labs/${answer.value!.lab.slug}/solve`, { method: 'POST', body: { source: text } })
         if (ticket === runTicket) {
           shown.value = {
             origin: 'preview',
@@ -263,6 +272,24 @@ export const useWorkbenchStore = defineStore('workbench', () => {
       if (ticket === runTicket) runProblem.value = problemFrom(error)
     } finally {
       if (ticket === runTicket) running.value = false
+    }
+  }
+
+  /**
+   * Load the libraries the editor's text reaches, for the compiler in the
+   * browser. Call again when its `use` lines change; the last call wins. A
+   * failed load keeps the previous resolver (the next change tries again).
+   */
+  async function loadLibraries() {
+    const lab = answer.value?.lab.slug
+    if (!lab) return
+    if (preloader?.lab !== lab) preloader = { lab, preload: labLibraryPreloader(lab, request) }
+    const ticket = ++preloadTicket
+    try {
+      const texts = await preloader.preload(source.value)
+      if (ticket === preloadTicket) resolveLibrary.value = resolverFrom(texts)
+    } catch {
+      // Keep what we had: the server still resolves libraries on run and save.
     }
   }
 
@@ -319,8 +346,8 @@ export const useWorkbenchStore = defineStore('workbench', () => {
   }
 
   return {
-    answer, source, diagnostics, shown, olderRun, pointIndex, running, saving, runProblem, saveProblem, conflict,
+    answer, source, diagnostics, shown, olderRun, pointIndex, running, saving, runProblem, saveProblem, conflict, resolveLibrary,
     latest, canEdit, dirty, plan, errorCount, shownModel, shownIsStale, sweep, pointResult,
-    open, loadLastRun, run, save, keepMine, takeTheirs,
+    open, loadLastRun, loadLibraries, run, save, keepMine, takeTheirs,
   }
 })

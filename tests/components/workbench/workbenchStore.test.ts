@@ -2,6 +2,7 @@
 // or save leaves on screen, and that a save conflict never overwrites.
 import { beforeEach, describe, expect, it, vi } from 'vitest'
 import { createPinia, setActivePinia } from 'pinia'
+import { compile } from '../../../shared/poise/index'
 import { latestRunOf, problemFrom, richestComponent, runPlan, useWorkbenchStore, type StoredRun, type SystemAnswer } from '../../../stores/workbench'
 
 // Demo system (invented numbers).
@@ -78,11 +79,43 @@ describe('useWorkbenchStore', () => {
     store.source = saved.replace('1 mmol/L\ncomponent Cl-', '2 mmol/L\ncomponent Cl-')
     fetcher.mockResolvedValueOnce({ kind: 'single', solverVersion: '1.0.0', elapsedMs: 2.5, diagnostics: [], result })
     await store.run()
-    expect(fetcher).toHaveBeenCalledWith('/api/solve', { method: 'POST', body: { source: store.source } })
+    // The lab's solve route, so a `use "library"` in the draft resolves.
+    expect(fetcher).toHaveBeenCalledWith('/api/labs/plating/solve', { method: 'POST', body: { source: store.source } })
     expect(store.shown?.origin).toBe('preview')
     expect(store.shownIsStale).toBe(false)
     store.source += '# a note\n'
     expect(store.shownIsStale).toBe(true)
+  })
+
+  it('loads the libraries the text uses, so the browser’s compiler finds them and names the missing ones', async () => {
+    const library = `system "Water library"\ncomponent H+ total 1 mmol/L\nreaction H2O <=> H+ + OH- pKw 14.00 cite "from memory"\n`
+    const uses = `system "Strike bath"\nuse "water"\nuse "ghost"\nactivity ideal\ncomponent H+ total 1 mmol/L\ncomponent Cl- total 1 mmol/L\n`
+    const store = useWorkbenchStore()
+    store.open(answer('editor', 4, uses))
+    fetcher.mockImplementation(async (url: string) => {
+      if (url === '/api/labs/plating/libraries') return { libraries: [{ name: 'water', title: 'Water library', latestRevision: 2 }] }
+      if (url === '/api/labs/plating/libraries/water/revisions/2') return { name: 'water', revision: 2, source: library }
+      throw refusal(404, 'no such library')
+    })
+    await store.loadLibraries()
+    const codes = compile(store.source, { resolveLibrary: store.resolveLibrary }).diagnostics.map((d) => `${d.code} ${d.message}`)
+    expect(codes.filter((c) => c.includes('"water"'))).toEqual([])
+    expect(codes).toContainEqual(expect.stringMatching(/^P070 there is no library "ghost"/))
+
+    // A revision's text is fetched once; asking again only re-reads which revision is the latest.
+    fetcher.mockClear()
+    store.source = store.source.replace('use "ghost"\n', '')
+    await store.loadLibraries()
+    expect(fetcher.mock.calls.map((c) => c[0])).toEqual(['/api/labs/plating/libraries'])
+    expect(compile(store.source, { resolveLibrary: store.resolveLibrary }).diagnostics.filter((d) => d.severity === 'error')).toEqual([])
+  })
+
+  it('keeps the libraries it had when loading them fails', async () => {
+    const store = useWorkbenchStore()
+    store.open(answer('editor', 4, `system "Strike bath"\nuse "water"\ncomponent H+ total 1 mmol/L\n`))
+    fetcher.mockRejectedValue(new TypeError('fetch failed'))
+    await store.loadLibraries()
+    expect(store.resolveLibrary).toBeUndefined()
   })
 
   it('keeps a refused run’s diagnostics for the page to show', async () => {
