@@ -93,6 +93,18 @@ describe('WorkbenchConflict', () => {
     theirs: { number: 7, sha256: '', source: 'system "A"\ncomponent H+ total 2 mmol/L\n', message: 'more acid', author: 'Bo', createdAt: '2026-12-01T10:00:00.000Z' },
   }
 
+  it('marks the lines a line diff finds changed, even a line the other text also has elsewhere', () => {
+    // Mine repeats a line theirs has once, and drops one: "found in the other text" would mark neither.
+    const repeated = {
+      mine: 'system "A"\ncomponent H+ total 2 mmol/L\nactivity ideal\ncomponent H+ total 2 mmol/L\n',
+      theirs: { ...conflict.theirs, source: 'system "A"\ncomponent H+ total 2 mmol/L\nactivity ideal\n# rinse tank\n' },
+    }
+    wrapper = mount(WorkbenchConflict, { props: { conflict: repeated } })
+    const marked = (side: string) => wrapper!.find(`[data-test=conflict-${side}]`).findAll('.bg-accent-soft').map((l) => l.text())
+    expect(marked('mine')).toEqual(['4component H+ total 2 mmol/L'])
+    expect(marked('theirs')).toEqual(['4# rinse tank'])
+  })
+
   it('shows both texts with the lines found in only one of them marked', () => {
     wrapper = mount(WorkbenchConflict, { props: { conflict }, attachTo: document.body })
     expect(document.activeElement).toBe(wrapper.find('[data-test=save-conflict]').element)
