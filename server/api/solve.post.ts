@@ -7,11 +7,10 @@ export default defineEventHandler(async (event) => {
   const source = await readSourceBody(event)
   const { model, diagnostics } = compileForSolve(source)
   const output = await solveInPool(model)
-  return {
+  return sendJsonWithRaw(event, {
     kind: output.kind,
     solverVersion: output.solverVersion,
     elapsedMs: Math.round(output.elapsedMs * 10) / 10,
     diagnostics,
-    result: output.result,
-  }
+  }, 'result', output.resultJson)
 })

@@ -26,5 +26,5 @@ export async function answerForRevision(revision: Revision, model: Model, userId
   if (stored?.result) return { runId: stored.id, reused: true, solverVersion: stored.solverVersion, answer: JSON.parse(stored.result) as SolvedAnswer }
   const output = await solveInPool(model)
   const run = await storeRun(revision, userId, output, model.libraries)
-  return { runId: run.id, reused: false, solverVersion: output.solverVersion, answer: output.result }
+  return { runId: run.id, reused: false, solverVersion: output.solverVersion, answer: JSON.parse(output.resultJson) as SolvedAnswer }
 }

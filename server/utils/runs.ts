@@ -3,6 +3,7 @@
  * stored as JSON text so that a past answer can be shown (and compared)
  * exactly as it was computed.
  */
+import type { H3Event } from 'h3'
 import { desc, eq, and } from 'drizzle-orm'
 import type { Revision, Run } from '../database/schema'
 import type { Result, SweepResult } from '../../shared/types/result'
@@ -11,8 +12,7 @@ import type { SolveTaskOutput } from '../workers/solve.worker'
 export type RunStatus = 'ok' | 'failed' | 'diverged'
 
 export function runStatusOf(output: SolveTaskOutput): RunStatus {
-  if (output.kind === 'single') return output.result.converged ? 'ok' : 'diverged'
-  return output.result.points.every(p => p.converged) ? 'ok' : 'diverged'
+  return output.failedPoints === 0 ? 'ok' : 'diverged'
 }
 
 export interface RunView {
@@ -35,7 +35,7 @@ interface StoredOptions {
   failedPoints?: number
 }
 
-export function runView(run: Run, revisionNumber: number, createdBy: string | null, withResult: boolean): RunView {
+export function runView(run: Run, revisionNumber: number, createdBy: string | null): RunView {
   const options = (run.options ?? {}) as StoredOptions
   const view: RunView = {
     id: run.id,
@@ -49,18 +49,22 @@ export function runView(run: Run, revisionNumber: number, createdBy: string | nu
     failedPoints: options.failedPoints ?? 0,
     libraries: options.libraries ?? [],
   }
-  if (withResult && run.result) view.result = JSON.parse(run.result)
   return view
+}
+
+/** A run with its stored result, sent without parsing the (possibly large) result JSON. */
+export function sendRunWithResult(event: H3Event, run: Run, revisionNumber: number, createdBy: string | null): string {
+  const view = runView(run, revisionNumber, createdBy) as unknown as Record<string, unknown>
+  return sendJsonWithRaw(event, view, 'result', run.result ?? 'null')
 }
 
 export async function storeRun(revision: Revision, userId: number, output: SolveTaskOutput, libraries: { name: string; revision: number }[]): Promise<Run> {
   const db = useDb()
-  const failedPoints = output.kind === 'sweep' ? output.result.points.filter(p => !p.converged).length : (output.result.converged ? 0 : 1)
   const [inserted] = await db.insert(tables.runs).values({
     revisionId: revision.id,
     solverVersion: output.solverVersion,
-    options: { kind: output.kind, libraries, failedPoints },
-    result: JSON.stringify(output.result),
+    options: { kind: output.kind, libraries, failedPoints: output.failedPoints },
+    result: output.resultJson,
     status: runStatusOf(output),
     timingMs: Math.round(output.elapsedMs),
     createdBy: userId,
@@ -86,5 +90,5 @@ export async function listRuns(systemId: number, limit = 50): Promise<RunView[]>
     .where(eq(tables.revisions.systemId, systemId))
     .orderBy(desc(tables.runs.id))
     .limit(limit)
-  return rows.map(r => runView(r.run, r.number, r.author, false))
+  return rows.map(r => runView(r.run, r.number, r.author))
 }

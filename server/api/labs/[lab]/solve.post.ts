@@ -11,12 +11,11 @@ export default defineEventHandler(async (event) => {
   const source = await readSourceBody(event)
   const { model, diagnostics } = compileForSolve(source, { resolveLibrary: await libraryResolverFor(lab.id, source) })
   const output = await solveInPool(model)
-  return {
+  return sendJsonWithRaw(event, {
     kind: output.kind,
     solverVersion: output.solverVersion,
     elapsedMs: Math.round(output.elapsedMs * 10) / 10,
     diagnostics,
     libraries: model.libraries,
-    result: output.result,
-  }
+  }, 'result', output.resultJson)
 })

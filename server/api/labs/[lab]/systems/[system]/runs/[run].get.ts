@@ -14,5 +14,5 @@ export default defineEventHandler(async (event) => {
     .leftJoin(tables.users, eq(tables.users.id, tables.runs.createdBy))
     .where(and(eq(tables.runs.id, runId), eq(tables.revisions.systemId, access.system.id)))
   if (!row) throw createError({ statusCode: 404, message: `No run ${runId} of this system` })
-  return runView(row.run, row.number, row.author, true)
+  return sendRunWithResult(event, row.run, row.number, row.author)
 })

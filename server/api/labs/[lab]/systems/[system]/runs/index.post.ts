@@ -18,5 +18,5 @@ export default defineEventHandler(async (event) => {
   const output = await solveInPool(model)
   const run = await storeRun(revision, access.user.id, output, model.libraries)
   setResponseStatus(event, 201)
-  return runView(run, revision.number, access.user.name, true)
+  return sendRunWithResult(event, run, revision.number, access.user.name)
 })
