@@ -1,0 +1,58 @@
+/**
+ * What the printable report shows: a stored run and the revision it solved.
+ * `?run=ID` reports that run (with its own revision's text); `?revision=N`
+ * the newest run of revision N; neither, the newest run of the latest
+ * revision. Libraries are loaded as the run was solved with them, so the
+ * constants and sources printed are the ones the answer used.
+ */
+import { findUses } from '../shared/poise/index'
+import { labLibraryPreloader, type GetJson, type LibraryTexts } from './libraryTexts'
+import { latestRunOf, type SavedRevision, type StoredRun } from './workbench'
+
+export interface ReportChoice {
+  run: number | null
+  revision: number | null
+}
+
+function positiveWhole(value: unknown): number | null {
+  const n = Number(Array.isArray(value) ? value[0] : value)
+  return Number.isInteger(n) && n > 0 ? n : null
+}
+
+/** The run and revision a report address asks for; anything but a positive whole number counts as not given. */
+export function reportChoice(query: Record<string, unknown>): ReportChoice {
+  return { run: positiveWhole(query.run), revision: positiveWhole(query.revision) }
+}
+
+export interface ReportData {
+  /** The revision number the report is of. */
+  number: number
+  /** Its text and author; null when the system has no such revision. */
+  revision: SavedRevision | null
+  /** The run reported; null when that revision has no stored run (or the run asked for is not this system's). */
+  run: StoredRun | null
+  /** The library texts its `use` lines reach, pinned to the revisions the run used. */
+  libraries: LibraryTexts
+}
+
+/** Loads what the report of `choice` needs, given the system's latest revision. */
+export async function loadReport(get: GetJson, lab: string, system: string, latest: SavedRevision, choice: ReportChoice): Promise<ReportData> {
+  const base = `/api/labs/${encodeURIComponent(lab)}/systems/${encodeURIComponent(system)}`
+  let run: StoredRun | null = null
+  let number = choice.revision ?? latest.number
+  if (choice.run !== null) {
+    run = await get<StoredRun>(`${base}/runs/${choice.run}`).catch(() => null)
+    if (run) number = run.revision
+  } else {
+    const { runs } = await get<{ runs: StoredRun[] }>(`${base}/runs`)
+    const newest = latestRunOf(runs, number)
+    run = newest ? await get<StoredRun>(`${base}/runs/${newest.id}`).catch(() => null) : null
+  }
+  const revision = number === latest.number
+    ? latest
+    : await get<{ revision: SavedRevision }>(`${base}/revisions/${number}`).then((a) => a.revision, () => null)
+  const libraries = revision && findUses(revision.source).length
+    ? await labLibraryPreloader(lab, get)(revision.source, run?.libraries ?? []).catch(() => ({}))
+    : {}
+  return { number, revision, run, libraries }
+}
