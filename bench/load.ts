@@ -156,6 +156,7 @@ async function main() {
 }
 
 main().catch((error) => {
-  console.error(`Load check failed: ${error instanceof Error ? error.message : String(error)}`)
+  const cause = (error as { cause?: unknown })?.cause
+  console.error(`Load check failed: ${error instanceof Error ? error.message : String(error)}${cause ? ` (${String(cause)})` : ''}`)
   process.exit(1)
 })
