@@ -166,6 +166,8 @@ export const useWorkbenchStore = defineStore('workbench', () => {
   const conflict = shallowRef<SaveConflict | null>(null)
   /** How the browser's compiler finds the lab libraries the text `use`s; undefined until they are loaded. */
   const resolveLibrary = shallowRef<ResolveLibrary | undefined>(undefined)
+  /** For a stored run: its libraries at the revisions it was solved with, so its constants are the ones it used. */
+  const shownLibraries = shallowRef<ResolveLibrary | undefined>(undefined)
   let runTicket = 0
   let preloadTicket = 0
   let preloader: { lab: string; preload: ReturnType<typeof labLibraryPreloader> } | null = null
@@ -177,7 +179,11 @@ export const useWorkbenchStore = defineStore('workbench', () => {
   const base = computed(() => (answer.value ? `/api/labs/${answer.value.lab.slug}/systems/${answer.value.system.slug}` : ''))
   const errorCount = computed(() => diagnostics.value.filter((d) => d.severity === 'error').length)
   /** The model of the text that was solved: species, stoichiometry and citations for the results. */
-  const shownModel = computed<Model | null>(() => (shown.value ? compile(shown.value.source, { resolveLibrary: resolveLibrary.value }).model : null))
+  const shownModel = computed<Model | null>(() => {
+    if (!shown.value) return null
+    const libraries = (shown.value.origin === 'stored' ? shownLibraries.value : undefined) ?? resolveLibrary.value
+    return compile(shown.value.source, { resolveLibrary: libraries }).model
+  })
   /** The shown answer no longer matches the editor's text. */
   const shownIsStale = computed(() => shown.value !== null && shown.value.source !== source.value)
   const sweep = computed<SweepResult | null>(() => (shown.value?.kind === 'sweep' ? (shown.value.result as SweepResult) : null))
@@ -206,6 +212,7 @@ export const useWorkbenchStore = defineStore('workbench', () => {
     saveProblem.value = null
     conflict.value = null
     resolveLibrary.value = undefined
+    shownLibraries.value = undefined
   }
 
   function showStored(run: StoredRun, solvedSource: string) {
@@ -221,6 +228,25 @@ export const useWorkbenchStore = defineStore('workbench', () => {
       at: run.createdAt,
     }
     olderRun.value = null
+    shownLibraries.value = undefined
+    if (run.libraries?.length) void pinLibraries(run, solvedSource)
+  }
+
+  function libraryPreloader(lab: string) {
+    if (preloader?.lab !== lab) preloader = { lab, preload: labLibraryPreloader(lab, request) }
+    return preloader.preload
+  }
+
+  /** Load the library revisions a stored run used; until then (or if that fails) the editor's libraries stand in. */
+  async function pinLibraries(run: StoredRun, solvedSource: string) {
+    const lab = answer.value?.lab.slug
+    if (!lab) return
+    try {
+      const texts = await libraryPreloader(lab)(solvedSource, run.libraries)
+      if (shown.value?.origin === 'stored' && shown.value.run.id === run.id) shownLibraries.value = resolverFrom(texts)
+    } catch {
+      // The editor's libraries stand in.
+    }
   }
 
   /** On opening: the newest stored run of the latest revision, if there is one. */
@@ -283,10 +309,9 @@ export const useWorkbenchStore = defineStore('workbench', () => {
   async function loadLibraries() {
     const lab = answer.value?.lab.slug
     if (!lab) return
-    if (preloader?.lab !== lab) preloader = { lab, preload: labLibraryPreloader(lab, request) }
     const ticket = ++preloadTicket
     try {
-      const texts = await preloader.preload(source.value)
+      const texts = await libraryPreloader(lab)(source.value)
       if (ticket === preloadTicket) resolveLibrary.value = resolverFrom(texts)
     } catch {
       // Keep what we had: the server still resolves libraries on run and save.

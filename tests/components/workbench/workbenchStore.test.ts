@@ -110,6 +110,27 @@ describe('useWorkbenchStore', () => {
     expect(compile(store.source, { resolveLibrary: store.resolveLibrary }).diagnostics.filter((d) => d.severity === 'error')).toEqual([])
   })
 
+  it('shows a stored run with the library revision it was solved with, not the library’s latest', async () => {
+    // Acetic acid pKa 4.76 (from memory) in revision 1; revision 2 of the library moved it (demo).
+    const library = (pKa: number) => `system "Acids"\ncomponent H+ balance\ncomponent CH3COO- total 10 mM\nreaction CH3COOH <=> CH3COO- + H+ pKa ${pKa} cite "acetic acid (from memory)"\n`
+    const uses = `system "Vinegar rinse"\nuse "acids"\ncomponent H+ balance\ncomponent CH3COO- total 10 mM\n`
+    const store = useWorkbenchStore()
+    store.open(answer('editor', 4, uses))
+    fetcher.mockImplementation(async (url: string) => {
+      if (url === '/api/labs/plating/libraries') return { libraries: [{ name: 'acids', title: 'Acids', latestRevision: 2 }] }
+      if (url === '/api/labs/plating/libraries/acids/revisions/1') return { name: 'acids', revision: 1, source: library(4.76) }
+      if (url === '/api/labs/plating/libraries/acids/revisions/2') return { name: 'acids', revision: 2, source: library(5.5) }
+      if (url === '/api/labs/plating/systems/strike/runs') return { ...run(12, 4), libraries: [{ name: 'acids', revision: 1 }] }
+      throw refusal(404, 'not found')
+    })
+    await store.loadLibraries()
+    await store.run()
+    const pKa = () => store.shownModel?.reactions.find((r) => r.equation.includes('CH3COOH'))?.value
+    await vi.waitFor(() => expect(pKa()).toBe(4.76))
+    // The editor still checks against the latest.
+    expect(compile(store.source, { resolveLibrary: store.resolveLibrary }).model?.reactions[0]?.value).toBe(5.5)
+  })
+
   it('keeps the libraries it had when loading them fails', async () => {
     const store = useWorkbenchStore()
     store.open(answer('editor', 4, `system "Strike bath"\nuse "water"\ncomponent H+ total 1 mmol/L\n`))
