@@ -65,10 +65,24 @@ describe('ResultsSpeciesTable', () => {
   it('shows each species share of the chosen component and lets the reader pick another', async () => {
     const wrapper = mountTable()
     const shares = column(wrapper, 'Share of dissolved Cu²⁺')
-    expect(shares[0]).toBe('0.0 %') // H+ holds no copper
+    expect(shares[0]).toBe('—') // H+ holds no copper
+    expect(shares[2]).toMatch(/ %$/) // free Cu2+ holds copper, however small its share
     await wrapper.find('[data-test="share-component"]').setValue('NH3')
     expect(wrapper.emitted('update:component')?.at(-1)).toEqual(['NH3'])
     expect(column(wrapper, 'Share of dissolved NH₃').length).toBe(result.species.length)
+  })
+
+  it('marks a species without the chosen component with a dash that says so, not 0 %', () => {
+    const wrapper = mountTable()
+    const headers = wrapper.findAll('th').map((th) => th.text())
+    const index = headers.findIndex((h) => h.startsWith('Share of dissolved Cu²⁺'))
+    const hydroxide = wrapper.findAll('[data-test="species-row"]')[1].findAll('td')[index]
+    expect(hydroxide.text()).toBe('—')
+    expect(hydroxide.attributes('title')).toBe('does not contain Cu²⁺')
+    expect(hydroxide.attributes('aria-label')).toBe('does not contain Cu²⁺')
+    const copperHydroxide = wrapper.findAll('[data-test="species-row"]')[7].findAll('td')[index]
+    expect(copperHydroxide.text()).toMatch(/^\d+\.\d %$/)
+    expect(copperHydroxide.attributes('title')).toBeUndefined()
   })
 
   it('tells the reader to run when there is no result, and leaves out the share without a model', () => {
