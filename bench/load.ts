@@ -13,7 +13,7 @@
  */
 import { spawn, spawnSync } from 'node:child_process'
 import { existsSync } from 'node:fs'
-import { createServer } from 'node:net'
+import { freePort } from '../scripts/free-port'
 import { resolve } from 'node:path'
 import mysql from 'mysql2/promise'
 import { migrateDatabase, openDatabase } from '../server/database/connect'
@@ -30,17 +30,6 @@ const SWEEPS_IN_FLIGHT = 3
 const PROBES = 40
 
 function say(line: string) { if (!asJson) console.log(line) }
-
-function freePort(): Promise<number> {
-  return new Promise((done, fail) => {
-    const server = createServer()
-    server.once('error', fail)
-    server.listen(0, '127.0.0.1', () => {
-      const address = server.address()
-      server.close(() => done(typeof address === 'object' && address ? address.port : 0))
-    })
-  })
-}
 
 function quantile(values: number[], q: number): number {
   const sorted = [...values].sort((a, b) => a - b)

@@ -5,16 +5,9 @@
  */
 import { readdir, readFile } from 'node:fs/promises'
 import { join } from 'node:path'
+import type { CapturedMail } from '../../scripts/fake-smtp.mjs'
 
-export interface CapturedMail {
-  id: string
-  receivedAt: string
-  from: string
-  to: string[]
-  subject: string
-  text: string
-  html: string | null
-}
+export type { CapturedMail }
 
 /** The folder of captured mail, or null when the server does not capture mail. */
 export function mailCaptureDir(): string | null {

@@ -40,3 +40,7 @@ export async function validateBody<S extends z.ZodType>(event: H3Event, schema: 
 export function validateParams<S extends z.ZodType>(event: H3Event, schema: S): z.infer<S> {
   return check(schema, getRouterParams(event, { decode: true }))
 }
+
+export function validateQuery<S extends z.ZodType>(event: H3Event, schema: S): z.infer<S> {
+  return check(schema, getQuery(event))
+}

@@ -7,7 +7,7 @@
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process'
 import { existsSync, mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
-import { createServer } from 'node:net'
+import { freePort } from '../../scripts/free-port'
 import { resolve } from 'node:path'
 import type { TestProject } from 'vitest/node'
 import { migrateDatabase, openDatabase } from '../../server/database/connect'
@@ -26,17 +26,6 @@ declare module 'vitest' {
     /** The folder where the fake SMTP server keeps this run's mail (see mail.ts). */
     mailDir: string
   }
-}
-
-function freePort(): Promise<number> {
-  return new Promise((done, fail) => {
-    const server = createServer()
-    server.once('error', fail)
-    server.listen(0, '127.0.0.1', () => {
-      const address = server.address()
-      server.close(() => done(typeof address === 'object' && address ? address.port : 0))
-    })
-  })
 }
 
 async function waitUntilServing(url: string, child: ChildProcess, log: string[]): Promise<void> {

@@ -12,14 +12,13 @@ const Query = z.object({
 export default defineEventHandler(async (event) => {
   const params = validateParams(event, LabParams)
   const { lab } = await requireLabRole(event, params.lab, 'viewer')
-  const query = Query.safeParse(getQuery(event))
-  if (!query.success) throw createError({ statusCode: 400, message: query.error.issues[0]!.message })
+  const query = validateQuery(event, Query)
   let systemId: number | undefined
-  if (query.data.system) {
+  if (query.system) {
     const [system] = await useDb().select({ id: tables.systems.id }).from(tables.systems)
-      .where(and(eq(tables.systems.labId, lab.id), eq(tables.systems.slug, query.data.system)))
-    if (!system) throw createError({ statusCode: 404, message: `No system "${query.data.system}" in ${lab.name}` })
+      .where(and(eq(tables.systems.labId, lab.id), eq(tables.systems.slug, query.system)))
+    if (!system) throw createError({ statusCode: 404, message: `No system "${query.system}" in ${lab.name}` })
     systemId = system.id
   }
-  return { reviews: await listLabReviews(lab.id, { systemId, state: query.data.state }) }
+  return { reviews: await listLabReviews(lab.id, { systemId, state: query.state }) }
 })

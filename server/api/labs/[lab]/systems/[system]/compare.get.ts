@@ -29,12 +29,8 @@ async function compiledOrProblem(labId: number, source: string, number: number, 
 export default defineEventHandler(async (event) => {
   const params = validateParams(event, SystemParams)
   const access = await requireSystem(event, params.lab, params.system, 'viewer')
-  const query = Query.safeParse(getQuery(event))
-  if (!query.success) {
-    const issue = query.error.issues[0]!
-    throw createError({ statusCode: 400, message: `${issue.path.join('.') || 'query'}: ${issue.message}`, data: { issues: query.error.issues.map(i => ({ path: i.path.join('.'), message: i.message })) } })
-  }
-  const [from, to] = await Promise.all([findRevision(access.system.id, query.data.from), findRevision(access.system.id, query.data.to)])
+  const query = validateQuery(event, Query)
+  const [from, to] = await Promise.all([findRevision(access.system.id, query.from), findRevision(access.system.id, query.to)])
 
   const problems: string[] = []
   const fromModel = await compiledOrProblem(access.lab.id, from.source, from.number, problems)
