@@ -218,3 +218,57 @@ export const passwordResetsRelations = relations(passwordResets, ({ one }) => ({
 
 export type Invitation = typeof invitations.$inferSelect
 export type PasswordReset = typeof passwordResets.$inferSelect
+
+/**
+ * One signed-in session. The sealed cookie carries a random token; only its
+ * sha256 is kept here. A request is signed in only while its row exists and
+ * is within the idle and absolute lifetimes (see server/utils/sessions.ts):
+ * signing out deletes the row, so a copied cookie stops working too.
+ */
+export const sessions = mysqlTable('sessions', {
+  id: int('id').autoincrement().primaryKey(),
+  userId: int('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  tokenHash: varchar('token_hash', { length: 64 }).notNull(),
+  lastSeenAt: datetime('last_seen_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`),
+  /** The browser that signed in, shortened, so a person can tell sessions apart. */
+  userAgent: varchar('user_agent', { length: 200 }).notNull().default(''),
+  createdAt,
+}, (t) => [
+  uniqueIndex('sessions_token_unique').on(t.tokenHash),
+  index('sessions_user_idx').on(t.userId),
+])
+
+/**
+ * Counters of the rate limits that must hold across restarts and server
+ * processes (failed sign-ins per account and address, per address; see
+ * server/utils/limits.ts). A counter starts over when its window has passed.
+ */
+export const throttleCounters = mysqlTable('throttle_counters', {
+  key: varchar('key', { length: 320 }).primaryKey(),
+  hits: int('hits').notNull(),
+  firstAt: datetime('first_at', { mode: 'date', fsp: 3 }).notNull(),
+  lastAt: datetime('last_at', { mode: 'date', fsp: 3 }).notNull(),
+})
+
+/**
+ * A registration waiting for its address to be confirmed: the account is
+ * created only when the mailed link is opened, with the name and password of
+ * that registration (token kept as sha256 only).
+ */
+export const pendingRegistrations = mysqlTable('pending_registrations', {
+  id: int('id').autoincrement().primaryKey(),
+  email: varchar('email', { length: 254 }).notNull(),
+  name: varchar('name', { length: 120 }).notNull(),
+  passwordHash: varchar('password_hash', { length: 255 }).notNull(),
+  tokenHash: varchar('token_hash', { length: 64 }).notNull(),
+  expiresAt: datetime('expires_at', { mode: 'date', fsp: 3 }).notNull(),
+  usedAt: datetime('used_at', { mode: 'date', fsp: 3 }),
+  createdAt,
+}, (t) => [
+  uniqueIndex('pending_registrations_token_unique').on(t.tokenHash),
+  index('pending_registrations_email_idx').on(t.email),
+])
+
+export type Session = typeof sessions.$inferSelect
+export type PendingRegistration = typeof pendingRegistrations.$inferSelect
+export type ThrottleCounter = typeof throttleCounters.$inferSelect

@@ -9,6 +9,11 @@ declare module '#auth-utils' {
   interface UserSession {
     loggedInAt: number
   }
+  // Server-only part of the session (never sent by /api/_auth/session).
+  interface SecureSessionData {
+    /** The session's random token; the sessions table keeps its sha256 (server/utils/sessions.ts). */
+    token: string
+  }
 }
 
 export {}

@@ -1,4 +1,5 @@
+/** Signs this browser out for good: the session's row goes, so a copy of the cookie is refused afterwards. */
 export default defineEventHandler(async (event) => {
-  await clearUserSession(event)
+  await endSession(event)
   return { signedOut: true }
 })

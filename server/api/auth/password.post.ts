@@ -1,7 +1,11 @@
 import { eq } from 'drizzle-orm'
 import { PasswordChangeBody } from '#shared/utils/account-schemas'
 
-/** Change one's own password; the current one must be given again. */
+/**
+ * Change one's own password; the current one must be given again. Every
+ * other session of the account ends (a thief's copy of a cookie among them);
+ * the one that made the change stays signed in.
+ */
 export default defineEventHandler(async (event) => {
   const user = await requireUser(event)
   const body = await validateBody(event, PasswordChangeBody)
@@ -11,6 +15,7 @@ export default defineEventHandler(async (event) => {
     throw createError({ statusCode: 400, message: 'currentPassword: The current password is not correct', data: { issues: [{ path: 'currentPassword', message: 'The current password is not correct' }] } })
   }
   await db.update(tables.users).set({ passwordHash: await hashPassword(body.newPassword) }).where(eq(tables.users.id, user.id))
-  await recordAudit({ actorId: user.id, labId: null, action: 'user.password-change' })
-  return { changed: true }
+  const otherSessionsEnded = await endOtherSessions(user.id, event)
+  await recordAudit({ actorId: user.id, labId: null, action: 'user.password-change', detail: { otherSessionsEnded } })
+  return { changed: true, otherSessionsEnded }
 })

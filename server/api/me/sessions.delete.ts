@@ -1,0 +1,7 @@
+/** DELETE /api/me/sessions — sign out every other session of the account; this one stays. */
+export default defineEventHandler(async (event) => {
+  const user = await requireUser(event)
+  const ended = await endOtherSessions(user.id, event)
+  await recordAudit({ actorId: user.id, labId: null, action: 'user.sign-out-others', detail: { ended } })
+  return { ended }
+})
