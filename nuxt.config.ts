@@ -34,6 +34,13 @@ export default defineNuxtConfig({
     },
     // The public address of the site for links in mail (NUXT_SITE_URL); empty: the address of the request.
     siteUrl: '',
+    // Session lifetimes in minutes (NUXT_SESSION_IDLE_MINUTES, NUXT_SESSION_ABSOLUTE_MINUTES): a session
+    // ends after this long without a request, and this long after signing in. Defaults: 7 and 30 days.
+    sessionIdleMinutes: 7 * 24 * 60,
+    sessionAbsoluteMinutes: 30 * 24 * 60,
+    // Proxies whose X-Forwarded-For is believed for the client address (NUXT_TRUSTED_PROXIES: comma-separated
+    // addresses or CIDR ranges). Empty: the socket's address is the client's.
+    trustedProxies: '',
   },
   // The examples travel with the built server (read with useStorage('assets:examples')).
   // Nitro resolves the folder from server/, hence the '..'.

@@ -1,45 +1,39 @@
 /**
- * Slows down password guessing: after too many failed sign-ins for one
- * e-mail address, or from one network address, within a window, sign-in
- * answers 429 with the seconds to wait. Kept in memory: one server process
- * serves a lab, and a restart forgetting the count is harmless.
+ * Slows down password guessing without letting anyone lock an account:
+ * failures are counted per account and client address (growing delays after
+ * a few) and per client address (a looser limit), in MariaDB. The owner
+ * signing in from another address is not slowed by a guesser elsewhere.
+ * The rules are in limits.ts.
  */
-const WINDOW_MS = 15 * 60 * 1000
-const LIMITS = { account: 5, network: 30 } as const
+import { createHash } from 'node:crypto'
+import { failureWaitSeconds, LOGIN_THROTTLE, type FailureRule } from './limits'
+import { bumpCounter, deleteCounter, readCounters } from './throttle-counters'
 
-const failures = new Map<string, number[]>()
-
-function recent(key: string, now: number): number[] {
-  const kept = (failures.get(key) ?? []).filter((t) => now - t < WINDOW_MS)
-  if (kept.length) failures.set(key, kept)
-  else failures.delete(key)
-  return kept
-}
-
-function keys(email: string, ip: string) {
+function counterKeys(email: string, address: string): { key: string, rule: FailureRule }[] {
+  const pair = createHash('sha256').update(`${email.toLowerCase()}\n${address}`).digest('hex')
   return [
-    { key: `account:${email}`, limit: LIMITS.account },
-    { key: `network:${ip}`, limit: LIMITS.network },
+    { key: `login:account-address:${pair}`, rule: LOGIN_THROTTLE.accountAndAddress },
+    { key: `login:address:${address}`.slice(0, 320), rule: LOGIN_THROTTLE.address },
   ]
 }
 
-/** Seconds to wait before another attempt is allowed, or 0 when it is allowed now. */
-export function loginRetryAfterSeconds(email: string, ip: string, now = Date.now()): number {
+/** Seconds before this account may try again from this address (0: now). */
+export async function loginRetryAfterSeconds(email: string, address: string, now = Date.now()): Promise<number> {
+  const keys = counterKeys(email, address)
+  const rows = await readCounters(keys.map((k) => k.key))
   let wait = 0
-  for (const { key, limit } of keys(email, ip)) {
-    const times = recent(key, now)
-    if (times.length >= limit) {
-      const oldestThatCounts = times[times.length - limit]!
-      wait = Math.max(wait, Math.ceil((oldestThatCounts + WINDOW_MS - now) / 1000))
-    }
+  for (const { key, rule } of keys) {
+    wait = Math.max(wait, failureWaitSeconds(rule, rows.find((r) => r.key === key), now))
   }
   return wait
 }
 
-export function recordLoginFailure(email: string, ip: string, now = Date.now()): void {
-  for (const { key } of keys(email, ip)) failures.set(key, [...recent(key, now), now])
+/** Counts a failed sign-in; a counter with no failure for its rule's forgetting time starts over. */
+export async function recordLoginFailure(email: string, address: string): Promise<void> {
+  for (const { key, rule } of counterKeys(email, address)) await bumpCounter(key, rule.forgetAfterMinutes, 'idle')
 }
 
-export function clearLoginFailures(email: string): void {
-  failures.delete(`account:${email}`)
+/** A successful sign-in clears its account-and-address counter (not the address's). */
+export async function clearLoginFailures(email: string, address: string): Promise<void> {
+  await deleteCounter(counterKeys(email, address)[0]!.key)
 }

@@ -75,6 +75,8 @@ export default async function setup(project: TestProject) {
       NUXT_MAIL_HOST: '127.0.0.1',
       NUXT_MAIL_PORT: String(mail.port),
       NUXT_MAIL_CAPTURE_DIR: mail.dir,
+      // Requests from the tests come over loopback; X-Forwarded-For then stands for a client address.
+      NUXT_TRUSTED_PROXIES: '127.0.0.1,::1',
     },
     stdio: ['ignore', 'pipe', 'pipe'],
   })

@@ -10,25 +10,18 @@ let decoyHash: Promise<string> | undefined
 
 export default defineEventHandler(async (event) => {
   const body = await validateBody(event, LoginBody)
-  const ip = getRequestIP(event) ?? 'unknown'
-  const wait = loginRetryAfterSeconds(body.email, ip)
-  if (wait > 0) {
-    setResponseHeader(event, 'Retry-After', wait)
-    throw createError({
-      statusCode: 429,
-      message: `Too many failed sign-ins. Try again in ${Math.ceil(wait / 60)} minute${wait > 60 ? 's' : ''}.`,
-      data: { retryAfterSeconds: wait },
-    })
-  }
+  const address = clientAddress(event)
+  const wait = await loginRetryAfterSeconds(body.email, address)
+  if (wait > 0) refuseForNow(event, 'Too many failed sign-ins for this account from your network.', wait)
   const [user] = await useDb().select().from(tables.users).where(eq(tables.users.email, body.email))
   decoyHash ??= hashPassword('not a password of anyone')
   const valid = await verifyPassword(user?.passwordHash ?? await decoyHash, body.password)
   if (!user || !valid) {
-    recordLoginFailure(body.email, ip)
+    await recordLoginFailure(body.email, address)
     throw createError({ statusCode: 401, message: INVALID_CREDENTIALS })
   }
-  clearLoginFailures(body.email)
+  await clearLoginFailures(body.email, address)
   const sessionUser = { id: user.id, email: user.email, name: user.name }
-  await setUserSession(event, { user: sessionUser, loggedInAt: Date.now() })
+  await startSession(event, sessionUser)
   return { user: { ...sessionUser, isAdmin: user.isAdmin } }
 })
