@@ -6,7 +6,7 @@
 // prints its port; scripts/serve.mjs and the tests' global setup import
 // startFakeSmtp() instead.
 import { randomBytes } from 'node:crypto'
-import { mkdirSync, writeFileSync } from 'node:fs'
+import { mkdirSync, renameSync, writeFileSync } from 'node:fs'
 import { join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { SMTPServer } from 'smtp-server'
@@ -103,7 +103,9 @@ export function startFakeSmtp({ dir, port = 0 }) {
           const receivedAt = new Date()
           const id = `${receivedAt.getTime()}-${randomBytes(4).toString('hex')}`
           const message = { id, receivedAt: receivedAt.toISOString(), ...readMessage(Buffer.concat(chunks).toString('latin1'), envelope) }
-          writeFileSync(join(folder, `${id}.json`), JSON.stringify(message, null, 2))
+          // Written aside, then renamed: a reader never sees half a message.
+          writeFileSync(join(folder, `${id}.json.part`), JSON.stringify(message, null, 2))
+          renameSync(join(folder, `${id}.json.part`), join(folder, `${id}.json`))
           done()
         } catch (error) {
           done(error)

@@ -3,7 +3,7 @@
  * server during SSR, forwarding the cookie) and updated by sign-in/out.
  */
 import { defineStore } from 'pinia'
-import type { LoginInput, RegisterInput } from '#shared/utils/account-schemas'
+import type { LoginInput } from '#shared/utils/account-schemas'
 
 export interface SessionUser {
   id: number
@@ -32,8 +32,9 @@ export const useSessionStore = defineStore('session', {
       const answer = await $fetch<{ user: SessionUser }>('/api/auth/login', { method: 'POST', body: input })
       this.user = answer.user
     },
-    async register(input: RegisterInput) {
-      const answer = await $fetch<{ user: SessionUser }>('/api/auth/register', { method: 'POST', body: input })
+    /** Confirms a registration with the token from its mail: the account is created and signed in. */
+    async confirmRegistration(token: string) {
+      const answer = await $fetch<{ user: SessionUser }>('/api/auth/register/confirm', { method: 'POST', body: { token } })
       this.user = answer.user
     },
     async logout() {

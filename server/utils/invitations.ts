@@ -4,11 +4,13 @@
  * and is (or registers as) that address joins with that role.
  */
 import type { H3Event } from 'h3'
-import { and, eq, gt, isNull } from 'drizzle-orm'
+import { and, desc, eq, gt, isNull } from 'drizzle-orm'
 import type { Invitation, Lab } from '../database/schema'
 import { INVITATION_DAYS } from '../../shared/utils/invitation-schemas'
 import { labRoleAtLeast, type LabRole } from '../../shared/utils/roles'
 import { tables, useDb } from './db'
+import { recordAudit } from './audit'
+import { INVITATIONS_PER_HOUR, refuseForNow } from './limits'
 import { sendMail, siteLink } from './mail'
 import { hashToken, newToken } from './tokens'
 
@@ -69,8 +71,44 @@ export async function acceptInvitation(open: OpenInvitation, userId: number): Pr
   })
 }
 
-/** Stores a new invitation and mails its link; says whether the mail went out. */
-export async function createInvitation(event: H3Event, input: {
+/**
+ * Invites an address into a lab, the one way an owner adds people (so nobody
+ * learns whether an address has an account): refuses an address that is
+ * already a member (409) and an owner or lab past INVITATIONS_PER_HOUR (429),
+ * stores the invitation, mails its link and records it. Says whether the mail
+ * went out.
+ */
+export async function inviteToLab(event: H3Event, input: {
+  lab: Lab
+  email: string
+  role: LabRole
+  inviter: { id: number; name: string }
+}): Promise<{ invitation: Invitation; mailed: boolean }> {
+  const db = useDb()
+  const [member] = await db.select({ name: tables.users.name, role: tables.labMembers.role })
+    .from(tables.labMembers)
+    .innerJoin(tables.users, eq(tables.users.id, tables.labMembers.userId))
+    .where(and(eq(tables.labMembers.labId, input.lab.id), eq(tables.users.email, input.email)))
+  if (member) {
+    throw createError({ statusCode: 409, message: `${member.name} (${input.email}) is already a member (${member.role}); change their role instead`, data: { issues: [{ path: 'email', message: `Already a member (${member.role})` }] } })
+  }
+  const { invitation, mailed } = await createInvitation(event, input)
+  await recordAudit({ actorId: input.inviter.id, labId: input.lab.id, action: 'invitation.create', detail: { invitationId: invitation.id, email: input.email, role: input.role, mailed } })
+  return { invitation, mailed }
+}
+
+/** Seconds until fewer than `limit` of these creation times fall in the last hour (0: none to wait). */
+function hourlyWait(newestFirst: { createdAt: Date }[], limit: number, now: number): number {
+  if (newestFirst.length < limit) return 0
+  return Math.max(1, Math.ceil((newestFirst[limit - 1]!.createdAt.getTime() + 3600_000 - now) / 1000))
+}
+
+/**
+ * Stores a new invitation and mails its link; says whether the mail went out.
+ * The count against INVITATIONS_PER_HOUR and the insert happen under locks
+ * on the inviter's and the lab's rows, so parallel requests cannot overshoot.
+ */
+async function createInvitation(event: H3Event, input: {
   lab: Lab
   email: string
   role: LabRole
@@ -79,15 +117,30 @@ export async function createInvitation(event: H3Event, input: {
   const db = useDb()
   const { token, hash } = newToken()
   const expiresAt = new Date(Date.now() + INVITATION_DAYS * 24 * 3600 * 1000)
-  const [inserted] = await db.insert(tables.invitations).values({
-    labId: input.lab.id,
-    email: input.email,
-    role: input.role,
-    tokenHash: hash,
-    invitedBy: input.inviter.id,
-    expiresAt,
-  }).$returningId()
-  const [invitation] = await db.select().from(tables.invitations).where(eq(tables.invitations.id, inserted!.id))
+  const invitationId = await db.transaction(async (tx) => {
+    await tx.select({ id: tables.users.id }).from(tables.users).where(eq(tables.users.id, input.inviter.id)).for('update')
+    await tx.select({ id: tables.labs.id }).from(tables.labs).where(eq(tables.labs.id, input.lab.id)).for('update')
+    const hourAgo = new Date(Date.now() - 3600_000)
+    const recent = (column: typeof tables.invitations.invitedBy | typeof tables.invitations.labId, id: number, limit: number) =>
+      tx.select({ createdAt: tables.invitations.createdAt }).from(tables.invitations)
+        .where(and(eq(column, id), gt(tables.invitations.createdAt, hourAgo)))
+        .orderBy(desc(tables.invitations.createdAt)).limit(limit)
+    const now = Date.now()
+    const byUser = hourlyWait(await recent(tables.invitations.invitedBy, input.inviter.id, INVITATIONS_PER_HOUR.perUser), INVITATIONS_PER_HOUR.perUser, now)
+    if (byUser) refuseForNow(event, `You have sent ${INVITATIONS_PER_HOUR.perUser} invitations in the last hour, the most one person may send.`, byUser)
+    const byLab = hourlyWait(await recent(tables.invitations.labId, input.lab.id, INVITATIONS_PER_HOUR.perLab), INVITATIONS_PER_HOUR.perLab, now)
+    if (byLab) refuseForNow(event, `${input.lab.name} has sent ${INVITATIONS_PER_HOUR.perLab} invitations in the last hour, the most one lab may send.`, byLab)
+    const [inserted] = await tx.insert(tables.invitations).values({
+      labId: input.lab.id,
+      email: input.email,
+      role: input.role,
+      tokenHash: hash,
+      invitedBy: input.inviter.id,
+      expiresAt,
+    }).$returningId()
+    return inserted!.id
+  })
+  const [invitation] = await db.select().from(tables.invitations).where(eq(tables.invitations.id, invitationId))
   const link = siteLink(event, `/invitations/accept?token=${token}`)
   const { delivered } = await sendMail({
     to: input.email,

@@ -9,32 +9,39 @@ import { PASSWORD_RESET_MINUTES } from '../../shared/utils/invitation-schemas'
 import { tables, useDb } from './db'
 import { sendMail, siteLink } from './mail'
 import { hashToken, newToken } from './tokens'
+import { RESET_MAILS } from './limits'
 
-/** At most this many reset mails per account in RESET_WINDOW_MINUTES, so the form cannot flood a mailbox. */
-const RESETS_PER_WINDOW = 3
-const RESET_WINDOW_MINUTES = 15
 
 /** The one answer to "send me a reset link", for known and unknown addresses alike. */
 export const RESET_REQUESTED_MESSAGE = `If an account uses this address, a link to choose a new password is on its way; it works once, for ${PASSWORD_RESET_MINUTES} minutes`
 
-/** Mails a reset link when the address has an account (and has not had too many lately); does nothing visible otherwise. */
+/**
+ * Mails a reset link when the address has an account (and has not had too
+ * many lately); does nothing visible otherwise. The route runs it after
+ * answering, so known and unknown addresses answer alike and as fast.
+ */
 export async function requestPasswordReset(event: H3Event, email: string): Promise<void> {
   const db = useDb()
   const [account] = await db.select({ id: tables.users.id, name: tables.users.name }).from(tables.users).where(eq(tables.users.email, email))
   if (!account) return
-  const since = new Date(Date.now() - RESET_WINDOW_MINUTES * 60 * 1000)
-  const [recent] = await db.select({ n: count() }).from(tables.passwordResets)
-    .where(and(eq(tables.passwordResets.userId, account.id), gt(tables.passwordResets.createdAt, since)))
-  if ((recent?.n ?? 0) >= RESETS_PER_WINDOW) return
+  const since = new Date(Date.now() - RESET_MAILS.windowMinutes * 60 * 1000)
   const { token, hash } = newToken()
-  await db.insert(tables.passwordResets).values({
-    userId: account.id,
-    tokenHash: hash,
-    expiresAt: new Date(Date.now() + PASSWORD_RESET_MINUTES * 60 * 1000),
+  // Counted and stored under a lock on the account's row, so parallel requests cannot pass the limit.
+  const stored = await db.transaction(async (tx) => {
+    await tx.select({ id: tables.users.id }).from(tables.users).where(eq(tables.users.id, account.id)).for('update')
+    const [recent] = await tx.select({ n: count() }).from(tables.passwordResets)
+      .where(and(eq(tables.passwordResets.userId, account.id), gt(tables.passwordResets.createdAt, since)))
+    if ((recent?.n ?? 0) >= RESET_MAILS.perWindow) return false
+    await tx.insert(tables.passwordResets).values({
+      userId: account.id,
+      tokenHash: hash,
+      expiresAt: new Date(Date.now() + PASSWORD_RESET_MINUTES * 60 * 1000),
+    })
+    return true
   })
+  if (!stored) return
   const link = siteLink(event, `/password/reset?token=${token}`)
-  // Not awaited: waiting for the mail server would make known addresses answer more slowly than unknown ones.
-  void sendMail({
+  await sendMail({
     to: email,
     subject: 'Choose a new password for Equipoise',
     text: [
@@ -54,7 +61,7 @@ const LINK_UNUSABLE = 'This reset link has expired or was already used; ask for 
 /**
  * Sets a new password with a reset link's token. The link is used up first
  * (only one request can win), then every other open link of the account is
- * closed too. Returns the account's id.
+ * closed too, and every session of the account ends. Returns the account's id.
  */
 export async function resetPassword(token: string, passwordHash: string): Promise<number> {
   const db = useDb()
@@ -66,6 +73,8 @@ export async function resetPassword(token: string, passwordHash: string): Promis
       .where(and(eq(tables.passwordResets.id, reset.id), isNull(tables.passwordResets.usedAt), gt(tables.passwordResets.expiresAt, now)))
     if (used.affectedRows !== 1) throw createError({ statusCode: 410, message: LINK_UNUSABLE })
     await tx.update(tables.users).set({ passwordHash }).where(eq(tables.users.id, reset.userId))
+    // Whoever knew the old password (or holds a copied cookie) is signed out everywhere.
+    await tx.delete(tables.sessions).where(eq(tables.sessions.userId, reset.userId))
     await tx.update(tables.passwordResets).set({ usedAt: now })
       .where(and(eq(tables.passwordResets.userId, reset.userId), isNull(tables.passwordResets.usedAt)))
     return reset.userId

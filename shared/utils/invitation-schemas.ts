@@ -10,6 +10,8 @@ import { LabRoleSchema } from './lab-schemas'
 export const INVITATION_DAYS = 7
 /** How long a password reset link works. */
 export const PASSWORD_RESET_MINUTES = 60
+/** How long a registration's confirmation link works. */
+export const REGISTRATION_CONFIRM_HOURS = 24
 
 /** A link token: the base64url text of 32 random bytes. */
 export const LinkTokenSchema = z.string().trim()
@@ -19,6 +21,9 @@ export const InvitationCreateBody = z.object({
   email: EmailSchema,
   role: LabRoleSchema,
 })
+
+/** Confirm a registration's address with the token from its mail. */
+export const RegisterConfirmBody = z.object({ token: LinkTokenSchema })
 
 export const InvitationAcceptBody = z.object({ token: LinkTokenSchema })
 

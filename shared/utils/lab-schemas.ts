@@ -3,7 +3,6 @@
  */
 import { z } from 'zod'
 import { LAB_ROLES } from './roles'
-import { EmailSchema } from './account-schemas'
 
 /** Lower-case letters, digits and single dashes between them: the piece of a URL. */
 export const SLUG_PATTERN = /^[a-z0-9]+(?:-[a-z0-9]+)*$/
@@ -27,11 +26,6 @@ const SourceSchema = z.string().max(SOURCE_MAX_LENGTH, { error: `Source is longe
 export const LabCreateBody = z.object({
   name: z.string().trim().min(1, { error: 'Enter a name for the lab' }).max(120, { error: 'Use at most 120 characters' }),
   slug: SlugSchema,
-})
-
-export const MemberAddBody = z.object({
-  email: EmailSchema,
-  role: LabRoleSchema,
 })
 
 export const MemberUpdateBody = z.object({ role: LabRoleSchema })

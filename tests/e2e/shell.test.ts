@@ -1,16 +1,18 @@
-// The whole first visit in Chromium: register, sign out and in again, create
-// a lab, add a member, create a system, sign out. Screenshots of the lab and
+// The whole first visit in Chromium: register and confirm the address from
+// the mail, sign out and in again, create a lab, invite a member, create a
+// system, sign out. Screenshots of the lab and
 // members pages go to test-results/ for a person to look at.
 import { describe, expect, it } from 'vitest'
 import { url } from '@nuxt/test-utils/e2e'
 import { useBuiltServer } from '../setup/server'
-import { freshEmail, signUp } from '../setup/accounts'
+import { api, freshEmail, signUp } from '../setup/accounts'
+import { linkTo, waitForMail } from '../setup/mail'
 import { openPage, openSignedIn, screenshot } from '../setup/browser'
 
 await useBuiltServer()
 
 describe('first visit in the browser', () => {
-  it('registers, signs in, creates a lab, adds a member, creates a system and signs out', async () => {
+  it('registers and confirms, signs in, creates a lab, invites a member, creates a system and signs out', async () => {
     const colleague = await signUp('colleague')
     const email = freshEmail('browser')
     const password = 'a browser password'
@@ -20,6 +22,12 @@ describe('first visit in the browser', () => {
     await page.getByLabel('E-mail').fill(email)
     await page.getByLabel('Password').fill(password)
     await page.getByRole('button', { name: 'Create account' }).click()
+    await page.locator('[data-test=register-requested]').getByText(`We sent a mail to ${email}`).waitFor()
+    await screenshot(page, 'register-check-mail')
+
+    // The account exists once the mailed link is opened and confirmed.
+    await page.goto(url(linkTo(await waitForMail(email, /^Confirm your address/), '/register/confirm')))
+    await page.getByRole('button', { name: 'Confirm and sign in' }).click()
     await page.getByRole('heading', { name: 'My labs' }).waitFor()
 
     // Sign out, then back in through the form.
@@ -47,14 +55,17 @@ describe('first visit in the browser', () => {
     await page.getByRole('heading', { name: 'Anodising line' }).waitFor()
     await page.getByText('No systems yet').waitFor()
 
-    // A member.
+    // A member, by invitation: they join when they accept it.
     await page.getByRole('link', { name: '1 member' }).click()
     await page.waitForURL(url(`/labs/${labSlug}/members`))
-    const add = page.locator('[data-test=member-add]')
-    await add.getByLabel('E-mail of their account').fill(colleague.user.email)
-    await add.getByLabel('Role').selectOption('editor')
-    await add.getByRole('button', { name: 'Add member' }).click()
-    await add.getByText(`${colleague.user.name} added as editor.`).waitFor()
+    const invite = page.locator('[data-test=invite]')
+    await invite.getByLabel('E-mail').fill(colleague.user.email)
+    await invite.getByLabel('Role').selectOption('editor')
+    await invite.getByRole('button', { name: 'Send invitation' }).click()
+    await invite.getByText(`Invitation sent to ${colleague.user.email} as editor.`).waitFor()
+    const token = new URL(linkTo(await waitForMail(colleague.user.email, /invites you to/), '/invitations/accept'), 'http://x').searchParams.get('token')
+    expect((await api('/api/invitations/accept', { method: 'POST', cookie: colleague.cookie, body: { token } })).status).toBe(200)
+    await page.reload()
     await page.locator('[data-test=members]').getByText(colleague.user.email).waitFor()
     await screenshot(page, 'members-page')
 

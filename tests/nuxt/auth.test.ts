@@ -1,28 +1,65 @@
-// Accounts against the built server and the real MariaDB: register, sign in,
-// one message for every wrong credential, throttling, sign out, password change.
+// Accounts against the built server and the real MariaDB: register with a
+// confirmed address, sign in, one message for every wrong credential, sign
+// out, password change. Throttling and session lifetimes: sessions.test.ts.
 import { describe, expect, it } from 'vitest'
 import { url } from '@nuxt/test-utils/e2e'
 import { useBuiltServer } from '../setup/server'
-import { api, freshEmail, sessionCookie, signIn, signUp } from '../setup/accounts'
+import mysql from 'mysql2/promise'
+import { api, confirmationToken, freshEmail, sessionCookie, signIn, signUp } from '../setup/accounts'
+import { waitForMail } from '../setup/mail'
+import { TEST_DATABASE_URL } from '../setup/test-database'
 
 await useBuiltServer()
 
 describe('register', () => {
-  it('creates the account, signs it in and answers /api/me', async () => {
+  it('answers a new and an existing address alike, and creates the account only from the mailed link', async () => {
+    const existing = await signUp('existing')
     const email = freshEmail('reg')
-    const answer = await api('/api/auth/register', { method: 'POST', body: { email: email.toUpperCase(), name: 'Rosa', password: 'ten chars!!' } })
-    expect(answer.status).toBe(201)
-    expect(answer.body.user).toMatchObject({ email, name: 'Rosa', isAdmin: false })
-    const me = await api('/api/me', { cookie: sessionCookie(answer.headers) })
+    const forNew = await api('/api/auth/register', { method: 'POST', body: { email: email.toUpperCase(), name: 'Rosa', password: 'ten chars!!' } })
+    const forExisting = await api('/api/auth/register', { method: 'POST', body: { email: existing.user.email, name: 'Other', password: 'another password' } })
+    expect(forNew.status).toBe(202)
+    expect(forExisting.status).toBe(202)
+    expect(forExisting.body).toEqual(forNew.body)
+    expect(forNew.body.message).toMatch(/Check your mail/)
+    expect(forNew.headers.getSetCookie()).toEqual([])
+    expect(forExisting.headers.getSetCookie()).toEqual([])
+
+    // The existing account's owner hears that someone tried; their password is unchanged.
+    const notice = await waitForMail(existing.user.email, /Someone tried to create an Equipoise account/)
+    expect(notice.text).toContain('already has one. Nothing was changed')
+    await expect(signIn(existing.user.email, 'another password')).rejects.toThrow(/401/)
+    await expect(signIn(existing.user.email, existing.password)).resolves.toMatchObject({ user: { id: existing.user.id } })
+
+    // The new address cannot sign in until it opens the link.
+    const token = await confirmationToken(email)
+    expect((await api('/api/auth/login', { method: 'POST', body: { email, password: 'ten chars!!' } })).status).toBe(401)
+    expect((await api(`/register/confirm?token=${token}`)).status).toBe(200)
+    const confirmed = await api('/api/auth/register/confirm', { method: 'POST', body: { token } })
+    expect(confirmed.status).toBe(201)
+    expect(confirmed.body.user).toMatchObject({ email, name: 'Rosa', isAdmin: false })
+    const me = await api('/api/me', { cookie: sessionCookie(confirmed.headers) })
     expect(me.status).toBe(200)
     expect(me.body.user.email).toBe(email)
+    await expect(signIn(email, 'ten chars!!')).resolves.toMatchObject({ user: { email } })
+
+    const again = await api('/api/auth/register/confirm', { method: 'POST', body: { token } })
+    expect(again.status).toBe(410)
+    expect(again.body.message).toMatch(/already used; sign in/)
   })
 
-  it('refuses a second account for the same address with 409', async () => {
-    const first = await signUp('dup')
-    const again = await api('/api/auth/register', { method: 'POST', body: { email: first.user.email, name: 'Other', password: 'another password' } })
-    expect(again.status).toBe(409)
-    expect(again.body.message).toMatch(/sign in instead/)
+  it('refuses a made-up and an expired confirmation link, saying what to do', async () => {
+    const madeUp = await api('/api/auth/register/confirm', { method: 'POST', body: { token: 'B'.repeat(43) } })
+    expect(madeUp.status).toBe(404)
+    expect(madeUp.body.message).toMatch(/register again/)
+    const email = freshEmail('late')
+    expect((await api('/api/auth/register', { method: 'POST', body: { email, name: 'Late', password: 'a long enough password' } })).status).toBe(202)
+    const token = await confirmationToken(email)
+    const connection = await mysql.createConnection(TEST_DATABASE_URL)
+    await connection.query('UPDATE pending_registrations SET expires_at = NOW(3) - INTERVAL 1 MINUTE WHERE email = ?', [email])
+    await connection.end()
+    const late = await api('/api/auth/register/confirm', { method: 'POST', body: { token } })
+    expect(late.status).toBe(410)
+    expect(late.body.message).toMatch(/expired .*register again/)
   })
 
   it('says what to change for a bad e-mail and a short password', async () => {
@@ -57,18 +94,6 @@ describe('sign in', () => {
     expect(unknownEmail.status).toBe(401)
     expect(wrongPassword.body.message).toBe(unknownEmail.body.message)
     expect(wrongPassword.headers.getSetCookie()).toEqual([])
-  })
-
-  it('slows down repeated failures for one account with 429 and Retry-After, even for the right password', async () => {
-    const account = await signUp('throttle')
-    for (let i = 0; i < 5; i++) {
-      const miss = await api('/api/auth/login', { method: 'POST', body: { email: account.user.email, password: `guess ${i}` } })
-      expect(miss.status).toBe(401)
-    }
-    const blocked = await api('/api/auth/login', { method: 'POST', body: { email: account.user.email, password: account.password } })
-    expect(blocked.status).toBe(429)
-    expect(Number(blocked.headers.get('retry-after'))).toBeGreaterThan(0)
-    expect(blocked.body.message).toMatch(/Try again in \d+ minute/)
   })
 })
 

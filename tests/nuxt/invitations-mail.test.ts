@@ -6,6 +6,7 @@ import { useBuiltServer } from '../setup/server'
 import { api, freshEmail, makeLab, sessionCookie, signUp } from '../setup/accounts'
 import { linkTo, waitForMail } from '../setup/mail'
 import { TEST_DATABASE_URL } from '../setup/test-database'
+import { INVITATIONS_PER_HOUR } from '../../server/utils/limits'
 
 await useBuiltServer()
 
@@ -38,7 +39,7 @@ describe('invitations', () => {
     const page = await api(link)
     expect(page.status).toBe(200)
     const offer = await api(`/api/invitations/${tokenOf(link)}`)
-    expect(offer.body).toMatchObject({ email: guest.user.email, role: 'reviewer', lab: { slug: lab }, hasAccount: true })
+    expect(offer.body).toMatchObject({ email: guest.user.email, role: 'reviewer', lab: { slug: lab } })
 
     const accepted = await api('/api/invitations/accept', { method: 'POST', cookie: guest.cookie, body: { token: tokenOf(link) } })
     expect(accepted.status).toBe(200)
@@ -51,7 +52,9 @@ describe('invitations', () => {
     const lab = await makeLab(owner)
     const email = freshEmail('newcomer')
     const { link } = await invite(owner, lab, email, 'editor')
-    expect((await api(`/api/invitations/${tokenOf(link)}`)).body.hasAccount).toBe(false)
+    // The link's page does not say whether the address has an account: the same keys as for one that has.
+    const offer = await api(`/api/invitations/${tokenOf(link)}`)
+    expect(Object.keys(offer.body).sort()).toEqual(['email', 'expiresAt', 'invitedBy', 'lab', 'role'])
 
     const joined = await api('/api/invitations/register', { method: 'POST', body: { token: tokenOf(link), name: 'New Comer', password: 'a long enough password' } })
     expect(joined.status).toBe(201)
@@ -125,5 +128,31 @@ describe('invitations', () => {
     expect(list.body.invitations).toContainEqual(expect.objectContaining({ id, email, state: 'pending' }))
     expect((await api(`/api/labs/${lab}/invitations/${id}`, { method: 'DELETE', cookie: owner.cookie })).status).toBe(200)
     expect((await api(`/api/invitations/${tokenOf(link)}`)).status).toBe(404)
+  })
+
+  it('limits invitations per person and per lab in an hour, with a 429 saying when to try again', async () => {
+    const owner = await signUp('busy')
+    const partner = await signUp('partner')
+    const lab = await makeLab(owner, [{ who: partner, role: 'owner' }])
+    const send = (who: { cookie: string }, slug: string) =>
+      api(`/api/labs/${slug}/invitations`, { method: 'POST', cookie: who.cookie, body: { email: freshEmail('spam'), role: 'viewer' } })
+    // makeLab sent one already; the lab takes INVITATIONS_PER_HOUR.perLab in all.
+    for (let i = 1; i < INVITATIONS_PER_HOUR.perLab; i++) expect((await send(owner, lab)).status).toBe(201)
+    const labFull = await send(partner, lab)
+    expect(labFull.status).toBe(429)
+    expect(labFull.body.message).toMatch(new RegExp(`^Lab ${lab} has sent ${INVITATIONS_PER_HOUR.perLab} invitations in the last hour.* Try again in \\d+ minutes \\(after \\d\\d:\\d\\d UTC\\)\\.$`))
+    const wait = Number(labFull.headers.get('retry-after'))
+    expect(wait).toBeGreaterThan(3500)
+    expect(wait).toBeLessThanOrEqual(3600)
+
+    // The partner may still invite into another lab; the owner, who sent the lab's 20, may not.
+    const other = await makeLab(partner)
+    expect((await send(partner, other)).status).toBe(201)
+    const ownerFull = await send(owner, await makeLab(owner))
+    expect(ownerFull.status).toBe(429)
+    expect(ownerFull.body.message).toMatch(/^You have sent 20 invitations in the last hour/)
+    // Adding a member is an invitation, and counts the same.
+    const viaMembers = await api(`/api/labs/${lab}/members`, { method: 'POST', cookie: partner.cookie, body: { email: freshEmail('x'), role: 'viewer' } })
+    expect(viaMembers.status).toBe(429)
   })
 })

@@ -2,7 +2,8 @@
 // rule that a lab always keeps an owner.
 import { beforeAll, describe, expect, it } from 'vitest'
 import { useBuiltServer } from '../setup/server'
-import { api, makeLab, signInAs, signUp, type SignedIn } from '../setup/accounts'
+import { api, freshEmail, joinByInvitation, makeLab, signInAs, signUp, type SignedIn } from '../setup/accounts'
+import { waitForMail } from '../setup/mail'
 
 await useBuiltServer()
 
@@ -73,15 +74,29 @@ describe('members', () => {
       expect(refused.status).toBe(403)
       expect(refused.body.message).toMatch(/needs the owner role/)
     }
-    const added = await api(`/api/labs/${lab}/members`, { method: 'POST', cookie: owner.cookie, body: { email: newcomer.user.email, role: 'reviewer' } })
-    expect(added.status).toBe(201)
+    await joinByInvitation(owner, lab, newcomer, 'reviewer')
     expect((await api(`/api/labs/${lab}`, { cookie: newcomer.cookie })).body.role).toBe('reviewer')
   })
 
-  it('says what to do for an unknown address, a member already there and a bad role', async () => {
-    const unknown = await api(`/api/labs/${lab}/members`, { method: 'POST', cookie: owner.cookie, body: { email: 'ghost@tests.equipoise.test', role: 'viewer' } })
-    expect(unknown.status).toBe(404)
-    expect(unknown.body.message).toMatch(/ask them to create one/)
+  it('adds people only by invitation, answering alike whether or not the address has an account', async () => {
+    const known = await signUp('known')
+    const unknownEmail = freshEmail('ghost')
+    const toKnown = await api(`/api/labs/${lab}/members`, { method: 'POST', cookie: owner.cookie, body: { email: known.user.email, role: 'viewer' } })
+    const toUnknown = await api(`/api/labs/${lab}/members`, { method: 'POST', cookie: owner.cookie, body: { email: unknownEmail, role: 'viewer' } })
+    expect(toKnown.status).toBe(201)
+    expect(toUnknown.status).toBe(201)
+    const shape = (body: { invitation: Record<string, unknown>, mailed: boolean }) => ({
+      keys: Object.keys(body).sort(), invitation: Object.keys(body.invitation).sort(), state: body.invitation.state, mailed: body.mailed,
+    })
+    expect(shape(toKnown.body)).toEqual(shape(toUnknown.body))
+    expect(toKnown.body.invitation).toMatchObject({ email: known.user.email, state: 'pending' })
+    // Nobody is added without accepting: the existing account is not a member yet.
+    expect((await api(`/api/labs/${lab}`, { cookie: known.cookie })).status).toBe(404)
+    await waitForMail(unknownEmail, /invites you to/)
+    await waitForMail(known.user.email, /invites you to/)
+  })
+
+  it('says what to do for a member already there and a bad role', async () => {
     const again = await api(`/api/labs/${lab}/members`, { method: 'POST', cookie: owner.cookie, body: { email: viewer.user.email, role: 'editor' } })
     expect(again.status).toBe(409)
     const badRole = await api(`/api/labs/${lab}/members`, { method: 'POST', cookie: owner.cookie, body: { email: viewer.user.email, role: 'boss' } })
@@ -91,7 +106,7 @@ describe('members', () => {
 
   it('lets the owner change a role and remove a member; others get 403', async () => {
     const temp = await signUp('temp')
-    await api(`/api/labs/${lab}/members`, { method: 'POST', cookie: owner.cookie, body: { email: temp.user.email, role: 'viewer' } })
+    await joinByInvitation(owner, lab, temp, 'viewer')
     const byEditor = await api(`/api/labs/${lab}/members/${temp.user.id}`, { method: 'PATCH', cookie: editor.cookie, body: { role: 'owner' } })
     expect(byEditor.status).toBe(403)
     const promoted = await api(`/api/labs/${lab}/members/${temp.user.id}`, { method: 'PATCH', cookie: owner.cookie, body: { role: 'editor' } })
@@ -119,7 +134,7 @@ describe('members', () => {
     expect(leave.status).toBe(409)
     // With a second owner, the first may step down.
     const partner = await signUp('partner')
-    await api(`/api/labs/${slug}/members`, { method: 'POST', cookie: solo.cookie, body: { email: partner.user.email, role: 'owner' } })
+    await joinByInvitation(solo, slug, partner, 'owner')
     expect((await api(`/api/labs/${slug}/members/${solo.user.id}`, { method: 'PATCH', cookie: solo.cookie, body: { role: 'editor' } })).status).toBe(200)
   })
 

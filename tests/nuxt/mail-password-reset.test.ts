@@ -49,10 +49,14 @@ describe('password reset', () => {
     const answers = []
     for (let i = 0; i < 4; i++) answers.push(await api('/api/auth/password/forgot', { method: 'POST', body: { email: me.user.email } }))
     expect(new Set(answers.map((a) => JSON.stringify([a.status, a.body]))).size).toBe(1)
+    // The links are made after the answers: wait for the three mails, then for any fourth to have had its chance.
+    for (let tries = 0; tries < 100 && capturedMail().filter((m) => m.to.includes(me.user.email) && /new password/.test(m.subject)).length < 3; tries++) await new Promise((r) => setTimeout(r, 100))
+    await new Promise((r) => setTimeout(r, 1000))
     const connection = await mysql.createConnection(TEST_DATABASE_URL)
     const [rows] = await connection.query('SELECT COUNT(*) AS n FROM password_resets WHERE user_id = ?', [me.user.id])
     await connection.end()
     expect(Number((rows as Array<{ n: number }>)[0]!.n)).toBe(3)
+    expect(capturedMail().filter((m) => m.to.includes(me.user.email) && /new password/.test(m.subject))).toHaveLength(3)
   })
 
   it('refuses a made-up token and a short password with messages saying what to do', async () => {

@@ -1,10 +1,13 @@
 /**
  * Talking to the API as someone: `api()` never throws, so tests assert on the
- * status; `signUp()` makes a fresh account; `signInAs()` uses a demo account.
+ * status; `signUp()` makes a fresh account (through the mailed confirmation
+ * link, as a person would); `signInAs()` uses a demo account; `makeLab()`
+ * brings members in through mailed invitations.
  */
 import { url } from '@nuxt/test-utils/e2e'
 import { DEMO_ACCOUNTS, DEMO_PASSWORD } from '../../server/database/seed'
 import type { LabRole } from '../../shared/utils/roles'
+import { linkTo, waitForMail } from './mail'
 
 export const SESSION_COOKIE = 'nuxt-session'
 
@@ -14,8 +17,9 @@ export interface ApiAnswer<T = any> {
   headers: Headers
 }
 
-export async function api<T = any>(path: string, options: { method?: string, body?: unknown, cookie?: string } = {}): Promise<ApiAnswer<T>> {
-  const headers: Record<string, string> = { accept: 'application/json' }
+/** `headers` adds request headers, e.g. `x-forwarded-for` to stand for a client address (the test server trusts its loopback proxy). */
+export async function api<T = any>(path: string, options: { method?: string, body?: unknown, cookie?: string, headers?: Record<string, string> } = {}): Promise<ApiAnswer<T>> {
+  const headers: Record<string, string> = { accept: 'application/json', ...options.headers }
   if (options.cookie) headers.cookie = options.cookie
   if (options.body !== undefined) headers['content-type'] = 'application/json'
   const response = await fetch(url(path), {
@@ -54,12 +58,21 @@ export interface SignedIn {
   password: string
 }
 
+/** The token of the newest confirmation link mailed to this address. */
+export async function confirmationToken(email: string): Promise<string> {
+  const mail = await waitForMail(email, /^Confirm your address/)
+  return new URL(linkTo(mail, '/register/confirm'), 'http://x').searchParams.get('token')!
+}
+
+/** Registers a fresh account and confirms it through the mailed link, as a person would; signed in. */
 export async function signUp(label = 'user'): Promise<SignedIn> {
   const password = 'a long enough password'
   const email = freshEmail(label)
   const answer = await api('/api/auth/register', { method: 'POST', body: { email, name: `Test ${label}`, password } })
-  if (answer.status !== 201) throw new Error(`Registering ${email} failed: ${answer.status} ${JSON.stringify(answer.body)}`)
-  return { cookie: sessionCookie(answer.headers), user: answer.body.user, password }
+  if (answer.status !== 202) throw new Error(`Registering ${email} failed: ${answer.status} ${JSON.stringify(answer.body)}`)
+  const confirmed = await api('/api/auth/register/confirm', { method: 'POST', body: { token: await confirmationToken(email) } })
+  if (confirmed.status !== 201) throw new Error(`Confirming ${email} failed: ${confirmed.status} ${JSON.stringify(confirmed.body)}`)
+  return { cookie: sessionCookie(confirmed.headers), user: confirmed.body.user, password }
 }
 
 export async function signIn(email: string, password: string): Promise<SignedIn> {
@@ -75,14 +88,23 @@ export function signInAs(who: LabRole | 'admin'): Promise<SignedIn> {
   return signIn(account.email, DEMO_PASSWORD)
 }
 
-/** A new lab owned by `owner`, with the given others added in their roles. */
+/** Invites `who` into the lab and accepts with their session through the mailed link, as a person would. */
+export async function joinByInvitation(owner: SignedIn, slug: string, who: SignedIn, role: LabRole): Promise<void> {
+  const lab = (await api(`/api/labs/${slug}`, { cookie: owner.cookie })).body.lab as { slug: string, name: string }
+  const invited = await api(`/api/labs/${lab.slug}/members`, { method: 'POST', cookie: owner.cookie, body: { email: who.user.email, role } })
+  if (invited.status !== 201) throw new Error(`Inviting ${who.user.email} failed: ${invited.status} ${JSON.stringify(invited.body)}`)
+  const mail = await waitForMail(who.user.email, new RegExp(`invites you to ${lab.name.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')} on`))
+  const token = new URL(linkTo(mail, '/invitations/accept'), 'http://x').searchParams.get('token')!
+  const accepted = await api('/api/invitations/accept', { method: 'POST', cookie: who.cookie, body: { token } })
+  if (accepted.status !== 200) throw new Error(`Accepting for ${who.user.email} failed: ${accepted.status} ${JSON.stringify(accepted.body)}`)
+}
+
+/** A new lab owned by `owner`, with the given others invited and joined in their roles. */
 export async function makeLab(owner: SignedIn, others: { who: SignedIn, role: LabRole }[] = []): Promise<string> {
   const slug = `lab-${Date.now().toString(36)}-${++counter}`
-  const created = await api('/api/labs', { method: 'POST', cookie: owner.cookie, body: { name: `Lab ${slug}`, slug } })
+  const name = `Lab ${slug}`
+  const created = await api('/api/labs', { method: 'POST', cookie: owner.cookie, body: { name, slug } })
   if (created.status !== 201) throw new Error(`Creating lab failed: ${JSON.stringify(created.body)}`)
-  for (const { who, role } of others) {
-    const added = await api(`/api/labs/${slug}/members`, { method: 'POST', cookie: owner.cookie, body: { email: who.user.email, role } })
-    if (added.status !== 201) throw new Error(`Adding member failed: ${JSON.stringify(added.body)}`)
-  }
+  for (const { who, role } of others) await joinByInvitation(owner, slug, who, role)
   return slug
 }

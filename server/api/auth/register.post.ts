@@ -1,26 +1,14 @@
-import { eq } from 'drizzle-orm'
+/**
+ * POST /api/auth/register — 202 with the same answer for every address; the
+ * account is created when the mailed confirmation link is opened
+ * (POST /api/auth/register/confirm). See server/utils/registrations.ts.
+ */
 import { RegisterBody } from '#shared/utils/account-schemas'
 
 export default defineEventHandler(async (event) => {
   const body = await validateBody(event, RegisterBody)
-  const db = useDb()
-  const [existing] = await db.select({ id: tables.users.id }).from(tables.users).where(eq(tables.users.email, body.email))
-  if (existing) throw createError({ statusCode: 409, message: 'An account with this e-mail address exists; sign in instead' })
-  let id: number
-  try {
-    const [inserted] = await db.insert(tables.users).values({
-      email: body.email,
-      name: body.name,
-      passwordHash: await hashPassword(body.password),
-    }).$returningId()
-    id = inserted!.id
-  } catch (error) {
-    if (isDuplicateKey(error)) throw createError({ statusCode: 409, message: 'An account with this e-mail address exists; sign in instead' })
-    throw error
-  }
-  await recordAudit({ actorId: id, labId: null, action: 'user.register' })
-  const user = { id, email: body.email, name: body.name }
-  await setUserSession(event, { user, loggedInAt: Date.now() })
-  setResponseStatus(event, 201)
-  return { user: { ...user, isAdmin: false } }
+  // Off the answer's path, so a known address answers as fast as a new one.
+  void requestRegistration(event, body).catch((error) => console.error('[register] could not process a registration:', error))
+  setResponseStatus(event, 202)
+  return { message: REGISTRATION_REQUESTED_MESSAGE }
 })

@@ -1,9 +1,9 @@
 /**
  * GET /api/invitations/:token — what an invitation link offers (lab, role,
  * address), for the accept page. Anyone holding the link may ask; a used or
- * expired link answers 410 with what to do.
+ * expired link answers 410 with what to do. It does not say whether the
+ * address has an account (the page offers both signing in and registering).
  */
-import { eq } from 'drizzle-orm'
 import { z } from 'zod'
 import { LinkTokenSchema } from '#shared/utils/invitation-schemas'
 
@@ -12,15 +12,11 @@ const Params = z.object({ token: LinkTokenSchema })
 export default defineEventHandler(async (event) => {
   const { token } = validateParams(event, Params)
   const open = await findOpenInvitation(token)
-  const [account] = await useDb().select({ id: tables.users.id }).from(tables.users)
-    .where(eq(tables.users.email, open.invitation.email))
   return {
     lab: { slug: open.lab.slug, name: open.lab.name },
     email: open.invitation.email,
     role: open.invitation.role,
     invitedBy: open.inviterName,
     expiresAt: open.invitation.expiresAt.toISOString(),
-    /** Whether the address already has an account (then: sign in; else: register). */
-    hasAccount: Boolean(account),
   }
 })

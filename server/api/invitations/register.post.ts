@@ -25,7 +25,7 @@ export default defineEventHandler(async (event) => {
   const role = await acceptInvitation(open, id)
   await recordAudit({ actorId: id, labId: open.lab.id, action: 'invitation.accept', detail: { invitationId: open.invitation.id, role } })
   const user = { id, email, name: body.name }
-  await setUserSession(event, { user, loggedInAt: Date.now() })
+  await startSession(event, user)
   setResponseStatus(event, 201)
   return { user: { ...user, isAdmin: false }, lab: { slug: open.lab.slug, name: open.lab.name }, role }
 })
