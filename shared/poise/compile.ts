@@ -8,7 +8,7 @@ import type { Diagnostic, SourceRange } from './diagnostics'
 import { parseFormula, type ParsedFormula } from './formula'
 import { Reporter } from './report'
 import { parseFile, type Statement, type Tok } from './statements'
-import { checkComponent, dependentComponents } from './components'
+import { checkComponent } from './components'
 import { checkBalance, kindMismatch, logKFromConstant, resolveReactions, type Known, type PreparedReaction, type PreparedTerm, type ReactionStatement } from './reactions'
 import { compileSweep } from './sweep'
 import { convert, unitInfo, UNIT_HINTS } from './units'
@@ -131,10 +131,6 @@ export function compileSource(source: string, options: CompileOptions, stack: st
     if (m) components.push(m)
     else incomplete = true
   }
-  const dependent = new Set(dependentComponents(components))
-  for (const i of dependent) {
-    report.error('P060', `${components[i]!.name} is a combination of the components above it (and water): it cannot be a component too. Remove it, or remove one of the components it is made of`, componentTok.get(components[i]!.name)!)
-  }
   const balances = balancesOf(components)
   for (const b of balances.slice(1)) report.error('P055', `only one component can be balance: ${balances[0]!.name} already is`, componentTok.get(b.name)!)
 
@@ -160,7 +156,11 @@ export function compileSource(source: string, options: CompileOptions, stack: st
     // A component that failed its checks still counts as known, so its reactions do not cascade into errors.
     if (!known.has(name)) known.set(name, { formation: { nu: new Array<number>(width).fill(0), logK: 0, dH: 0 }, formula: water, line: 0, byReaction: null })
   }
-  const resolution = resolveReactions(prepared, libraryReactions, known, width, report, incomplete)
+  const resolution = resolveReactions(prepared, libraryReactions, known, components.map((c) => c.name), report, incomplete)
+  for (const { reaction, message } of resolution.libraryRelations) {
+    const useStmt = of('use').find((u) => u.name === reaction.library) ?? of('use')[0]
+    if (useStmt) report.error('P060', `library "${reaction.library}" line ${reaction.line}: ${message}`, useStmt.nameTok)
+  }
 
   // warnings
   if (!incomplete) {

@@ -165,13 +165,47 @@ function define(r: PreparedReaction, unknown: string, known: Map<string, Known>,
   })
 }
 
-export interface Resolution { used: PreparedReaction[]; defines: Map<PreparedReaction, string> }
+/** A reaction whose species are all components or already defined, and which still relates components. */
+export interface Relation { reaction: PreparedReaction; message: string }
+
+export interface Resolution {
+  used: PreparedReaction[]
+  defines: Map<PreparedReaction, string>
+  /** Library reactions left unused that relate the file's components (the caller reports them at the `use` line). */
+  libraryRelations: Relation[]
+}
+
+/**
+ * The reaction expanded in components (Σ s·nu over its species): zero when it
+ * only repeats how its species are made, non-zero when it relates components
+ * that are declared independent. Then the message names what to change.
+ */
+function relation(r: PreparedReaction, known: Map<string, Known>, componentNames: readonly string[]): string | null {
+  const width = componentNames.length
+  const v = new Array<number>(width).fill(0)
+  for (const [name, { s }] of netCoefficients(r)) {
+    const k = known.get(name)
+    if (!k) return null
+    for (let j = 0; j < width; j++) v[j]! += s * (k.formation.nu[j] ?? 0)
+  }
+  const involved = componentNames.filter((_, j) => Math.abs(v[j]!) > 1e-9)
+  if (involved.length === 0) return null
+  const last = involved[involved.length - 1]!
+  const others = involved.slice(0, -1)
+  const through = [...netCoefficients(r).keys()].filter((n) => known.get(n)?.byReaction).map((n) => `${n}, line ${known.get(n)!.line}`)
+  const via = through.length ? ` (through ${through.join('; ')})` : ''
+  if (others.length === 0) {
+    return `this reaction fixes component ${last} by itself${via}: components must be independent, so remove \`component ${last}\` and let the reaction define it, or remove the reaction`
+  }
+  return `this reaction relates components that must be independent: with it, ${last} is made of ${others.join(', ')}${via} and water. Remove \`component ${last}\` and let this reaction define it, or remove the reaction`
+}
 
 /**
  * Resolves the file's reactions (each must define one species) and, where they
  * need it, the libraries' reactions (used only when they define something new).
  */
-export function resolveReactions(fileReactions: PreparedReaction[], libraryReactions: PreparedReaction[], known: Map<string, Known>, width: number, report: Reporter, suppressUndefined: boolean): Resolution {
+export function resolveReactions(fileReactions: PreparedReaction[], libraryReactions: PreparedReaction[], known: Map<string, Known>, componentNames: readonly string[], report: Reporter, suppressUndefined: boolean): Resolution {
+  const width = componentNames.length
   const used: PreparedReaction[] = []
   const defines = new Map<PreparedReaction, string>()
   let pendingFile = [...fileReactions]
@@ -199,11 +233,17 @@ export function resolveReactions(fileReactions: PreparedReaction[], libraryReact
     used.push(r)
     pendingLib = pendingLib.filter((_, i) => i !== libIndex)
   }
-  reportStuck(pendingFile, known, report, suppressUndefined)
-  return { used, defines }
+  reportStuck(pendingFile, known, componentNames, report, suppressUndefined)
+  const libraryRelations: Relation[] = []
+  for (const r of pendingLib) {
+    if (unknownsOf(r, known).length > 0) continue
+    const message = relation(r, known, componentNames)
+    if (message) libraryRelations.push({ reaction: r, message })
+  }
+  return { used, defines, libraryRelations }
 }
 
-function reportStuck(stuck: PreparedReaction[], known: Map<string, Known>, report: Reporter, suppressUndefined: boolean): void {
+function reportStuck(stuck: PreparedReaction[], known: Map<string, Known>, componentNames: readonly string[], report: Reporter, suppressUndefined: boolean): void {
   const occurrences = new Map<string, number>()
   for (const r of stuck) for (const name of unknownsOf(r, known)) occurrences.set(name, (occurrences.get(name) ?? 0) + 1)
   const reportedUndefined = new Set<string>()
@@ -212,6 +252,11 @@ function reportStuck(stuck: PreparedReaction[], known: Map<string, Known>, repor
     const unknown = unknownsOf(r, known)
     const at = { from: r.stmt.left[0]!.formula.from, to: lastFormulaEnd(r.stmt) }
     if (unknown.length === 0) {
+      const related = relation(r, known, componentNames)
+      if (related) {
+        report.error('P060', related, at)
+        continue
+      }
       const already = [...net.keys()].map((n) => known.get(n)!).filter((k) => k.byReaction)
       if (already.length === 1) {
         const k = already[0]!

@@ -55,7 +55,7 @@ describe('every check is triggered by a file that breaks it', () => {
     ['P057', 'water as a component', withLine('component H2O total 55 mol/L')],
     ['P058', 'balance on an uncharged component', replacing('component H+ balance', 'component H+ pH 7\ncomponent NH3 balance')],
     ['P059', 'a component with no spec', withLine('component Na+')],
-    ['P060', 'a dependent component', withLine('component OH- total 1 mmol/L')],
+    ['P060', 'a component a reaction relates to the others', withLine('component OH- total 1 mmol/L')],
     ['P070', 'use with no library store', withLine('use "acids"')],
     ['P080', 'a sweep of a component that is not total', withLine('sweep total Cl2(g) from 1 mM to 2 mM points 3')],
     ['P080', 'a sweep step that goes the wrong way', withLine('sweep pH from 6 to 11 step -0.1')],
