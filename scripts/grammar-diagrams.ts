@@ -1,13 +1,18 @@
 /**
  * Writes grammar/diagrams.html: railroad diagrams generated from the parser
  * itself. The chevrotain diagram scripts and stylesheet are inlined so the
- * page opens offline (nothing is fetched from a CDN).
- * Run: npx tsx scripts/grammar-diagrams.ts   (a unit test checks it is current)
+ * page opens offline (nothing is fetched from a CDN). Also rewrites the
+ * generated table of number limits in grammar/README.md.
+ * Run: npx tsx scripts/grammar-diagrams.ts   (unit tests check both are current)
  */
-import { writeFileSync } from 'node:fs'
+import { readFileSync, writeFileSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'
 import { diagramsHtml } from '../grammar/diagrams'
+import { withGeneratedTables } from '../grammar/reference'
 
 const target = fileURLToPath(new URL('../grammar/diagrams.html', import.meta.url))
 writeFileSync(target, diagramsHtml())
 console.log(`wrote ${target}`)
+const readme = fileURLToPath(new URL('../grammar/README.md', import.meta.url))
+writeFileSync(readme, withGeneratedTables(readFileSync(readme, 'utf8')))
+console.log(`updated ${readme}`)

@@ -3,11 +3,13 @@
  * huge sweep from occupying the pool; the messages say what to change.
  */
 import type { Model } from '../../shared/poise/model'
+import { MAX_SWEEP_POINTS } from '../../shared/poise/limits'
 
 export const SOLVE_LIMITS = {
   /** Largest Poise source accepted, in characters. */
   maxSourceChars: 200_000,
-  maxSweepPoints: 5_000,
+  /** The language's own limit: a compiled model never exceeds it; a stored or hand-made one is checked again. */
+  maxSweepPoints: MAX_SWEEP_POINTS,
   maxSpecies: 500,
   maxSolids: 60,
   /** Wall-clock budget of one run (a whole sweep) inside the worker. */

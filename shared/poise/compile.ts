@@ -13,6 +13,7 @@ import { checkBalance, kindMismatch, logKFromConstant, resolveReactions, type Kn
 import { compileSweep } from './sweep'
 import { convert, unitInfo, UNIT_HINTS } from './units'
 import { REFERENCE_TEMPERATURE_C, vantHoff } from './thermo'
+import { checkRange } from './limits'
 
 export interface CompileOptions {
   /** Returns a library's source, or null when it (or that revision) does not exist. Synchronous. */
@@ -70,7 +71,7 @@ export function compileSource(source: string, options: CompileOptions, stack: st
     if (!q.unit) report.error('P050', `expected ${UNIT_HINTS.temperature} after ${q.number.image}`, q.number)
     else if (t === null) report.error('P050', `${q.unit.image} is not ${UNIT_HINTS.temperature}`, q.unit)
     else if (t <= -273.15) report.error('P081', 'a temperature must be above absolute zero', q.number)
-    else temperatureC = t
+    else if (checkRange(report, 'temperature', t, q.number)) temperatureC = t
   }
   const activity: ActivityModelName = of('activity')[0]?.model ?? 'ideal'
   let fixedIonicStrength: number | null = null
@@ -80,7 +81,7 @@ export function compileSource(source: string, options: CompileOptions, stack: st
     const info = q.unit ? unitInfo(q.unit.image) : null
     if (!q.unit || !info || info.dimension !== 'concentration') report.error('P050', `expected a molar concentration unit (mol/L, mmol/L, M) after ${q.number.image}`, q.unit ?? q.number)
     else if (q.value < 0) report.error('P052', 'an ionic strength cannot be negative', q.number)
-    else fixedIonicStrength = q.value * info.factor
+    else if (checkRange(report, 'ionicStrength', q.value * info.factor, q.number)) fixedIonicStrength = q.value * info.factor
   }
 
   const sources: Record<string, string> = {}
@@ -272,6 +273,7 @@ function prepareReaction(r: ReactionStatement, report: Reporter, sources: Record
         ok = false
         continue
       }
+      if (!checkRange(report, 'coefficient', t.coefficient, t.coefficientTok ?? t.formula)) { ok = false; continue }
       out.push({ coefficient: t.coefficient, formula: f, tok: t.formula })
     }
     return out
@@ -285,6 +287,7 @@ function prepareReaction(r: ReactionStatement, report: Reporter, sources: Record
   if (mismatch) { report.error('P040', mismatch, r.constantKind); return null }
   const logK = logKFromConstant(kind, r.constantValue.value)
   if (logK === null || !Number.isFinite(logK)) { report.error('P041', `${kind} must be a positive, finite number (or write its log with logK)`, r.constantValue.number); return null }
+  if (!checkRange(report, 'logK', logK, r.constantValue.number, { what: kind === 'logK' ? 'log K' : `log K (from ${kind} ${r.constantValue.number.image})` })) return null
   let dH: number | null = null
   for (const e of r.enthalpies.slice(1)) report.error('P004', 'dH is given twice: keep one', e.tok)
   const e = r.enthalpies[0]
@@ -292,6 +295,7 @@ function prepareReaction(r: ReactionStatement, report: Reporter, sources: Record
     const q = e.quantity
     const v = q.unit ? convert(q.value, q.unit.image, 'enthalpy') : null
     if (v === null) { report.error('P050', q.unit ? `${q.unit.image} is not ${UNIT_HINTS.enthalpy}` : `expected ${UNIT_HINTS.enthalpy} after ${q.number.image}`, q.unit ?? q.number); return null }
+    if (!checkRange(report, 'enthalpy', v, q.number)) return null
     dH = v
   }
   for (const c of r.cites.slice(1)) report.error('P004', 'cite is given twice: keep one', c.tok)

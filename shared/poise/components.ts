@@ -4,6 +4,7 @@ import type { ParsedFormula } from './formula'
 import type { Reporter } from './report'
 import type { Statement } from './statements'
 import { unitInfo, UNIT_HINTS } from './units'
+import { checkRange } from './limits'
 
 type ComponentStatement = Extract<Statement, { kind: 'component' }>
 
@@ -53,6 +54,7 @@ export function checkComponent(stmt: ComponentStatement, f: ParsedFormula, repor
         return null
       }
       const q = spec.quantity!
+      if (!checkRange(report, 'pH', q.value, q.number)) return null
       return { ...base, mode: 'pH', value: q.value }
     }
     case 'pressure': {
@@ -65,6 +67,7 @@ export function checkComponent(stmt: ComponentStatement, f: ParsedFormula, repor
       const info = unitInfo(q.unit.image)
       if (!info || info.dimension !== 'pressure') { report.error('P050', `${q.unit.image} is not a pressure: use atm, bar, kPa or Pa`, q.unit); return null }
       if (q.value <= 0) { report.error('P052', 'a partial pressure must be positive', q.number); return null }
+      if (!checkRange(report, 'pressure', q.value * info.factor, q.number)) return null
       return { ...base, mode: 'pressure', value: q.value * info.factor }
     }
     case 'total':
@@ -92,6 +95,8 @@ export function checkComponent(stmt: ComponentStatement, f: ParsedFormula, repor
         report.error('P052', 'a free concentration must be positive', q.number)
         return null
       }
+      const what = spec.mode === 'total' ? `the total of ${name}` : `the free concentration of ${name}`
+      if (!checkRange(report, 'concentration', value, q.unit ?? q.number, { magnitude: name === 'H+', what })) return null
       return { ...base, mode: spec.mode, value }
     }
   }

@@ -5,6 +5,7 @@
  */
 import type { Phase } from './model'
 import { isElement, molarMassOf } from './elements'
+import { MAX_ATOM_COUNT, MAX_CHARGE } from './limits'
 
 export interface ParsedFormula {
   /** Caret form: `Cu(NH3)4^2+`, `SO4^2-`, `NH4+`, `CaSO4·2H2O(s)`. */
@@ -230,6 +231,9 @@ function parseFormulaUncached(text: string): FormulaResult {
   if (split.problem) return { formula: null, problem: split.problem }
   const core = parseCore(split.body, 0)
   if (core.error) return { formula: null, problem: core.error }
+  const tooMany = Object.entries(core.elements).find(([, n]) => !(n <= MAX_ATOM_COUNT))
+  if (tooMany) return problem('P010', `${tooMany[0]} is counted more than ${MAX_ATOM_COUNT} times: a formula holds 1 to ${MAX_ATOM_COUNT} atoms of each element`, 0, text.length)
+  if (!(Math.abs(split.charge) <= MAX_CHARGE)) return problem('P010', `a charge must be from −${MAX_CHARGE} to +${MAX_CHARGE}`, 0, text.length)
   if (phase !== 'aq' && split.charge !== 0) {
     return problem('P010', `a ${phase === 's' ? 'solid' : 'gas'} carries no charge: remove the charge or the phase`, 0, text.length)
   }

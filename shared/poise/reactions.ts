@@ -8,6 +8,7 @@ import type { ConstantKind } from './model'
 import type { ParsedFormula } from './formula'
 import type { Reporter } from './report'
 import type { Statement, Tok } from './statements'
+import { formatNumber } from './limits'
 
 export type ReactionStatement = Extract<Statement, { kind: 'reaction' }>
 
@@ -58,7 +59,7 @@ function imbalance(left: PreparedTerm[], right: PreparedTerm[]): { elements: Map
   return { elements, leftCharge, rightCharge }
 }
 
-const fmt = (n: number) => String(Number(n.toPrecision(10)))
+const fmt = formatNumber
 
 /** Reports element and charge imbalance; true when the reaction balances. */
 export function checkBalance(left: PreparedTerm[], right: PreparedTerm[], stmt: ReactionStatement, report: Reporter): boolean {

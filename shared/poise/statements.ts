@@ -7,6 +7,7 @@ import type { CstElement, CstNode, IToken } from 'chevrotain'
 import { lexForParser } from './lexer'
 import { parseStatement } from './parser'
 import { parseNumber } from './units'
+import { formatNumber, NUMBER_MAX, NUMBER_MIN } from './limits'
 
 export interface Tok { image: string; from: number; to: number }
 export interface Quantity { value: number; number: Tok; unit: Tok | null }
@@ -26,7 +27,7 @@ export type Statement = Base & (
   | { kind: 'sweep'; variable: 'pH' | 'total' | 'temperature' | 'pressure'; variableTok: Tok; target: Tok | null; start: Quantity; end: Quantity; step: Quantity | null; points: Quantity | null; log: boolean }
 )
 
-export interface SyntaxProblem { code: 'P001' | 'P002'; message: string; from: number; to: number }
+export interface SyntaxProblem { code: 'P001' | 'P002' | 'P082'; message: string; from: number; to: number }
 
 const tok = (t: IToken): Tok => ({ image: t.image, from: t.startOffset, to: t.startOffset + t.image.length })
 
@@ -159,7 +160,7 @@ export function parseFile(text: string): ParsedFile {
     if (unterminated) {
       problems.push({ code: 'P001', message: 'this text has no closing quote: add " at its end', from: unterminated.startOffset, to: unterminated.startOffset + unterminated.image.length })
       incomplete = true
-    } else if (line.length > 0) {
+    } else if (line.length > 0 && !unrepresentable(line)) {
       const parsed = parseStatement(line)
       const from = line[0]!.startOffset
       const last = line[line.length - 1]!
@@ -174,6 +175,26 @@ export function parseFile(text: string): ParsedFile {
       }
     }
     line = []
+  }
+  /** Reports the numbers of a line that double precision cannot carry; true when there is one (the line is then skipped). */
+  function unrepresentable(tokens: IToken[]): boolean {
+    let bad = false
+    for (const t of tokens) {
+      if (t.tokenType.name !== 'Number') continue
+      const v = parseNumber(t.image)
+      const tooLarge = !(Math.abs(v) <= NUMBER_MAX)
+      const tooSmall = !tooLarge && v !== 0 && Math.abs(v) < NUMBER_MIN
+      // A literal such as 0e5 or 0.000 is a true zero; 1e-400 only reads as one.
+      if (!tooLarge && !tooSmall && !(v === 0 && /[1-9]/.test(t.image.replace(/[eE].*$/, '')))) continue
+      problems.push({
+        code: 'P082',
+        message: `${t.image} is too ${tooLarge ? 'large' : 'small'} for Poise: a number must be 0 or between ${formatNumber(NUMBER_MIN)} and ${formatNumber(NUMBER_MAX)} in size (and each quantity has its own, narrower range)`,
+        from: t.startOffset, to: t.startOffset + t.image.length,
+      })
+      bad = true
+      incomplete = true
+    }
+    return bad
   }
   for (const t of lexed.tokens) {
     if (t.tokenType.name === 'Newline') flush(t.startOffset)

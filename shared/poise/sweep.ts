@@ -4,11 +4,9 @@ import type { Reporter } from './report'
 import type { Statement, Quantity } from './statements'
 import { parseFormula } from './formula'
 import { convert, unitInfo, UNIT_HINTS, type Dimension } from './units'
+import { checkRange, formatNumber, MAX_SWEEP_POINTS, type LimitName } from './limits'
 
 type SweepStatement = Extract<Statement, { kind: 'sweep' }>
-
-/** At most this many points in one sweep. */
-export const MAX_SWEEP_POINTS = 10001
 
 const round = (x: number) => Number(x.toPrecision(12))
 
@@ -47,6 +45,21 @@ export function compileSweep(s: SweepStatement, components: ModelComponent[], re
   const from = value(s.start, false, null)
   const to = value(s.end, false, null)
   if (from === null || to === null) return null
+  if (s.variable === 'temperature' && (from <= -273.15 || to <= -273.15)) {
+    report.error('P081', 'a temperature must be above absolute zero', from <= -273.15 ? s.start.number : s.end.number)
+    return null
+  }
+  // Both ends in range means every point between them is.
+  const limit: LimitName = s.variable === 'total' ? 'concentration' : s.variable
+  const magnitude = s.variable === 'total' && component!.name === 'H+'
+  const ends = [[from, s.start], [to, s.end]] as const
+  const rangeOk = ends.map(([v, q]) => {
+    if (s.variable === 'total' && v < 0 && !magnitude) return true // reported as P052 below
+    if (s.variable === 'pressure' && v <= 0) return true
+    const what = `the sweep's ${q === s.start ? 'first' : 'last'} ${s.variable === 'pH' ? 'pH' : s.variable === 'temperature' ? 'temperature' : s.variable === 'total' ? `total of ${component!.name}` : `pressure of ${component!.name}`}`
+    return checkRange(report, limit, v, q.unit ?? q.number, { magnitude, what })
+  })
+  if (!rangeOk.every(Boolean)) return null
   if (s.log && (s.variable === 'pH' || s.variable === 'temperature')) {
     report.error('P080', `a ${s.variable} sweep cannot be logarithmic: remove \`log\``, s)
     return null
@@ -59,7 +72,7 @@ export function compileSweep(s: SweepStatement, components: ModelComponent[], re
   if (s.points) {
     const n = s.points.value
     if (!Number.isInteger(n) || n < 2 || n > MAX_SWEEP_POINTS) {
-      report.error('P080', `points must be a whole number from 2 to ${MAX_SWEEP_POINTS}`, s.points.number)
+      report.error('P080', `points must be a whole number from 2 to ${MAX_SWEEP_POINTS}, not ${formatNumber(n)}`, s.points.number)
       return null
     }
     const a = s.log ? Math.log10(from) : from
@@ -74,11 +87,14 @@ export function compileSweep(s: SweepStatement, components: ModelComponent[], re
     }
     const a = s.log ? Math.log10(from) : from
     const b = s.log ? Math.log10(to) : to
-    const count = step === 0 ? Infinity : Math.floor((b - a) / step + 1e-9) + 1
+    const ratio = (b - a) / step
+    // A tiny step can make the count overflow: it is only shown when it is a sensible number.
+    const count = step === 0 || !Number.isFinite(ratio) ? Infinity : Math.floor(ratio + 1e-9) + 1
     if (!(count >= 2) || count > MAX_SWEEP_POINTS) {
+      const shown = count <= 1e9 ? `${formatNumber(count)} points` : 'more than a billion points'
       report.error('P080', step === 0 || count < 2
         ? `the step ${s.step!.number.image} does not lead from ${s.start.number.image} to ${s.end.number.image}: use a step with the sign of (to − from), not 0`
-        : `this sweep has ${count} points; at most ${MAX_SWEEP_POINTS} are allowed: use a larger step`, s.step!.number)
+        : `this sweep has ${shown}; it may have 2 to ${MAX_SWEEP_POINTS}: use a larger step`, s.step!.number)
       return null
     }
     values = Array.from({ length: count }, (_, i) => a + step * i)
@@ -90,10 +106,6 @@ export function compileSweep(s: SweepStatement, components: ModelComponent[], re
   }
   if (s.variable === 'pressure' && points.some((v) => v <= 0)) {
     report.error('P052', 'a partial pressure must be positive', s)
-    return null
-  }
-  if (s.variable === 'temperature' && points.some((v) => v <= -273.15)) {
-    report.error('P081', 'a temperature must be above absolute zero', s)
     return null
   }
   return { variable: s.variable, component: component?.name ?? null, values: points, log: s.log, line: report.lineOf(s.start.number.from) }

@@ -60,11 +60,14 @@ describe('every check is triggered by a file that breaks it', () => {
     ['P080', 'a sweep of a component that is not total', withLine('sweep total Cl2(g) from 1 mM to 2 mM points 3')],
     ['P080', 'a sweep step that goes the wrong way', withLine('sweep pH from 6 to 11 step -0.1')],
     ['P081', 'a temperature below absolute zero', withLine('temperature -300 C')],
+    ['P082', 'a number that reads as Infinity', replacing('total 1 mmol/L', 'total 1e309 mmol/L')],
+    ['P083', 'a value outside its range', withLine('temperature 150 C')],
     ['W101', 'a component no reaction uses', withLine('component NH3 total 1 mmol/L')],
     ['W102', 'a suppressed solid no reaction defines', withLine('solid CuO(s) suppressed')],
     ['W103', 'a temperature away from 25 C with constants lacking dH', withLine('temperature 40 C')],
     ['W104', 'no balance and H+ given as a total', replacing('component H+ balance', 'component H+ total 1 mmol/L')],
     ['W105', 'a constant with no cite', replacing(' cite "hydrolysis (from memory)"', '')],
+    ['W106', 'a value outside its usual range', replacing('total 1 mmol/L', 'total 8 mol/L')],
   ]
   for (const [code, what, source] of cases) {
     it(`${code}: ${what}`, () => {

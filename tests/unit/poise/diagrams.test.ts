@@ -1,6 +1,7 @@
 import { readFileSync } from 'node:fs'
 import { describe, expect, it } from 'vitest'
 import { diagramsHtml } from '../../../grammar/diagrams'
+import { withGeneratedTables } from '../../../grammar/reference'
 
 describe('grammar/diagrams.html', () => {
   it('is generated from the current parser (run npx tsx scripts/grammar-diagrams.ts when this fails)', () => {
@@ -10,5 +11,13 @@ describe('grammar/diagrams.html', () => {
   it('loads nothing from the network', () => {
     const committed = readFileSync(new URL('../../../grammar/diagrams.html', import.meta.url), 'utf8')
     expect(committed).not.toMatch(/<(script|link)[^>]+(src|href)=/)
+  })
+})
+
+describe('grammar/README.md generated tables', () => {
+  it('show the current limits (run npx tsx scripts/grammar-diagrams.ts when this fails)', () => {
+    const committed = readFileSync(new URL('../../../grammar/README.md', import.meta.url), 'utf8')
+    expect(committed === withGeneratedTables(committed)).toBe(true)
+    expect(committed).toContain('| `pH` | from -2 to 16')
   })
 })
