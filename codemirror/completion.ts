@@ -14,7 +14,7 @@ import { poiseSymbolsField } from './analysis'
 import { lexLine, type LineToken } from './language'
 
 /** Words that open a statement, in the order a file usually has them. */
-const STATEMENT_WORDS = ['system', 'temperature', 'activity', 'ionic-strength', 'component', 'reaction', 'solid', 'source', 'use', 'sweep']
+const STATEMENT_WORDS = ['system', 'temperature', 'activity', 'ionic-strength', 'ion-size', 'component', 'reaction', 'solid', 'source', 'use', 'sweep']
 const COMPONENT_SPECS = ['total', 'free', 'pH', 'pressure', 'balance', 'excess']
 const ACTIVITY_MODELS = ['ideal', 'davies', 'debye-huckel']
 const REACTION_TAIL = ['dH', 'cite']
@@ -40,6 +40,7 @@ const QUANTITY_AFTER: Record<string, Dimension[]> = {
   free: AMOUNT,
   pressure: ['pressure'],
   dH: ['enthalpy'],
+  'ion-size': ['length'],
 }
 
 /** The units of the given dimensions, as the language lists them. */
@@ -77,6 +78,10 @@ export function planCompletion(before: LineToken[], symbols: readonly PoiseSymbo
       const quantity = QUANTITY_AFTER[before[2]!.image]
       return last.role === 'number' && quantity ? unitsOf(quantity) : null
     }
+    case 'ion-size':
+      // `ion-size F N Å`: a charged species, its size, then a length unit.
+      if (before.length === 1) return { kind: 'symbol', words: symbols.filter((s) => s.ionSize !== null).map((s) => s.name) }
+      return before.length === 3 && last.role === 'number' ? unitsOf(QUANTITY_AFTER['ion-size']!) : null
     case 'activity':
       return before.length === 1 ? { kind: 'keyword', words: known(ACTIVITY_MODELS, KEYWORDS) } : null
     case 'solid':

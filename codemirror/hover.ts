@@ -23,6 +23,8 @@ export interface SymbolDescription {
   molarMass: string
   /** `log₁₀ β = 13.10`, or the reason there is no constant. */
   formation: string
+  /** Charged dissolved species: the ion size of the extended Debye–Hückel model and where it comes from; else null. */
+  ionSize: string | null
 }
 
 export function formatCharge(charge: number): string {
@@ -43,7 +45,18 @@ export function describeSymbol(symbol: PoiseSymbol): SymbolDescription {
     charge: formatCharge(symbol.charge),
     molarMass: formatMolarMass(symbol.molarMass),
     formation: describeFormation(symbol),
+    ionSize: describeIonSize(symbol.ionSize),
   }
+}
+
+const ION_SIZE_FROM: Record<NonNullable<PoiseSymbol['ionSize']>['source'], string> = {
+  file: 'given by ion-size in this file',
+  table: 'built-in table',
+  charge: 'guessed from the charge: give it with ion-size',
+}
+
+function describeIonSize(size: PoiseSymbol['ionSize']): string | null {
+  return size ? `${size.angstrom} Å (${ION_SIZE_FROM[size.source]}; used by activity debye-huckel)` : null
 }
 
 /**
@@ -60,6 +73,7 @@ export function describeFormula(formula: ParsedFormula): SymbolDescription {
     charge: formatCharge(formula.charge),
     molarMass: formatMolarMass(formula.molarMass),
     formation: water ? 'the solvent: activity 1, never a component' : 'not resolved: no component or reaction defines it yet, or an error stands in the way',
+    ionSize: null,
   }
 }
 
@@ -109,6 +123,7 @@ function renderDescription(description: SymbolDescription): HTMLElement {
     ['charge', description.charge],
     ['molar mass', description.molarMass],
     ['formation', description.formation],
+    ...(description.ionSize ? [['ion size', description.ionSize] as [string, string]] : []),
   ]
   const table = dom.appendChild(document.createElement('dl'))
   for (const [label, value] of rows) {

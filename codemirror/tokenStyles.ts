@@ -52,6 +52,7 @@ export const TOKEN_STYLES: Readonly<Record<string, TokenStyle | null>> = {
   TemperatureKeyword: statement,
   ActivityKeyword: statement,
   IonicStrengthKeyword: statement,
+  IonSizeKeyword: statement,
   ComponentKeyword: statement,
   ReactionKeyword: statement,
   SolidKeyword: statement,

@@ -1,13 +1,16 @@
 /**
  * The generated parts of grammar/README.md: the table of number limits (from
- * shared/poise/limits.ts), between `<!-- NAME:begin -->` and
+ * shared/poise/limits.ts) and the built-in ion-size table (from
+ * shared/poise/ionSize.ts), each between `<!-- NAME:begin -->` and
  * `<!-- NAME:end -->` markers. scripts/grammar-diagrams.ts rewrites them; a
  * unit test fails when the committed reference is out of date.
  */
 import { limitsTable } from '../shared/poise/limits'
+import { ionSizeTable } from '../shared/poise/ionSize'
 
 const GENERATED: Record<string, () => string> = {
   limits: limitsTable,
+  'ion-sizes': ionSizeTable,
 }
 
 /** The reference text with every generated section replaced by its current content. */

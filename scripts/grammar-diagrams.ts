@@ -2,7 +2,7 @@
  * Writes grammar/diagrams.html: railroad diagrams generated from the parser
  * itself. The chevrotain diagram scripts and stylesheet are inlined so the
  * page opens offline (nothing is fetched from a CDN). Also rewrites the
- * generated table of number limits in grammar/README.md.
+ * generated tables of grammar/README.md (number limits, ion sizes).
  * Run: npx tsx scripts/grammar-diagrams.ts   (unit tests check both are current)
  */
 import { readFileSync, writeFileSync } from 'node:fs'

@@ -5,7 +5,7 @@
  */
 import type { Model } from '../../shared/poise/model'
 import { ACTIVITY_DAVIES, ACTIVITY_DEBYE_HUCKEL, ACTIVITY_IDEAL, type ActivityCode } from './activity'
-import { ionSizeAngstrom } from './ionSize'
+import { ionSizeAngstrom } from '../../shared/poise/ionSize'
 import { debyeHuckelA, debyeHuckelB, vantHoff } from './physics'
 
 /** Component roles in the equations. */
@@ -163,7 +163,8 @@ export function buildProblem(model: Model): { problem: Problem } | { error: stri
     p.logK[i] = s.logK
     p.charge[i] = s.charge
     p.z2[i] = s.charge * s.charge
-    p.ionSize[i] = ionSizeAngstrom(s.name, s.charge)
+    // The compiler writes the ion size it chose into the model; a model stored before it did takes the built-in default.
+    p.ionSize[i] = typeof s.ionSize === 'number' && Number.isFinite(s.ionSize) && s.ionSize > 0 ? s.ionSize : ionSizeAngstrom(s.name, s.charge)
     if (s.componentIndex !== null && s.componentIndex >= 0 && s.componentIndex < nc) p.componentSpecies[s.componentIndex] = i
   })
   const nzComponent: number[] = []

@@ -14,6 +14,7 @@ import { compileSweep } from './sweep'
 import { convert, unitInfo, UNIT_HINTS } from './units'
 import { REFERENCE_TEMPERATURE_C, vantHoff } from './thermo'
 import { checkRange } from './limits'
+import { defaultIonSize, type IonSizeSource } from './ionSize'
 
 export interface CompileOptions {
   /** Returns a library's source, or null when it (or that revision) does not exist. Synchronous. */
@@ -28,6 +29,8 @@ export interface PoiseSymbol {
   molarMass: number | null
   logK: number | null
   definedAt: SourceRange
+  /** Charged dissolved species: the ion size the extended Debye–Hückel model takes, Å, and where it comes from. */
+  ionSize: { angstrom: number; source: IonSizeSource } | null
 }
 
 export interface CompileResult { model: Model | null; diagnostics: Diagnostic[]; symbols: PoiseSymbol[] }
@@ -183,6 +186,48 @@ export function compileSource(source: string, options: CompileOptions, stack: st
     if (!k || !k.byReaction) report.warning('W102', `${f.name} is suppressed but no reaction defines it: the line has no effect`, s.formula)
     suppressed.add(f.name)
   }
+  // ion sizes: `ion-size F N Å` overrides the built-in table for the extended Debye–Hückel model.
+  const ionSizes = new Map<string, number>()
+  for (const s of of('ionSize')) {
+    const f = formulaOf(s.formula, report)
+    if (!f) continue
+    const q = s.quantity
+    const info = q.unit ? unitInfo(q.unit.image) : null
+    if (!q.unit || !info || info.dimension !== 'length') { report.error('P050', q.unit ? `${q.unit.image} is not ${UNIT_HINTS.length}` : `expected ${UNIT_HINTS.length} after ${q.number.image}`, q.unit ?? q.number); continue }
+    const angstrom = q.value * info.factor
+    if (!checkRange(report, 'ionSize', angstrom, q.number)) continue
+    if (f.phase !== 'aq') { report.error('P061', `ion sizes are for dissolved ions: ${f.name} is a ${f.phase === 's' ? 'solid' : 'gas'}`, s.formula); continue }
+    if (ionSizes.has(f.name)) { report.error('P031', `the ion size of ${f.name} is given twice: keep one`, s.formula); continue }
+    if (!known.has(f.name)) {
+      if (!incomplete) report.error('P061', `${f.name} is no species of this system: check its name, or add the component or reaction that makes it`, s.formula)
+      continue
+    }
+    if (f.charge === 0) report.warning('W108', `${f.name} carries no charge, so its activity coefficient does not depend on an ion size: this line has no effect`, s.formula)
+    else if (activity !== 'debye-huckel') report.warning('W108', `ion sizes are used only by \`activity debye-huckel\`; with ${activity} this line has no effect`, s.keyword)
+    ionSizes.set(f.name, angstrom)
+  }
+  const ionSizeOf = (name: string, charge: number): { angstrom: number; source: IonSizeSource } | null => {
+    if (charge === 0) return null
+    const given = ionSizes.get(name)
+    return given !== undefined ? { angstrom: given, source: 'file' } : defaultIonSize(name, charge)
+  }
+  if (activity === 'debye-huckel' && !incomplete) {
+    const activityStmt = of('activity')[0]!
+    const guessed = (name: string, charge: number, at: { from: number; to: number }) => {
+      const size = ionSizeOf(name, charge)
+      if (size?.source !== 'charge') return
+      report.warning('W107', `${name} is not in the built-in ion-size table, so debye-huckel guesses ${size.angstrom} Å from its charge: give its size with \`ion-size ${name} N Å\``, at)
+    }
+    for (const c of components) if (c.phase === 'aq') guessed(c.name, c.charge, componentTok.get(c.name)!)
+    for (const r of resolution.used) {
+      const name = resolution.defines.get(r)!
+      const f = known.get(name)!.formula
+      if (f.phase !== 'aq') continue
+      const term = [...r.left, ...r.right].find((t) => t.formula.name === name)!
+      const useStmt = r.library ? of('use').find((u) => u.name === r.library) : null
+      guessed(name, f.charge, r.library ? (useStmt?.nameTok ?? activityStmt.keyword) : term.tok)
+    }
+  }
   const hPlus = components.find((c) => c.name === 'H+')
   if (balances.length === 0 && hPlus && hPlus.mode === 'total') {
     report.warning('W104', 'no component is balance and H+ is given as a total: the pH follows from that proton total, not from electroneutrality. Write `component H+ balance` to let the charge balance set the pH', componentTok.get('H+')!)
@@ -205,6 +250,11 @@ export function compileSource(source: string, options: CompileOptions, stack: st
   const diagnostics = [...report.diagnostics].sort((a, b) => a.range.from - b.range.from)
   return { model: report.hasErrors ? null : model, diagnostics, symbols, library }
 
+  function ionSizeFields(name: string, charge: number): Pick<ModelSpecies, 'ionSize' | 'ionSizeSource'> {
+    const size = ionSizeOf(name, charge)
+    return size ? { ionSize: size.angstrom, ionSizeSource: size.source } : {}
+  }
+
   function buildModel(): Model {
     const species: ModelSpecies[] = []
     const solids: ModelSolid[] = []
@@ -213,7 +263,7 @@ export function compileSource(source: string, options: CompileOptions, stack: st
       if (c.phase !== 'aq') return
       const nu = new Array<number>(width).fill(0)
       nu[j] = 1
-      species.push({ name: c.name, charge: c.charge, elements: { ...c.elements }, componentIndex: j, nu, logK: 0, logKRef: 0, dH: 0, line: c.line })
+      species.push({ name: c.name, charge: c.charge, elements: { ...c.elements }, componentIndex: j, nu, logK: 0, logKRef: 0, dH: 0, line: c.line, ...ionSizeFields(c.name, c.charge) })
     })
     for (const r of resolution.used) {
       const name = resolution.defines.get(r)!
@@ -222,7 +272,7 @@ export function compileSource(source: string, options: CompileOptions, stack: st
       const formation = { nu: k.formation.nu, logK: vantHoff(k.formation.logK, k.formation.dH, temperatureC), logKRef: k.formation.logK, dH: k.formation.dH, line: r.line }
       if (f.phase === 's') solids.push({ name, elements: { ...f.elements }, suppressed: suppressed.has(name), ...formation })
       else if (f.phase === 'g') gases.push({ name, elements: { ...f.elements }, ...formation })
-      else species.push({ name, charge: f.charge, elements: { ...f.elements }, componentIndex: null, ...formation })
+      else species.push({ name, charge: f.charge, elements: { ...f.elements }, componentIndex: null, ...formation, ...ionSizeFields(name, f.charge) })
     }
     const reactions: ModelReaction[] = resolution.used.map((r) => ({
       equation: `${sideText(r.left)} <=> ${sideText(r.right)}`,
@@ -239,7 +289,7 @@ export function compileSource(source: string, options: CompileOptions, stack: st
     const out: PoiseSymbol[] = []
     for (const c of components) {
       const t = componentTok.get(c.name)!
-      out.push({ name: c.name, kind: 'component', elements: c.elements, charge: c.charge, molarMass: c.molarMass || null, logK: 0, definedAt: report.range(t.from, t.to) })
+      out.push({ name: c.name, kind: 'component', elements: c.elements, charge: c.charge, molarMass: c.molarMass || null, logK: 0, definedAt: report.range(t.from, t.to), ionSize: c.phase === 'aq' ? ionSizeOf(c.name, c.charge) : null })
     }
     for (const r of resolution.used) {
       if (r.library) continue
@@ -247,7 +297,7 @@ export function compileSource(source: string, options: CompileOptions, stack: st
       const k = known.get(name)!
       const term = [...r.left, ...r.right].find((t) => t.formula.name === name)!
       const kind = k.formula.phase === 's' ? 'solid' : k.formula.phase === 'g' ? 'gas' : 'species'
-      out.push({ name, kind, elements: k.formula.elements, charge: k.formula.charge, molarMass: k.formula.molarMass, logK: vantHoff(k.formation.logK, k.formation.dH, temperatureC), definedAt: report.range(term.tok.from, term.tok.to) })
+      out.push({ name, kind, elements: k.formula.elements, charge: k.formula.charge, molarMass: k.formula.molarMass, logK: vantHoff(k.formation.logK, k.formation.dH, temperatureC), definedAt: report.range(term.tok.from, term.tok.to), ionSize: kind === 'species' ? ionSizeOf(name, k.formula.charge) : null })
     }
     return out
   }

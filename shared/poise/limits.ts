@@ -102,6 +102,15 @@ export const LIMITS = {
     hard: { min: 0.01, max: 1000 },
     hardWhy: 'reactions are written with small whole numbers or simple fractions',
   },
+  // Ion-size parameters of the extended Debye–Hückel equation span about
+  // 2.5 to 11 Å in Kielland's (1937) table (from memory).
+  ionSize: {
+    label: 'the ion size', unit: ' Å',
+    hard: { min: 0, minOpen: true, max: 20 },
+    hardWhy: 'an ion-size parameter is the diameter of a hydrated ion, a few ångström',
+    usual: { min: 2, max: 12 },
+    usualWhy: 'tabulated ion-size parameters span about 2.5 to 11 Å',
+  },
 } as const satisfies Record<string, QuantityLimit>
 
 export type LimitName = keyof typeof LIMITS

@@ -7,6 +7,8 @@
  * temperatures in degrees Celsius, enthalpies in kJ/mol, constants as log10.
  */
 
+import type { IonSizeSource } from './ionSize'
+
 export type Phase = 'aq' | 's' | 'g'
 
 export type ComponentMode = 'total' | 'free' | 'pH' | 'pressure' | 'balance' | 'excess'
@@ -57,6 +59,15 @@ export interface ModelSpecies extends Formation {
   elements: Record<string, number>
   /** Index into model.components when this species is a component's free form. */
   componentIndex: number | null
+  /**
+   * Charged species only: the ion-size parameter å of the extended
+   * Debye–Hückel equation, in ångström, and where it came from (`ion-size` in
+   * the file, the built-in table of shared/poise/ionSize.ts, or a guess by
+   * charge). Absent in models stored before ion sizes were part of the model:
+   * the solver then takes the built-in default.
+   */
+  ionSize?: number
+  ionSizeSource?: IonSizeSource
 }
 
 /**
@@ -115,6 +126,8 @@ export interface ModelSweep {
   log: boolean
   line: number
 }
+
+export type { IonSizeSource }
 
 export interface Model {
   title: string

@@ -23,7 +23,7 @@ function alternatives(paths: TokenType[][][]): string {
 }
 
 const RULE_NAMES: Record<string, string> = {
-  statement: 'a statement (system, temperature, activity, ionic-strength, component, reaction, solid, source, use or sweep)',
+  statement: 'a statement (system, temperature, activity, ionic-strength, ion-size, component, reaction, solid, source, use or sweep)',
   componentSpec: 'a component spec (total, free, pH, pressure, balance or excess)',
   sweepVariable: 'a sweep variable (pH, total F, temperature or pressure F)',
 }
@@ -49,6 +49,7 @@ class PoiseParser extends CstParser {
     { ALT: () => this.SUBRULE(this.temperatureStatement) },
     { ALT: () => this.SUBRULE(this.activityStatement) },
     { ALT: () => this.SUBRULE(this.ionicStrengthStatement) },
+    { ALT: () => this.SUBRULE(this.ionSizeStatement) },
     { ALT: () => this.SUBRULE(this.componentStatement) },
     { ALT: () => this.SUBRULE(this.reactionStatement) },
     { ALT: () => this.SUBRULE(this.solidStatement) },
@@ -132,6 +133,12 @@ class PoiseParser extends CstParser {
 
   private ionicStrengthStatement = this.RULE('ionicStrengthStatement', () => {
     this.CONSUME(T.IonicStrengthKeyword)
+    this.SUBRULE(this.quantity)
+  })
+
+  private ionSizeStatement = this.RULE('ionSizeStatement', () => {
+    this.CONSUME(T.IonSizeKeyword)
+    this.CONSUME(T.Formula)
     this.SUBRULE(this.quantity)
   })
 

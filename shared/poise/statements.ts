@@ -19,6 +19,7 @@ export type Statement = Base & (
   | { kind: 'temperature'; quantity: Quantity }
   | { kind: 'activity'; model: 'ideal' | 'davies' | 'debye-huckel' }
   | { kind: 'ionicStrength'; quantity: Quantity }
+  | { kind: 'ionSize'; formula: Tok; quantity: Quantity }
   | { kind: 'component'; formula: Tok; spec: { mode: 'total' | 'free' | 'pH' | 'pressure' | 'balance' | 'excess'; tok: Tok; quantity: Quantity | null } | null }
   | { kind: 'reaction'; left: Term[]; right: Term[]; arrow: Tok; constantKind: Tok; constantValue: Quantity; enthalpies: { tok: Tok; quantity: Quantity }[]; cites: { tok: Tok; text: string | null; key: Tok | null }[] }
   | { kind: 'solid'; formula: Tok }
@@ -90,6 +91,8 @@ function toStatement(cst: CstNode, from: number, to: number): Statement {
     }
     case 'ionicStrengthStatement':
       return { kind: 'ionicStrength', from, to, keyword: kw('IonicStrengthKeyword'), quantity: quantity(node(inner, 'quantity')) }
+    case 'ionSizeStatement':
+      return { kind: 'ionSize', from, to, keyword: kw('IonSizeKeyword'), formula: tok(token(inner, 'Formula')), quantity: quantity(node(inner, 'quantity')) }
     case 'componentStatement': {
       const specNode = nodes(inner, 'componentSpec')[0]
       let spec: Extract<Statement, { kind: 'component' }>['spec'] = null

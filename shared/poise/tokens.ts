@@ -29,7 +29,8 @@ const lowerUnits = [
   'mmol/L', 'umol/L', 'µmol/L', 'μmol/L', 'nmol/L', 'mol/L', 'mM', 'uM', 'µM', 'μM', 'nM',
   'mg/L', 'ug/L', 'µg/L', 'μg/L', 'g/L', '°C', 'atm', 'bar', 'kPa', 'kJ/mol', 'kcal/mol',
 ]
-const upperUnits = ['J/mol', 'Pa', 'M', 'C', 'K']
+/** Units read only directly after a number: the upper-case ones, and lengths that could be words elsewhere. */
+const upperUnits = ['J/mol', 'Pa', 'M', 'C', 'K', 'Å', 'Å', 'pm', 'nm']
 const escape = (s: string) => s.replace(/[/^$.*+?()[\]{}|\\]/g, '\\$&')
 const unitAfterNumber = new RegExp(`(?:${[...lowerUnits, ...upperUnits].map(escape).join('|')})(?![A-Za-z0-9_/()^+\\-·:])`, 'y')
 const unitAnywhere = new RegExp(`(?:${lowerUnits.map(escape).join('|')})(?![A-Za-z0-9_/()^+\\-·:])`, 'y')
@@ -44,7 +45,7 @@ function stickyExec(re: RegExp, text: string, offset: number): RegExpExecArray |
   return re.exec(text)
 }
 
-/** A unit; upper-case units (M, C, K, Pa, J/mol) only directly after a number. */
+/** A unit; upper-case units (M, C, K, Pa, J/mol) and lengths (Å, pm, nm) only directly after a number. */
 export const Unit = createToken({
   name: 'Unit',
   pattern: {
@@ -52,7 +53,7 @@ export const Unit = createToken({
       lastTokenIs(tokens, NumberLiteral) ? stickyExec(unitAfterNumber, text, offset) : stickyExec(unitAnywhere, text, offset),
   },
   line_breaks: false,
-  start_chars_hint: ['m', 'u', 'µ', 'μ', 'n', 'M', 'g', '°', 'a', 'b', 'k', 'J', 'P', 'C', 'K'],
+  start_chars_hint: ['m', 'u', 'µ', 'μ', 'n', 'M', 'g', '°', 'a', 'b', 'k', 'J', 'P', 'C', 'K', 'Å', 'Å', 'p'],
   label: 'a unit',
 })
 
@@ -85,6 +86,7 @@ export const SystemKeyword = keyword('SystemKeyword', 'system')
 export const TemperatureKeyword = keyword('TemperatureKeyword', 'temperature')
 export const ActivityKeyword = keyword('ActivityKeyword', 'activity')
 export const IonicStrengthKeyword = keyword('IonicStrengthKeyword', 'ionic-strength')
+export const IonSizeKeyword = keyword('IonSizeKeyword', 'ion-size')
 export const ComponentKeyword = keyword('ComponentKeyword', 'component')
 export const ReactionKeyword = keyword('ReactionKeyword', 'reaction')
 export const SolidKeyword = keyword('SolidKeyword', 'solid')
@@ -119,7 +121,7 @@ export const Plus = createToken({ name: 'Plus', pattern: '+', label: "'+'" })
 export const At = createToken({ name: 'At', pattern: '@', label: "'@'" })
 
 export const KEYWORD_TOKENS: TokenType[] = [
-  SystemKeyword, TemperatureKeyword, ActivityKeyword, IonicStrengthKeyword, ComponentKeyword,
+  SystemKeyword, TemperatureKeyword, ActivityKeyword, IonicStrengthKeyword, IonSizeKeyword, ComponentKeyword,
   ReactionKeyword, SolidKeyword, SourceKeyword, UseKeyword, SweepKeyword, TotalKeyword, FreeKeyword,
   PHKeyword, PressureKeyword, BalanceKeyword, ExcessKeyword, SuppressedKeyword, IdealKeyword,
   DaviesKeyword, DebyeHuckelKeyword, EnthalpyKeyword, CiteKeyword, FromKeyword, ToKeyword,
@@ -134,5 +136,6 @@ export const allTokens: TokenType[] = [
 
 /** Words offered by completion. */
 export const KEYWORDS: string[] = KEYWORD_TOKENS.map((t) => String(t.PATTERN))
-export const UNITS: string[] = [...lowerUnits, ...upperUnits]
+/** The ångström sign (U+212B) reads like the letter Å but is not offered twice. */
+export const UNITS: string[] = [...lowerUnits, ...upperUnits].filter((u) => u !== 'Å')
 export const CONSTANT_KINDS: string[] = ['logK', 'K', 'pK', 'logbeta', 'beta', 'pKa', 'Ka', 'pKsp', 'Ksp', 'logKsp', 'pKw', 'logKH']

@@ -1,9 +1,9 @@
 /**
  * Units Poise accepts, each converted to the model's units: mol/L, atm,
- * degrees Celsius, kJ/mol. Mass concentrations need the molar mass of the
+ * degrees Celsius, kJ/mol, ångström. Mass concentrations need the molar mass of the
  * formula and are converted by the caller.
  */
-export type Dimension = 'concentration' | 'mass-concentration' | 'pressure' | 'temperature' | 'enthalpy'
+export type Dimension = 'concentration' | 'mass-concentration' | 'pressure' | 'temperature' | 'enthalpy' | 'length'
 
 interface UnitInfo { dimension: Dimension; factor: number; offset: number }
 
@@ -20,6 +20,8 @@ const table: Record<string, UnitInfo> = {
   C: u('temperature', 1), '°C': u('temperature', 1), K: u('temperature', 1, -273.15),
   // 1 thermochemical calorie = 4.184 J (definition).
   'kJ/mol': u('enthalpy', 1), 'J/mol': u('enthalpy', 1e-3), 'kcal/mol': u('enthalpy', 4.184),
+  // Ion sizes to ångström (1 Å = 100 pm = 0.1 nm; the Å letter and the ångström sign both read).
+  'Å': u('length', 1), 'Å': u('length', 1), pm: u('length', 0.01), nm: u('length', 10),
 }
 for (const m of MICRO) {
   table[`${m}mol/L`] = u('concentration', 1e-6)
@@ -44,6 +46,7 @@ export const UNIT_HINTS: Record<Dimension, string> = {
   pressure: 'a pressure unit: atm, bar, kPa or Pa',
   temperature: 'a temperature unit: C, °C or K',
   enthalpy: 'an enthalpy unit: kJ/mol, J/mol or kcal/mol',
+  length: 'a length unit: Å, pm or nm',
 }
 
 /** Parses a Poise number: decimal, exponent, or `10^x`. */

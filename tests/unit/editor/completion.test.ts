@@ -6,11 +6,12 @@ import { completionsAt } from '../../../codemirror/completion'
 import { compile } from '../../../shared/poise/index'
 
 const range = { from: 0, to: 0, line: 1, column: 1, endLine: 1, endColumn: 1 }
-const symbol = (name: string, kind: PoiseSymbol['kind']): PoiseSymbol => ({
-  name, kind, elements: {}, charge: 0, molarMass: 0, logK: kind === 'component' ? 0 : 1, definedAt: range,
+const symbol = (name: string, kind: PoiseSymbol['kind'], charge = 0): PoiseSymbol => ({
+  name, kind, elements: {}, charge, molarMass: 0, logK: kind === 'component' ? 0 : 1, definedAt: range,
+  ionSize: charge === 0 ? null : { angstrom: 5, source: 'charge' },
 })
 /** What the last compile of a copper–ammonia file would have declared. */
-const declared = [symbol('Cu^2+', 'component'), symbol('NH3', 'component'), symbol('CuNH3^2+', 'species'), symbol('Cu(OH)2(s)', 'solid')]
+const declared = [symbol('Cu^2+', 'component', 2), symbol('NH3', 'component'), symbol('CuNH3^2+', 'species', 2), symbol('Cu(OH)2(s)', 'solid')]
 
 /** Labels offered with the cursor at `|` in `text`. */
 function offered(text: string, explicit = false): string[] | null {
@@ -84,6 +85,13 @@ describe('Poise completion', () => {
     expect(offered('use "buffers" @ 2 |')).toBeNull()
     expect(offered('sweep pH from 6 |')).toEqual(['from', 'to', 'step', 'points', 'log'])
     expect(offered('sweep total NH3 from 1 |')).toContain('mmol/L')
+  })
+
+  it('offers charged species after `ion-size`, then length units after its number', () => {
+    expect(offered('|', true)).toContain('ion-size')
+    expect(offered('ion-size |')).toEqual(['Cu^2+', 'CuNH3^2+'])
+    expect(offered('ion-size Cu^2+ 6 |')).toEqual(['Å', 'pm', 'nm'])
+    expect(offered('ion-size Cu^2+ 6 Å |')).toBeNull()
   })
 
   it('offers nothing inside a comment', () => {

@@ -21,6 +21,15 @@ function compiledState() {
 }
 
 describe('hover on a species', () => {
+  it('shows the ion size debye-huckel takes and where it comes from', () => {
+    const symbols = compile(plating.replace('component H+ balance', 'component H+ balance\nactivity debye-huckel\nion-size Cu(NH3)4^2+ 7 Å')).symbols
+    expect(describeSymbol(findSymbol(symbols, 'Cu(NH3)4^2+')!).ionSize).toBe('7 Å (given by ion-size in this file; used by activity debye-huckel)')
+    expect(describeSymbol(findSymbol(symbols, 'Cu^2+')!).ionSize).toBe('6 Å (built-in table; used by activity debye-huckel)')
+    expect(describeSymbol(findSymbol(compile(plating).symbols, 'NH4+')!).ionSize).toContain('built-in table')
+    expect(describeSymbol(findSymbol(symbols, 'NH3')!).ionSize).toBeNull()
+  })
+
+
   it('shows Cu(NH3)4^2+ typeset with the composition and charge its formula gives', () => {
     const { state } = compiledState()
     // Composition and charge follow from the formula itself: Cu(NH3)4 has 1 Cu, 4 N, 12 H; ^2+ is a charge of +2.

@@ -56,6 +56,7 @@ describe('every check is triggered by a file that breaks it', () => {
     ['P058', 'balance on an uncharged component', replacing('component H+ balance', 'component H+ pH 7\ncomponent NH3 balance')],
     ['P059', 'a component with no spec', withLine('component Na+')],
     ['P060', 'a component a reaction relates to the others', withLine('component OH- total 1 mmol/L')],
+    ['P061', 'an ion size for a species not in the system', withLine('activity debye-huckel\nion-size Zn^2+ 6 Å')],
     ['P070', 'use with no library store', withLine('use "acids"')],
     ['P080', 'a sweep of a component that is not total', withLine('sweep total Cl2(g) from 1 mM to 2 mM points 3')],
     ['P080', 'a sweep step that goes the wrong way', withLine('sweep pH from 6 to 11 step -0.1')],
@@ -68,6 +69,8 @@ describe('every check is triggered by a file that breaks it', () => {
     ['W104', 'no balance and H+ given as a total', replacing('component H+ balance', 'component H+ total 1 mmol/L')],
     ['W105', 'a constant with no cite', replacing(' cite "hydrolysis (from memory)"', '')],
     ['W106', 'a value outside its usual range', replacing('total 1 mmol/L', 'total 8 mol/L')],
+    ['W107', 'an ion size guessed from the charge', withLine('activity debye-huckel')],
+    ['W108', 'an ion size with no effect', withLine('ion-size CuOH+ 5 Å')],
   ]
   for (const [code, what, source] of cases) {
     it(`${code}: ${what}`, () => {

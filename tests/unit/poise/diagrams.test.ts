@@ -15,9 +15,10 @@ describe('grammar/diagrams.html', () => {
 })
 
 describe('grammar/README.md generated tables', () => {
-  it('show the current limits (run npx tsx scripts/grammar-diagrams.ts when this fails)', () => {
+  it('show the current limits and ion sizes (run npx tsx scripts/grammar-diagrams.ts when this fails)', () => {
     const committed = readFileSync(new URL('../../../grammar/README.md', import.meta.url), 'utf8')
     expect(committed === withGeneratedTables(committed)).toBe(true)
     expect(committed).toContain('| `pH` | from -2 to 16')
+    expect(committed).toContain('| 9 Å | `H+`')
   })
 })

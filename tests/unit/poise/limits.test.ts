@@ -66,6 +66,7 @@ describe('each quantity has a range; outside it an error with the range (P083)',
     ['dH 1e308 kcal/mol (overflows in kJ)', replacing('dH 55.84 kJ/mol', 'dH 1e308 kcal/mol'), 'from -1000 to 1000 kJ/mol'],
     ['dH 5000 kJ/mol', replacing('dH 55.84 kJ/mol', 'dH 5000 kJ/mol'), 'from -1000 to 1000 kJ/mol'],
     ['a coefficient of 1e300', replacing('Cu(OH)2(s) <=> Cu^2+ + 2 OH-', 'Cu(OH)2(s) <=> Cu^2+ + 1e300 OH-'), 'from 0.01 to 1000'],
+    ['an ion size of 50 Å', withLine('activity debye-huckel\nion-size Cu^2+ 50 Å'), 'above 0 and up to 20 Å'],
   ]
   it.each(cases)('%s', (_, source, range, count = 1) => {
     const { found, model } = only(source, 'P083', count)
@@ -158,14 +159,14 @@ describe('no diagnostic, model or answer ever holds NaN or Infinity', { timeout:
     let solved = 0
     const slots = fc.record({
       temperature: literal('25'), pH: literal('7'), total: literal('1'), free: literal('2'), ionicStrength: literal('0.01'), logK: literal('-7.95'),
-      pKsp: literal('19.66'), dH: literal('55.84'), coefficient: literal('2'), sweepFrom: literal('4'), sweepTo: literal('10'), points: literal('7'),
-      use: fc.record({ temperature: fc.boolean(), pH: fc.boolean(), ionicStrength: fc.boolean(), sweep: fc.boolean() }),
+      pKsp: literal('19.66'), dH: literal('55.84'), coefficient: literal('2'), sweepFrom: literal('4'), sweepTo: literal('10'), points: literal('7'), ionSize: literal('4.5'),
+      use: fc.record({ temperature: fc.boolean(), pH: fc.boolean(), ionicStrength: fc.boolean(), sweep: fc.boolean(), ionSize: fc.boolean() }),
     })
     fc.assert(fc.property(slots, (n) => {
       const source = [
         'system "Generated numbers"',
         n.use.temperature ? `temperature ${n.temperature} C` : '',
-        'activity davies',
+        'activity debye-huckel',
         n.use.ionicStrength ? `ionic-strength ${n.ionicStrength} mol/L` : '',
         n.use.pH ? `component H+ pH ${n.pH}` : 'component H+ balance',
         `component Cu^2+ total ${n.total} mmol/L`,
@@ -173,6 +174,7 @@ describe('no diagnostic, model or answer ever holds NaN or Infinity', { timeout:
         `reaction H2O <=> H+ + OH- pKw 14 dH ${n.dH} kJ/mol cite "x"`,
         `reaction Cu^2+ + H2O <=> CuOH+ + H+ logK ${n.logK} cite "x"`,
         `reaction Cu(OH)2(s) <=> Cu^2+ + ${n.coefficient} OH- pKsp ${n.pKsp} cite "x"`,
+        n.use.ionSize ? `ion-size CuOH+ ${n.ionSize} Å` : '',
         n.use.sweep ? `sweep pH from ${n.sweepFrom} to ${n.sweepTo} points ${n.points}` : '',
       ].join('\n')
       const r = compile(source)

@@ -4,7 +4,7 @@
 import { describe, expect, it } from 'vitest'
 import { solve, sweep } from '../../../server/solver/index'
 import { debyeHuckelA, debyeHuckelB, vantHoff, waterPermittivity } from '../../../server/solver/physics'
-import { ionSizeAngstrom } from '../../../server/solver/ionSize'
+import { ionSizeAngstrom } from '../../../shared/poise/ionSize'
 import { buildModel, hydroxide } from './modelBuilder'
 
 /** A NaCl / CaSO4 medium of known ionic strength (no complexes, no H+ reactions). */
