@@ -2,7 +2,8 @@
  * What changed in the chemistry between two compiled models: species, solids
  * and gases added or removed, formation constants moved (old → new and the
  * change in log K), totals and conditions changed, a solid allowed to form or
- * suppressed, citations changed.
+ * suppressed, an ion size of the extended Debye–Hückel model moved, citations
+ * changed.
  *
  * Constants are compared as the model uses them — the log10 formation
  * constant from components at the reference temperature — so rewriting a
@@ -174,6 +175,22 @@ function conditionChanges(a: Model, b: Model): ModelChange[] {
   return changes
 }
 
+const ION_SIZE_FROM = { file: 'ion-size', table: 'built-in table', charge: 'guessed from the charge' } as const
+
+/** Ion sizes of the extended Debye–Hückel model that moved, when either revision uses that model. */
+function ionSizeChanges(a: Model, b: Model): ModelChange[] {
+  if (a.activity !== 'debye-huckel' && b.activity !== 'debye-huckel') return []
+  const words = (s: Model['species'][number]) => s.ionSize === undefined ? 'built-in default' : `${s.ionSize} Å (${ION_SIZE_FROM[s.ionSizeSource ?? 'table']})`
+  const before = new Map(a.species.map(s => [s.name, s]))
+  const changes: ModelChange[] = []
+  for (const now of b.species) {
+    const old = before.get(now.name)
+    if (!old || old.charge === 0 || old.ionSize === now.ionSize) continue
+    changes.push({ kind: 'assumption', entity: 'species', name: now.name, from: words(old), to: words(now), size: 0.5, fromLine: old.line, toLine: now.line })
+  }
+  return changes
+}
+
 function citationChanges(a: Model, b: Model): ModelChange[] {
   const byDefined = (model: Model) => new Map<string, ModelReaction>(model.reactions.map(r => [r.defines, r]))
   const before = byDefined(a)
@@ -201,6 +218,7 @@ export function diffModels(a: Model, b: Model): ModelChange[] {
     ...formationChanges(a, b),
     ...componentChanges(a, b),
     ...conditionChanges(a, b),
+    ...ionSizeChanges(a, b),
     ...citationChanges(a, b),
   ]
   return changes.sort((x, y) => y.size - x.size || x.name.localeCompare(y.name))

@@ -57,6 +57,14 @@ describe('model diff', () => {
     expect(byKind['citation:CuNH3^2+']).toMatchObject({ from: 'demo value', to: 'checked again' })
   })
 
+  it('reports an ion size given in the file where debye-huckel guessed one before', () => {
+    const dh = (extra: string) => compiled(copperAmmine(4, extra).replace('activity ideal', 'activity debye-huckel'))
+    const changes = diffModels(dh(''), dh('ion-size CuNH3^2+ 6.5 Å\n'))
+    expect(changes).toEqual([expect.objectContaining({ kind: 'assumption', entity: 'species', name: 'CuNH3^2+', from: '5 Å (guessed from the charge)', to: '6.5 Å (ion-size)' })])
+    // With another activity model an ion size changes nothing worth showing.
+    expect(diffModels(compiled(copperAmmine(4)), compiled(copperAmmine(4) + 'ion-size CuNH3^2+ 6.5 Å\n'))).toEqual([])
+  })
+
   it('reports a solid that is suppressed in one revision and allowed to form in the other', () => {
     const solid = 'reaction Cu(OH)2(s) <=> Cu^2+ + 2 OH-  pKsp 19.66  cite "demo value"\nreaction H2O <=> H+ + OH-  pKw 14.00  cite "demo value"\ncomponent H+ pH 7'
     const changes = diffModels(compiled(copperAmmine(4, `${solid}\nsolid Cu(OH)2(s) suppressed`)), compiled(copperAmmine(4, solid)))
