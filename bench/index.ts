@@ -75,7 +75,7 @@ function main(json: boolean): void {
   const base: SolverState = { y: new Float64Array(p.nc), x: new Float64Array(p.nc), n: new Float64Array(p.nsol), active: new Uint8Array(p.nsol), u: Math.sqrt(cold.ionicStrength) }
   model.components.forEach((c, j) => {
     const own = cold.species.find((s) => s.name === c.name)
-    base.y[j] = (own ? own.log10 : 0) + 0.01
+    base.y[j] = (own?.log10 ?? 0) + 0.01
   })
   model.solids.forEach((s, k) => {
     const r = cold.solids.find((x) => x.name === s.name)!

@@ -7,8 +7,9 @@ import type { Model } from '../../shared/poise/model'
 import type { Result, SweepResult } from '../../shared/types/result'
 import { presolve } from './presolve'
 import { Workspace, type Limits, type SolverState } from './workspace'
-import { solveWithPhases } from './phases'
-import { MODE_BALANCE, MODE_TOTAL, buildProblem, setComponent, setTemperature, type Problem } from './problem'
+import { canPrecipitate, saturationIndex, solveWithPhases, SUPERSATURATION_TOLERANCE } from './phases'
+import { RESIDUAL_TOLERANCE } from './newton'
+import { MIN_NONZERO_TOTAL, MODE_BALANCE, MODE_TOTAL, buildProblem, setComponent, setTemperature, type Problem } from './problem'
 import { buildResult } from './report'
 
 /** Stored with every run, so a result can be traced to the solver that made it. */
@@ -19,13 +20,20 @@ export const SOLVER_LIMITS = { maxIterations: 2000, timeBudgetMs: 60_000 } as co
 
 export interface SolveOptions {
   /**
-   * Newton iterations allowed for one attempt, all solid sets together
-   * (default 300). A solve makes at most 11 attempts (two warm starts at a
-   * sweep point, three cold guesses of pH, six stages of activity
-   * continuation), so it never runs more than 11 × this many iterations.
+   * Newton iterations allowed for one set of solids (default 300); one
+   * attempt may spend PHASE_BUDGET_FACTOR times this over all the sets it
+   * tries. A solve makes at most MAX_ATTEMPTS attempts (two warm starts at a
+   * sweep point, three cold guesses of pH, up to sixteen stages of activity
+   * continuation), so it never runs more than MAX_ATTEMPTS ×
+   * PHASE_BUDGET_FACTOR × this many iterations. This budget, not the clock, decides answers: the
+   * same model gives the same answer on a busy or an idle server.
    */
   maxIterations?: number
-  /** Wall-clock budget in ms for this call (a whole sweep for `sweep`); default 10 s. */
+  /**
+   * Wall-clock guard in ms for this call (a whole sweep for `sweep`);
+   * default 10 s. Only an outer safety limit against runaway work: a solve
+   * or sweep point it stops is not converged and its reason says so.
+   */
   timeBudgetMs?: number
   /** Absolute deadline as a Date.now() value; the earlier of this and timeBudgetMs applies. */
   deadline?: number
@@ -34,15 +42,16 @@ export interface SolveOptions {
 const DEFAULT_ITERATIONS = 300
 const DEFAULT_BUDGET_MS = 10_000
 /** Cold guesses of log10 a(H+) tried in turn when a solve fails. */
-const PROTON_GUESSES = [-7, -3, -11]
+const PROTON_GUESSES = [-7, -3, -11, -1, -13]
 
-function deadlineOf(options: SolveOptions | undefined): number {
-  const budget = Math.min(options?.timeBudgetMs ?? DEFAULT_BUDGET_MS, SOLVER_LIMITS.timeBudgetMs)
-  let end = performance.now() + Math.max(0, budget)
+/** The wall-clock guard of a call: its end as a performance.now() value and its length in ms. */
+function guardOf(options: SolveOptions | undefined): { deadline: number; guardMs: number } {
+  const requested = options?.timeBudgetMs ?? DEFAULT_BUDGET_MS
+  let guardMs = Math.max(0, Math.min(Number.isFinite(requested) ? requested : DEFAULT_BUDGET_MS, SOLVER_LIMITS.timeBudgetMs))
   if (options?.deadline !== undefined && Number.isFinite(options.deadline)) {
-    end = Math.min(end, performance.now() + (options.deadline - Date.now()))
+    guardMs = Math.max(0, Math.min(guardMs, options.deadline - Date.now()))
   }
-  return end
+  return { deadline: performance.now() + guardMs, guardMs }
 }
 
 function iterationsOf(options: SolveOptions | undefined): number {
@@ -80,19 +89,74 @@ function coldStart(ws: Workspace, state: SolverState, logH: number): void {
 
 interface Attempt { result: Result; ok: boolean }
 
+/**
+ * What keeps the final state from being an answer, checked on that state
+ * alone whatever the loops reported: an equation whose scaled residual is
+ * not below RESIDUAL_TOLERANCE, a present solid at a negative amount, or an
+ * absent solid that could precipitate and is supersaturated. Null when none.
+ */
+function finalDefect(ws: Workspace, state: SolverState, result: Result): { what: string; advice: string } | null {
+  const p = ws.p
+  for (const e of result.residuals.equations ?? []) {
+    if (!(e.scaled < RESIDUAL_TOLERANCE)) return { what: `${e.name} did not close (scaled residual ${e.scaled.toExponential(2)})`, advice: adviceFor(e.name) }
+  }
+  for (let s = 0; s < p.nsol; s++) {
+    const name = p.model.solids[s].name
+    if (state.active[s] && !(state.n[s] >= 0)) {
+      return { what: `${name} ended at a negative amount (${state.n[s].toExponential(2)} mol/L)`, advice: adviceFor(`the saturation of ${name}`) }
+    }
+    if (!state.active[s] && canPrecipitate(p, s)) {
+      const si = saturationIndex(p, state.x, s)
+      if (!(si <= SUPERSATURATION_TOLERANCE)) return { what: `${name} is left supersaturated (SI ${si.toExponential(2)})`, advice: adviceFor(`the saturation of ${name}`) }
+    }
+  }
+  return null
+}
+
+/** What the user can change when an equation does not close. */
+function adviceFor(equation: string): string {
+  if (equation.startsWith('the mass balance of ')) {
+    const name = equation.slice('the mass balance of '.length)
+    return `Check the total of ${name} and the constants of the species and solids that hold it; a total far beyond what can dissolve, or constants many orders apart, make it hard to close.`
+  }
+  if (equation.startsWith('the charge balance')) return 'Give H+ as a pH or a total instead of balance, or check that the totals given can balance the charge.'
+  if (equation.startsWith('the saturation of ')) {
+    const name = equation.slice('the saturation of '.length)
+    return `Check the constant of ${name}; if it should not form here, mark it suppressed, or suppress a competing solid whose constant is close to it.`
+  }
+  if (equation === 'the ionic strength') return 'Fix the ionic strength, or use ideal activities, if the solution is beyond the range of the activity model.'
+  return 'Check the totals and constants of the model.'
+}
+
 function attempt(ws: Workspace, state: SolverState, limits: Limits, iterationsBefore: number): Attempt {
   const out = solveWithPhases(ws, state, limits)
   const result = buildResult(ws, state, {
     converged: out.ok,
     iterations: iterationsBefore + out.iterations,
-    reason: out.ok ? undefined : `Did not converge: ${out.reason}.`,
     notes: out.notes,
   })
-  return { result, ok: out.ok }
+  // Converged only when the final state itself checks out.
+  const defect = finalDefect(ws, state, result)
+  const ok = out.ok && defect === null
+  result.converged = ok
+  if (!ok) {
+    if (out.timedOut) {
+      result.reason = `Stopped by the time guard (${Math.round((limits.guardMs ?? DEFAULT_BUDGET_MS) / 1000)} s), a safety limit of the server rather than a property of the equations: ${out.reason ?? defect?.what}. Use fewer sweep points or a smaller system.`
+    } else if (!out.ok) {
+      result.reason = `Did not converge: ${out.reason}. ${adviceFor(out.equation ?? '')}`
+    } else {
+      result.reason = `Did not converge: ${defect!.what}. ${defect!.advice}`
+    }
+  }
+  return { result, ok }
 }
 
 /** Fractions of the Debye–Hückel A walked through when a direct solve with activities fails. */
 const ACTIVITY_HOMOTOPY = [0, 0.25, 0.5, 0.75, 0.9, 1]
+/** Most stages (planned and halfway retries) one walk in A may take. */
+const HOMOTOPY_STAGES_MAX = 16
+/** Most attempts one solve makes (see SolveOptions.maxIterations). */
+export const MAX_ATTEMPTS = 2 + PROTON_GUESSES.length + HOMOTOPY_STAGES_MAX
 
 /**
  * Solves from each `warm` start in turn, then from cold guesses, then (with an activity
@@ -119,15 +183,33 @@ function solveProblem(ws: Workspace, state: SolverState, limits: Limits, warm: S
   }
   if (p.activity !== 0 && p.fixedRootI < 0 && performance.now() <= limits.deadline) {
     // At high ionic strength γ can change by orders of magnitude between the
-    // guess and the answer; walking A up from 0 keeps each step small.
+    // guess and the answer; walking A up from 0 keeps each step small. A
+    // stage that fails is retried halfway from the last stage that solved,
+    // so one hard stretch does not end the walk.
     const fullA = p.A
+    const good = newState(p)
     coldStart(ws, state, PROTON_GUESSES[0])
     try {
-      for (const f of ACTIVITY_HOMOTOPY) {
-        p.A = fullA * f
+      let reached = -1
+      let target = 0
+      let tries = 0
+      while (tries++ < HOMOTOPY_STAGES_MAX && performance.now() <= limits.deadline) {
+        p.A = fullA * target
         const stage = attempt(ws, state, limits, spent)
         spent = stage.result.iterations
-        if (f === 1 || !stage.ok) { last = stage; break }
+        if (stage.ok) {
+          if (target === 1) return stage
+          reached = target
+          copyState(good, state)
+          target = ACTIVITY_HOMOTOPY.find((f) => f > reached) ?? 1
+        } else {
+          last = stage
+          if (reached < 0) break
+          copyState(state, good)
+          const halfway = (reached + target) / 2
+          if (halfway - reached < 1e-3) break
+          target = halfway
+        }
       }
     } finally {
       p.A = fullA
@@ -157,7 +239,7 @@ export function solve(model: Model, options?: SolveOptions): Result {
     const built = buildProblem(model)
     if ('error' in built) return unsolvable(model, built.error)
     const ws = new Workspace(built.problem)
-    const limits = { maxIterations: iterationsOf(options), deadline: deadlineOf(options) }
+    const limits = { maxIterations: iterationsOf(options), ...guardOf(options) }
     return solveProblem(ws, newState(built.problem), limits, []).result
   } catch (error) {
     return internalFailure(model, error)
@@ -214,6 +296,7 @@ function applySweepValue(p: Problem, variable: string, j: number, v: number): st
       return null
     case 'total':
       if (v < 0) return `a total of ${v} mol/L is negative`
+      if (v !== 0 && v < MIN_NONZERO_TOTAL) return `a total of ${v} mol/L is closer to 0 than ${MIN_NONZERO_TOTAL} mol/L, beyond what the arithmetic can resolve`
       setComponent(p, j, 'total', v)
       return null
     case 'pressure':
@@ -262,19 +345,19 @@ export function sweep(model: Model, options?: SolveOptions): SweepResult {
     const recent: SweepPoint[] = []
     const spare: SolverState[] = [newState(p), newState(p), newState(p)]
     const maxIterations = iterationsOf(options)
-    const deadline = deadlineOf(options)
+    const guard = guardOf(options)
     const position = (v: number) => (sw.log && v > 0 ? Math.log10(v) : v)
     for (const v of values) {
       const bad = applySweepValue(p, sw.variable, target.index, v)
       if (bad) { base.points.push(unsolvable(model, `This sweep point cannot be solved: ${bad}.`)); continue }
-      if (performance.now() > deadline) {
-        base.points.push(unsolvable(model, 'The time limit for the sweep ran out before this point.'))
+      if (performance.now() > guard.deadline) {
+        base.points.push(unsolvable(model, `Not solved: the time guard of the sweep (${Math.round(guard.guardMs / 1000)} s, a safety limit of the server) ran out before this point. Use fewer sweep points or a smaller system.`))
         continue
       }
       const starts: SolverState[] = []
       if (recent.length >= 2 && predict(predicted, position(v), recent)) starts.push(predicted)
       if (recent.length >= 1) starts.push(recent[0].state)
-      const out = solveProblem(ws, state, { maxIterations, deadline }, starts)
+      const out = solveProblem(ws, state, { maxIterations, ...guard }, starts)
       if (out.ok) {
         const slot = recent.length === 3 ? recent.pop()!.state : spare.pop()!
         copyState(slot, state)

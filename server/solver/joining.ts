@@ -66,7 +66,7 @@ export function estimateJoining(ws: Workspace, state: SolverState, joining: { so
     for (let j = 0; j < nc; j++) {
       const v = p.solidNu[s * nc + j]
       if (p.mode[j] !== MODE_TOTAL || v <= 0) continue
-      most = Math.min(most, Math.max(p.total[j], 0) / v)
+      if (ws.bounds[j]) most = Math.min(most, Math.max(p.total[j], 0) / v)
       let owned = false
       for (let t = 0; t < p.nsol; t++) if (t !== s && state.active[t] && p.solidNu[t * nc + j] !== 0) owned = true
       if (owned) continue

@@ -25,7 +25,17 @@ const MAX_LOG_STEP = 1.5
 const CHORD_STEP_LIMIT = 1e-6
 /** Largest change of √I in one iteration. */
 const MAX_ROOT_I_STEP = 0.5
-/** Iterations spent below the residual tolerance without the step shrinking: the rounding floor. */
+/** Iterations in a row with a present solid below zero before Newton gives the set back. */
+const NEGATIVE_PATIENCE = 12
+
+function anyPresentNegative(ws: Workspace, state: SolverState): boolean {
+  for (let a = 0; a < ws.nActive; a++) if (state.n[ws.rowSolid[a]] < 0) return true
+  return false
+}
+
+/** Halvings of the step before the line search gives up. */
+const LINE_SEARCH_HALVINGS = 40
+/** Iterations in a row spent below the residual tolerance without the step shrinking: the rounding floor. */
 const FLOOR_ITERATIONS = 3
 
 /** Sets ws.worstMax and ws.worstRow: the largest scaled residual and its row. */
@@ -81,7 +91,8 @@ function solidsDependent(ws: Workspace): boolean {
       if (p.mode[j] === MODE_TOTAL) amounts.set(a, r, v)
     }
   }
-  return new SingularValueDecomposition(saturation).rank < na || new SingularValueDecomposition(amounts).rank < na
+  const svd = { autoTranspose: true }
+  return new SingularValueDecomposition(saturation, svd).rank < na || new SingularValueDecomposition(amounts, svd).rank < na
 }
 
 /**
@@ -95,7 +106,7 @@ function newtonDirection(ws: Workspace, state: SolverState): boolean {
   const J = ws.matrix(dim)
   assembleJacobian(ws, state.u, ws.scale, J)
   let lu = new LuDecomposition(J)
-  if (lu.isSingular()) {
+  if (nearlySingular(lu, dim)) {
     if (ws.nActive > 0 && solidsDependent(ws)) return false
     // The factorisation overwrote J (in place): build it again to shift it.
     assembleJacobian(ws, state.u, ws.scale, J)
@@ -104,13 +115,33 @@ function newtonDirection(ws: Workspace, state: SolverState): boolean {
     const shift = Math.max(biggest, 1) * 1e-8
     for (let r = 0; r < dim; r++) J.set(r, r, J.get(r, r) + shift)
     lu = new LuDecomposition(J)
-    if (lu.isSingular()) return false
+    if (nearlySingular(lu, dim)) return false
   }
   ws.factors = null
   if (!solveWithFactors(ws, lu, ws.scale)) return false
   ws.factors = lu
   ws.factorScale.set(ws.scale)
   return true
+}
+
+/**
+ * Relative size below which a pivot of the scaled Jacobian counts as zero:
+ * rows are scaled to order one, so a pivot this far below the largest is
+ * rounding of a dependent row, not information (common practice: a few
+ * hundred times the double epsilon).
+ */
+const PIVOT_TOLERANCE = 1e-13
+
+/** Whether the LU factors have a pivot that is zero relative to the largest one. */
+function nearlySingular(lu: LuDecomposition, dim: number): boolean {
+  // The factors live in the matrix factored (InPlaceMatrix: J itself), as `LU`.
+  const data = ((lu as unknown as { LU: { data: Float64Array[] } }).LU).data
+  let biggest = 0
+  for (let r = 0; r < dim; r++) biggest = Math.max(biggest, Math.abs(data[r][r]))
+  if (!(biggest > 0) || !Number.isFinite(biggest)) return true
+  const floor = biggest * PIVOT_TOLERANCE
+  for (let r = 0; r < dim; r++) if (!(Math.abs(data[r][r]) > floor)) return true
+  return false
 }
 
 /** delta from factors of the Jacobian scaled by `scale`: J·delta = −F/scale. False when not finite. */
@@ -143,13 +174,31 @@ function stepSize(ws: Workspace, state: SolverState): number {
   return m
 }
 
-/** Takes the last, tiny step in ws.delta too (it brings the answer to rounding level) and reports convergence. */
+/**
+ * Takes the last, tiny step in ws.delta (it brings the answer to rounding
+ * level), evaluates the state it reaches and keeps it only when its residuals
+ * are no worse; otherwise goes back to the point before it, which already met
+ * the tolerance. Either way the species in ws are those of the state returned,
+ * and the outcome reports the residuals evaluated there.
+ */
 function finalStep(ws: Workspace, state: SolverState, it: number): NewtonOutcome {
+  const before = ws.worstMax
+  const u0 = state.u
   ws.y0.set(state.y)
   ws.n0.set(state.n)
-  state.u = applyStep(ws, state, state.u, 1)
+  state.u = applyStep(ws, state, u0, 1)
   computeSpecies(ws, state)
-  return { ok: true, iterations: it + 1, maxScaled: ws.worstMax, worstRow: ws.worstRow }
+  computeResiduals(ws, state, ws.F, ws.scale)
+  findWorst(ws)
+  if (!(ws.worstMax <= Math.max(before, RESIDUAL_TOLERANCE * 0.5))) {
+    state.y.set(ws.y0)
+    state.n.set(ws.n0)
+    state.u = u0
+    computeSpecies(ws, state)
+    computeResiduals(ws, state, ws.F, ws.scale)
+    findWorst(ws)
+  }
+  return { ok: ws.worstMax < RESIDUAL_TOLERANCE, iterations: it + 1, maxScaled: ws.worstMax, worstRow: ws.worstRow }
 }
 
 /** Largest √I a starting point may take (I = 25 mol/L): guesses far off must not blow γ up. */
@@ -187,18 +236,23 @@ export function newton(ws: Workspace, state: SolverState, limits: Limits): Newto
   let fresh = ws.hasU ? settleIonicStrength(ws, state) : false
   const nr = ws.nUnknownComponents
   let belowTolerance = 0
+  let timedOut = false
+  let negativeFor = 0
   ws.worstMax = Infinity
   ws.worstRow = 0
   ws.factors = null
   // Whether the last step was small enough for its factors to stand in for the Jacobian here.
   let chord = false
-  for (let it = 0; it <= limits.maxIterations; it++) {
+  let it = 0
+  for (; it <= limits.maxIterations; it++) {
     if (!fresh) computeSpecies(ws, state)
     computeResiduals(ws, state, ws.F, ws.scale)
     findWorst(ws)
     if (ws.dim === 0) return { ok: true, iterations: it, maxScaled: 0, worstRow: 0 }
-    if (ws.worstMax < RESIDUAL_TOLERANCE) belowTolerance++
-    if (it === limits.maxIterations || performance.now() > limits.deadline) break
+    // Iterations in a row below the tolerance: one above it starts the count again.
+    belowTolerance = ws.worstMax < RESIDUAL_TOLERANCE ? belowTolerance + 1 : 0
+    if (it === limits.maxIterations) break
+    if (performance.now() > limits.deadline) { timedOut = true; break }
     // Converged by the last factors (a chord step): the Newton step here
     // differs from it by a relative CHORD_STEP_LIMIT, far inside the test.
     if (chord && ws.worstMax < RESIDUAL_TOLERANCE && ws.factors && solveWithFactors(ws, ws.factors, ws.factorScale)
@@ -224,20 +278,49 @@ export function newton(ws: Workspace, state: SolverState, limits: Limits): Newto
     // Backtracking on the residuals scaled as at the current point, so an overshoot
     // shows as a larger merit instead of saturating at 1.
     let t = cap
-    for (let k = 0; k < 40; k++) {
+    let descended = false
+    for (let k = 0; k < LINE_SEARCH_HALVINGS; k++) {
       state.u = applyStep(ws, state, u0, t)
       computeSpecies(ws, state)
       computeResiduals(ws, state, ws.Ftrial, ws.scaleTrial)
       const merit = meritOf(ws, ws.Ftrial, ws.scale)
-      if (merit <= (1 - 2e-4 * t) * merit0 || merit0 < 1e-28) break
+      if (merit <= (1 - 2e-4 * t) * merit0 || merit0 < 1e-28) { descended = true; break }
       t *= 0.5
+    }
+    if (!descended) {
+      // No step along the Newton direction lowers the residuals: back to the
+      // point before, which either already meets the tolerance (rounding
+      // keeps the merit from falling) or is where the solve stalled.
+      state.y.set(ws.y0)
+      state.n.set(ws.n0)
+      state.u = u0
+      computeSpecies(ws, state)
+      computeResiduals(ws, state, ws.F, ws.scale)
+      findWorst(ws)
+      if (ws.worstMax < RESIDUAL_TOLERANCE) return { ok: true, iterations: it + 1, maxScaled: ws.worstMax, worstRow: ws.worstRow }
+      return {
+        ok: false, iterations: it + 1, maxScaled: ws.worstMax, worstRow: ws.worstRow, stalled: true,
+        reason: `${ws.rowName(ws.worstRow)} did not close: no step along the Newton direction lowered the residuals (scaled residual ${ws.worstMax.toExponential(2)})`,
+      }
     }
     chord = t * stepSize(ws, state) < CHORD_STEP_LIMIT
     fresh = true
+    // A solid that stays at a negative amount while the residuals do not
+    // close does not belong to the answer: hand it back to the phase loop,
+    // which drops it, instead of iterating on an impossible set.
+    negativeFor = anyPresentNegative(ws, state) ? negativeFor + 1 : 0
+    if (negativeFor >= NEGATIVE_PATIENCE) {
+      computeResiduals(ws, state, ws.F, ws.scale)
+      findWorst(ws)
+      return {
+        ok: false, iterations: it + 1, maxScaled: ws.worstMax, worstRow: ws.worstRow, stalled: true,
+        reason: `${ws.rowName(ws.worstRow)} did not close with a solid at a negative amount (scaled residual ${ws.worstMax.toExponential(2)})`,
+      }
+    }
   }
-  const stoppedBy = performance.now() > limits.deadline ? 'the time limit ran out' : `${limits.maxIterations} iterations`
+  const stoppedBy = timedOut ? 'the time guard stopped the solve' : `${limits.maxIterations} iterations`
   return {
-    ok: false, iterations: limits.maxIterations, maxScaled: ws.worstMax, worstRow: ws.worstRow,
+    ok: false, iterations: Math.min(it, limits.maxIterations), maxScaled: ws.worstMax, worstRow: ws.worstRow, timedOut,
     reason: `${ws.rowName(ws.worstRow)} did not close after ${stoppedBy}: scaled residual ${ws.worstMax.toExponential(2)}`,
   }
 }

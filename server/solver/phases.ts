@@ -8,6 +8,9 @@ import { newton } from './newton'
 import { estimateJoining, joinIndependent } from './joining'
 import type { Limits, SolverState, Workspace } from './workspace'
 
+/** The phase loop's iteration budget, in multiples of the budget of one set of solids. */
+export const PHASE_BUDGET_FACTOR = 3
+
 /** A solid joins when its saturation index exceeds this. */
 export const SUPERSATURATION_TOLERANCE = 1e-9
 
@@ -19,6 +22,10 @@ export interface PhaseOutcome {
   reason?: string
   /** Notes for the result: solids that cannot precipitate although supersaturated. */
   notes: string[]
+  /** The wall-clock guard stopped the solve. */
+  timedOut?: boolean
+  /** The equation that did not close, in words (Workspace.rowName), when Newton failed. */
+  equation?: string
 }
 
 /** Saturation index of solid s at the component activities x. */
@@ -29,7 +36,7 @@ export function saturationIndex(p: Problem, x: Float64Array, s: number): number 
 }
 
 /** A solid can only be present if it takes up a component under a mass balance. */
-function canPrecipitate(p: Problem, s: number): boolean {
+export function canPrecipitate(p: Problem, s: number): boolean {
   if (p.suppressed[s]) return false
   for (let j = 0; j < p.nc; j++) if (p.mode[j] === MODE_TOTAL && p.solidNu[s * p.nc + j] !== 0) return true
   return false
@@ -61,11 +68,16 @@ export function solveWithPhases(ws: Workspace, state: SolverState, limits: Limit
   let estimated = false
   const rounds = 4 * p.nsol + 4
   for (let round = 0; round <= rounds; round++) {
-    const left = limits.maxIterations - iterations
+    // Each set of solids may take maxIterations; all of them together
+    // PHASE_BUDGET_FACTOR times that (deterministic: counted, not timed).
+    const left = Math.min(limits.maxIterations, PHASE_BUDGET_FACTOR * limits.maxIterations - iterations)
+    if (left <= 0) {
+      return { ok: false, iterations, maxScaled: Infinity, worstRow: 0, notes, equation: '', reason: `the choice of solids present did not settle within ${PHASE_BUDGET_FACTOR * limits.maxIterations} iterations` }
+    }
     const shortcut = estimated || alongside.length > 0
     // A round started by the shortcut leaves half the iterations to the plain repeat.
     const allowed = shortcut ? Math.ceil(left / 2) : left
-    const out = newton(ws, state, { maxIterations: Math.max(1, allowed), deadline: limits.deadline })
+    const out = newton(ws, state, { ...limits, maxIterations: Math.max(1, allowed) })
     iterations += out.iterations
     // Solids that joined together must all stay; if one would leave, the
     // plain way (one at a time) decides, so the sets tried are its own.
@@ -93,14 +105,27 @@ export function solveWithPhases(ws: Workspace, state: SolverState, limits: Limit
         }
         continue
       }
-      return { ok: false, iterations, maxScaled: out.maxScaled, worstRow: out.worstRow, reason: out.reason, notes }
+      // A present solid at a negative amount cannot belong to the answer,
+      // whether or not Newton closed with it: drop it before anything else
+      // (the largest share of a total first) and solve again from the last
+      // solved point.
+      const negative = mostNegative(p, state)
+      if (negative >= 0 && !out.timedOut) {
+        state.active[negative] = 0; state.n[negative] = 0
+        if (remember(seen, state.active)) {
+          restore(state, good)
+          lastAdd = -1
+          continue
+        }
+        state.active[negative] = 1
+      }
+      return { ok: false, iterations, maxScaled: out.maxScaled, worstRow: out.worstRow, reason: out.reason, notes, timedOut: out.timedOut, equation: ws.rowName(out.worstRow) }
     }
     lastAdd = -1
     alongside = []
     estimated = false
     snapshot(good, state)
-    let drop = -1
-    for (let s = 0; s < p.nsol; s++) if (state.active[s] && state.n[s] < 0 && (drop < 0 || state.n[s] < state.n[drop])) drop = s
+    const drop = mostNegative(p, state)
     if (drop >= 0) {
       state.active[drop] = 0; state.n[drop] = 0
       if (!remember(seen, state.active)) return cycling(p, drop, 'leaves', iterations, out, notes)
@@ -144,6 +169,27 @@ export function solveWithPhases(ws: Workspace, state: SolverState, limits: Limit
     estimated = estimateJoining(ws, state, joining)
   }
   return { ok: false, iterations, maxScaled: Infinity, worstRow: 0, notes, reason: 'the choice of solids present did not settle' }
+}
+
+/**
+ * The present solid whose negative amount is the largest share of a total
+ * it draws on (so a solid of three metal atoms weighs three times its
+ * amount), or −1 when none is negative.
+ */
+function mostNegative(p: Problem, state: SolverState): number {
+  let drop = -1
+  let worst = 0
+  for (let s = 0; s < p.nsol; s++) {
+    if (!state.active[s] || !(state.n[s] < 0)) continue
+    let share = 0
+    for (let j = 0; j < p.nc; j++) {
+      const v = Math.abs(p.solidNu[s * p.nc + j])
+      if (p.mode[j] === MODE_TOTAL && v > 0) share = Math.max(share, (v * -state.n[s]) / Math.max(Math.abs(p.total[j]), 1e-300))
+    }
+    if (share === 0) share = -state.n[s]
+    if (drop < 0 || share > worst) { drop = s; worst = share }
+  }
+  return drop
 }
 
 function anyNegative(state: SolverState): boolean {

@@ -36,14 +36,17 @@ export function waterPermittivity(tC: number): number {
 }
 
 /**
- * Density of air-free water at 1 atm, kg/m³, 0–150 °C: Kell (1975),
- * J. Chem. Eng. Data 20, 97 (coefficients from memory; 997.05 at 25 °C).
+ * Density of air-free water at 1 atm, kg/m³, 0–150 °C: the rational
+ * polynomial of Kell (1975), J. Chem. Eng. Data 20(1), 97–105, for the 1968
+ * temperature scale — numerator coefficients 999.83952, 16.945176,
+ * −7.9870401e-3, −46.170461e-6, 105.56302e-9, −280.54253e-12 and
+ * denominator 1 + 16.879850e-3 t (997.047 kg/m³ at 25 °C, 999.972 at 4 °C).
  */
 export function waterDensity(tC: number): number {
   const t = tC
   const num = 999.83952 + 16.945176 * t - 7.9870401e-3 * t ** 2 - 46.170461e-6 * t ** 3
     + 105.56302e-9 * t ** 4 - 280.54253e-12 * t ** 5
-  return num / (1 + 16.89785e-3 * t)
+  return num / (1 + 16.879850e-3 * t)
 }
 
 /** Inverse Debye length per √(mol/kg) of ionic strength, in 1/m. */

@@ -15,6 +15,13 @@ export const MODE_FIXED_CONCENTRATION = 2 // `free`: concentration known, activi
 export const MODE_FIXED_ACTIVITY = 3 // `pH`, `pressure`, `excess`
 export const MODE_ABSENT = 4 // total 0 and every species holds it positively: nothing of it exists
 
+/**
+ * Smallest magnitude of a non-zero total, mol/L: below it the free forms
+ * and the balance sums fall into subnormal doubles, which carry too few
+ * digits to close a balance to 1e-10.
+ */
+export const MIN_NONZERO_TOTAL = 1e-250
+
 /** log10 activity given to an absent component: far enough below anything representable. */
 export const ABSENT_LOG_ACTIVITY = -400
 
@@ -83,6 +90,9 @@ function modelDefect(model: Model): string | null {
   if (!finite(model.refTemperatureC)) return 'the reference temperature of the constants is not a number'
   for (const c of model.components) {
     if (!finite(c.value)) return `component ${c.name} has no numeric value`
+    if (c.mode === 'total' && c.value !== 0 && Math.abs(c.value) < MIN_NONZERO_TOTAL) {
+      return `the total of ${c.name} (${c.value.toExponential(2)} mol/L) is closer to 0 than ${MIN_NONZERO_TOTAL} mol/L, beyond what the arithmetic can resolve; give 0 to leave it out`
+    }
     if ((c.mode === 'free' || c.mode === 'pressure') && c.value <= 0) {
       return `component ${c.name} must have a positive ${c.mode === 'free' ? 'free concentration' : 'pressure'}`
     }

@@ -8,10 +8,13 @@ import { ACTIVITY_RANGE_LIMIT } from './activity'
 import { computeResiduals, computeSpecies, speciesAreOf } from './equations'
 import type { SolverState, Workspace } from './workspace'
 import { saturationIndex } from './phases'
-import { MODE_FIXED_ACTIVITY } from './problem'
+import { MODE_ABSENT, MODE_FIXED_ACTIVITY, type Problem } from './problem'
 
 /** Finite stand-in for values that overflowed or are undefined (never NaN in JSON). */
 const safe = (v: number, fallback = 0) => (Number.isFinite(v) ? v : fallback)
+
+/** A log10 that is a number, or null (the caller gives the reason; never a made-up number such as −400). */
+const logOrNull = (v: number) => (Number.isFinite(v) ? v : null)
 
 export interface ReportInput {
   converged: boolean
@@ -44,38 +47,59 @@ export function buildResult(ws: Workspace, state: SolverState, info: ReportInput
     for (let e = p.nzStart[i]; e < p.nzStart[i + 1]; e++) dissolvedOf[p.nzComponent[e]] += p.nzNu[e] * c
     const gamma = Math.exp(ws.g[i] * Math.LN10)
     ionic += 0.5 * p.z2[i] * c
+    const absent = absentIn(p, p.nu, i)
+    const log10 = absent === null ? logOrNull(ws.lc[i]) : null
     species[i] = {
       name: s.name, charge: s.charge,
-      concentration: safe(c), log10: safe(ws.lc[i], -400),
-      activity: safe(c * gamma), gamma: safe(gamma, 1),
+      concentration: absent === null ? safe(c) : 0, log10,
+      activity: absent === null ? safe(c * gamma) : 0, gamma: safe(gamma, 1),
+      ...(log10 === null ? { none: absent ?? 'the concentration is below what a number can hold' } : {}),
     }
   }
   const ionicStrength = p.fixedRootI >= 0 ? p.fixedRootI * p.fixedRootI : ionic
-  const solids: SolidResult[] = m.solids.map((s, k) => ({
-    name: s.name,
-    present: state.active[k] === 1,
-    amount: state.active[k] === 1 ? safe(state.n[k]) : 0,
-    saturationIndex: safe(saturationIndex(p, state.x, k), -999),
-    ...(s.suppressed ? { suppressed: true } : {}),
-  }))
+  const solids: SolidResult[] = m.solids.map((s, k) => {
+    const amount = state.active[k] === 1 ? safe(state.n[k]) : 0
+    const absent = absentIn(p, p.solidNu, k)
+    const si = absent === null ? logOrNull(saturationIndex(p, state.x, k)) : null
+    return {
+      name: s.name,
+      present: state.active[k] === 1,
+      amount, precipitated: amount,
+      saturationIndex: si,
+      ...(s.suppressed ? { suppressed: true } : {}),
+      ...(si === null ? { none: absent ?? 'the saturation index is beyond what a number can hold' } : {}),
+    }
+  })
   const components: ComponentResult[] = m.components.map((comp, j) => {
     const dissolved = dissolvedOf[j]
     let inSolids = 0
     for (let k = 0; k < p.nsol; k++) if (state.active[k]) inSolids += p.solidNu[k * p.nc + j] * state.n[k]
     // Held activities (pH, pressure, excess) are reported as such; the rest as concentrations.
     const own = p.componentSpecies[j]
-    const free = own >= 0 && p.mode[j] !== MODE_FIXED_ACTIVITY ? ws.c[own] : Math.exp(state.x[j] * Math.LN10)
-    return { name: comp.name, mode: comp.mode, total: safe(dissolved + inSolids), free: safe(free), dissolved: safe(dissolved) }
+    const activity = p.mode[j] === MODE_ABSENT ? 0 : Math.exp(state.x[j] * Math.LN10)
+    const concentration = own >= 0 ? species[own].concentration : null
+    const free = concentration !== null && p.mode[j] !== MODE_FIXED_ACTIVITY ? concentration : activity
+    return {
+      name: comp.name, mode: comp.mode, total: safe(dissolved + inSolids), free: safe(free), dissolved: safe(dissolved),
+      ...(concentration !== null ? { freeConcentration: concentration } : {}),
+      freeActivity: safe(activity),
+    }
   })
   m.components.forEach((comp, j) => {
     if (comp.mode === 'excess' && p.mode[j] === MODE_FIXED_ACTIVITY && !solids.some((s) => s.name === comp.name)) {
-      solids.push({ name: comp.name, present: true, amount: components[j].dissolved ?? 0, saturationIndex: 0 })
+      const dissolved = components[j].dissolved ?? 0
+      solids.push({ name: comp.name, present: true, amount: dissolved, dissolved, saturationIndex: 0 })
     }
   })
   const gases: GasResult[] = m.gases.map((g, k) => {
     let l = p.gasLogK[k]
     for (let j = 0; j < p.nc; j++) l += p.gasNu[k * p.nc + j] * state.x[j]
-    return { name: g.name, pressure: safe(Math.exp(l * Math.LN10)), log10: safe(l, -400) }
+    const absent = absentIn(p, p.gasNu, k)
+    const log10 = absent === null ? logOrNull(l) : null
+    return {
+      name: g.name, pressure: log10 === null ? 0 : safe(Math.exp(l * Math.LN10)), log10,
+      ...(log10 === null ? { none: absent ?? 'the pressure is below what a number can hold' } : {}),
+    }
   })
   const warnings = [...info.notes, ...rangeWarnings(ws, ionicStrength)]
   const hasH = p.hIndex >= 0
@@ -92,6 +116,17 @@ export function buildResult(ws: Workspace, state: SolverState, info: ReportInput
   if (!info.converged) result.reason = info.reason ?? 'the solver stopped without closing every equation'
   if (warnings.length > 0) result.warnings = warnings
   return result
+}
+
+/**
+ * Why row k of a stoichiometry (nu, by rows of nc) has no value: it holds a
+ * component that is absent (total 0), or null when it holds none.
+ */
+function absentIn(p: Problem, nu: Float64Array, k: number): string | null {
+  for (let j = 0; j < p.nc; j++) {
+    if (p.mode[j] === MODE_ABSENT && nu[k * p.nc + j] !== 0) return `none: the total of ${p.model.components[j].name} is 0`
+  }
+  return null
 }
 
 function rangeWarnings(ws: Workspace, ionicStrength: number): string[] {

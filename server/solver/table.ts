@@ -7,6 +7,8 @@ import type { Result, SweepResult } from '../../shared/types/result'
 
 const exp = (v: number) => (v === 0 ? '0' : v.toExponential(3))
 const fixed = (v: number, d: number) => v.toFixed(d)
+/** A value that may not exist (null in the Result): 'none' instead of a made-up number. */
+const fixedOrNone = (v: number | null, d: number) => (v === null ? 'none' : fixed(v, d))
 
 /** Aligns rows of cells: first column left, the others right. */
 function align(rows: string[][]): string {
@@ -24,16 +26,16 @@ export function formatResultTable(model: Model, r: Result): string {
   const species = [...r.species].sort((a, b) => b.concentration - a.concentration)
   out.push(align([
     ['species', 'mol/L', 'log10', 'activity', 'gamma'],
-    ...species.map((s) => [s.name, exp(s.concentration), fixed(s.log10, 3), exp(s.activity), fixed(s.gamma, 4)]),
+    ...species.map((s) => [s.name, exp(s.concentration), fixedOrNone(s.log10, 3), exp(s.activity), fixed(s.gamma, 4)]),
   ]))
   if (r.solids.length > 0) {
     out.push('', align([
       ['solid', 'present', 'mol/L', 'SI'],
-      ...r.solids.map((s) => [s.name + (s.suppressed ? ' (suppressed)' : ''), s.present ? 'yes' : 'no', exp(s.amount), fixed(s.saturationIndex, 3)]),
+      ...r.solids.map((s) => [s.name + (s.suppressed ? ' (suppressed)' : ''), s.present ? 'yes' : 'no', exp(s.amount), fixedOrNone(s.saturationIndex, 3)]),
     ]))
   }
   if (r.gases && r.gases.length > 0) {
-    out.push('', align([['gas', 'atm', 'log10'], ...r.gases.map((g) => [g.name, exp(g.pressure), fixed(g.log10, 3)])]))
+    out.push('', align([['gas', 'atm', 'log10'], ...r.gases.map((g) => [g.name, exp(g.pressure), fixedOrNone(g.log10, 3)])]))
   }
   out.push('', align([
     ['component', 'mode', 'total mol/L', 'free'],

@@ -20,9 +20,16 @@ export interface SolverState {
 }
 
 export interface Limits {
+  /** Newton iterations allowed: the budget that decides answers (deterministic). */
   maxIterations: number
-  /** performance.now() value after which the solve gives up. */
+  /**
+   * performance.now() value after which the solve stops: only an outer guard
+   * against runaway work, never reached by a solve that the iteration
+   * budget ends; a solve it stops says so in its reason.
+   */
   deadline: number
+  /** The guard's length in ms, for the message (optional). */
+  guardMs?: number
 }
 
 export interface NewtonOutcome {
@@ -33,6 +40,10 @@ export interface NewtonOutcome {
   worstRow: number
   reason?: string
   singular?: boolean
+  /** The line search found no step that lowers the residuals. */
+  stalled?: boolean
+  /** The wall-clock guard (Limits.deadline) stopped the solve, not the equations. */
+  timedOut?: boolean
 }
 
 /**
@@ -75,7 +86,14 @@ export class Workspace {
   /** The unknowns at the last computeSpecies, to skip a repeat evaluation. */
   readonly evaluatedY: Float64Array
   evaluatedU = NaN
-  /** Most of each present solid its components' totals allow (mol/L), by row. */
+  /**
+   * Most of each present solid that its components' totals allow at any
+   * answer (mol/L), by row; Infinity when no component bounds it. Only a
+   * component held non-negatively by every species and every solid bounds
+   * the solids: then dissolved and precipitated shares are all ≥ 0 at an
+   * answer and each solid's share is at most the total. A component held
+   * negatively anywhere (H+ beside OH−) can be taken up beyond its total.
+   */
   readonly maxAmount: Float64Array
   readonly F: Float64Array
   readonly scale: Float64Array
@@ -95,6 +113,9 @@ export class Workspace {
   private readonly chargeNames: string[]
   private readonly solidNames: string[]
 
+  /** Whether component j is held non-negatively by every species and solid (see maxAmount). */
+  readonly bounds: Uint8Array
+
   constructor(readonly p: Problem) {
     const rows = p.nc + p.nsol + 1
     this.lc = new Float64Array(p.nsp)
@@ -107,6 +128,13 @@ export class Workspace {
     this.rowSolid = new Int32Array(p.nsol)
     this.evaluatedY = new Float64Array(p.nc)
     this.maxAmount = new Float64Array(p.nsol)
+    this.bounds = new Uint8Array(p.nc)
+    for (let j = 0; j < p.nc; j++) {
+      let nonNegative = true
+      for (let i = 0; i < p.nsp; i++) if (p.nu[i * p.nc + j] < 0) nonNegative = false
+      for (let t = 0; t < p.nsol; t++) if (p.solidNu[t * p.nc + j] < 0) nonNegative = false
+      this.bounds[j] = nonNegative ? 1 : 0
+    }
     this.F = new Float64Array(rows)
     this.scale = new Float64Array(rows)
     this.Ftrial = new Float64Array(rows)
@@ -142,7 +170,7 @@ export class Workspace {
       let most = Infinity
       for (let j = 0; j < p.nc; j++) {
         const v = p.solidNu[s * p.nc + j]
-        if (p.mode[j] === MODE_TOTAL && v > 0) most = Math.min(most, Math.max(p.total[j], 0) / v)
+        if (p.mode[j] === MODE_TOTAL && v > 0 && this.bounds[j]) most = Math.min(most, Math.max(p.total[j], 0) / v)
       }
       this.maxAmount[k] = most
     }

@@ -186,8 +186,11 @@ export function diffResults(a: SolvedAnswer, b: SolvedAnswer): ResultsDiff {
     for (const p of withPoints) {
       const was = p.from.solids.find(s => s.name === name)
       const is = p.to.solids.find(s => s.name === name)
-      if (was && is && Number.isFinite(was.saturationIndex) && Number.isFinite(is.saturationIndex)) {
-        along.push({ name, from: was.saturationIndex, to: is.saturationIndex, change: is.saturationIndex - was.saturationIndex, at: p.at })
+      // A solid with no saturation index (null: a component of it has a total of 0) has no change to show.
+      const from = was?.saturationIndex ?? null
+      const to = is?.saturationIndex ?? null
+      if (from !== null && to !== null && Number.isFinite(from) && Number.isFinite(to)) {
+        along.push({ name, from, to, change: to - from, at: p.at })
       }
     }
     const biggest = largest(along, c => Math.abs(c.change))

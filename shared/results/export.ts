@@ -48,21 +48,28 @@ export function resultCsv(result: Result): string {
     add('species', s.name, 'log10 concentration', csvNumber(s.log10), 'log10(mol/L)')
     add('species', s.name, 'activity', csvNumber(s.activity), 'mol/L')
     add('species', s.name, 'activity coefficient', csvNumber(s.gamma))
+    if (s.none) add('species', s.name, 'none', s.none)
   }
   for (const s of result.solids) {
     add('solid', s.name, 'present', String(s.present))
     add('solid', s.name, 'amount', csvNumber(s.amount), 'mol/L')
+    if (s.precipitated !== undefined) add('solid', s.name, 'precipitated', csvNumber(s.precipitated), 'mol/L')
+    if (s.dissolved !== undefined) add('solid', s.name, 'dissolved', csvNumber(s.dissolved), 'mol/L')
     add('solid', s.name, 'saturation index', csvNumber(s.saturationIndex))
     if (s.suppressed) add('solid', s.name, 'suppressed', 'true')
+    if (s.none) add('solid', s.name, 'none', s.none)
   }
   for (const g of result.gases ?? []) {
     add('gas', g.name, 'partial pressure', csvNumber(g.pressure), 'atm')
     add('gas', g.name, 'log10 partial pressure', csvNumber(g.log10), 'log10(atm)')
+    if (g.none) add('gas', g.name, 'none', g.none)
   }
   for (const c of result.components) {
     add('component', c.name, 'mode', c.mode)
     add('component', c.name, 'total', csvNumber(c.total), 'mol/L')
     add('component', c.name, 'free', csvNumber(c.free), 'mol/L')
+    if (c.freeConcentration !== undefined) add('component', c.name, 'free concentration', csvNumber(c.freeConcentration), 'mol/L')
+    if (c.freeActivity !== undefined) add('component', c.name, 'free activity', csvNumber(c.freeActivity), 'mol/L')
     if (c.dissolved !== undefined) add('component', c.name, 'dissolved', csvNumber(c.dissolved), 'mol/L')
   }
   for (const w of result.warnings ?? []) add('conditions', '', 'warning', w)

@@ -1,31 +1,53 @@
 /**
  * The solver's answer (the Result JSON). Concentrations in mol/L, amounts of
  * solid in mol per litre of solution, pressures in atm.
+ *
+ * No number in it is ever NaN, Infinity or a made-up stand-in: a quantity
+ * that does not exist (the log10 of a species whose component has a total of
+ * 0, the saturation index of a solid made of such a component) is `null`,
+ * and the entry's `none` field says why.
  */
 
 export interface SpeciesResult {
   name: string
   charge: number
   concentration: number
-  log10: number
+  /** log10 of the concentration; null when there is none (see `none`). */
+  log10: number | null
   activity: number
   gamma: number
+  /** Why a value above is null (e.g. a component of the species has a total of 0). */
+  none?: string
 }
 
 export interface SolidResult {
   name: string
   present: boolean
-  /** mol/L precipitated (0 when absent); for an `excess` solid component, mol/L dissolved. */
+  /**
+   * mol/L precipitated (0 when absent); for an `excess` solid component,
+   * mol/L dissolved. Kept for readers of older results: `precipitated` and
+   * `dissolved` below say which of the two it is.
+   */
   amount: number
-  saturationIndex: number
+  /** mol/L of this solid precipitated (0 when absent); absent on an `excess` component's entry. */
+  precipitated?: number
+  /** For an `excess` solid component only: mol/L of it dissolved. */
+  dissolved?: number
+  /** log10 of the saturation ratio; null when it has none (see `none`). */
+  saturationIndex: number | null
   suppressed?: boolean
+  /** Why a value above is null. */
+  none?: string
 }
 
 export interface GasResult {
   name: string
   /** Equilibrium partial pressure, atm. */
   pressure: number
-  log10: number
+  /** log10 of the pressure; null when there is none (see `none`). */
+  log10: number | null
+  /** Why a value above is null. */
+  none?: string
 }
 
 export interface ComponentResult {
@@ -33,8 +55,16 @@ export interface ComponentResult {
   mode: 'total' | 'free' | 'pH' | 'pressure' | 'balance' | 'excess'
   /** Analytical total in solution plus solids, mol/L (computed for every mode). */
   total: number
-  /** Free concentration (or activity for fixed-activity modes), mol/L. */
+  /**
+   * Free concentration, or activity for the fixed-activity modes (pH,
+   * pressure, excess), mol/L. Kept for readers of older results:
+   * `freeConcentration` and `freeActivity` give each on its own.
+   */
   free: number
+  /** Concentration of the component's free form, mol/L; absent when it has no aqueous free form. */
+  freeConcentration?: number
+  /** Activity of the component (its free form's concentration times γ; 1 for an excess solid). */
+  freeActivity?: number
   /** Total dissolved (aqueous species only), mol/L. */
   dissolved?: number
 }

@@ -62,7 +62,7 @@ sweep pH from 4 to 9 step 1`
     expect(incomparableReason(before, after)).toBeNull()
     const diff = diffResults(before, after)
     // A solid can only form where its saturation index is above zero (definition of the saturation index, common practice).
-    const supersaturated = before.values.filter((_, i) => before.points[i]!.solids.find(s => s.name === 'Cu(OH)2(s)')!.saturationIndex > 0)
+    const supersaturated = before.values.filter((_, i) => before.points[i]!.solids.find(s => s.name === 'Cu(OH)2(s)')!.saturationIndex! > 0)
     expect(supersaturated.length).toBeGreaterThan(0)
     expect(diff.kind).toBe('sweep')
     expect(diff.solids).toEqual([{ name: 'Cu(OH)2(s)', change: 'appears', at: supersaturated, ranges: [[supersaturated[0], supersaturated.at(-1)]] }])

@@ -3,7 +3,7 @@
  */
 import { describe, expect, it } from 'vitest'
 import { solve, sweep } from '../../../server/solver/index'
-import { debyeHuckelA, debyeHuckelB, vantHoff, waterPermittivity } from '../../../server/solver/physics'
+import { debyeHuckelA, debyeHuckelB, vantHoff, waterDensity, waterPermittivity } from '../../../server/solver/physics'
 import { ionSizeAngstrom } from '../../../shared/poise/ionSize'
 import { buildModel, hydroxide } from './modelBuilder'
 
@@ -99,6 +99,16 @@ describe('temperature', () => {
     expect(debyeHuckelA(100)).toBeLessThan(0.62)
     // Water's relative permittivity: 87.74 at 0 °C, 78.3 at 25 °C (Malmberg & Maryott 1956, from memory).
     expect(waterPermittivity(25)).toBeCloseTo(78.3, 1)
+  })
+
+  // Density of air-free water at 1 atm: 999.972 kg/m³ at 4 °C, 997.047 at
+  // 25 °C, 958.35 at 100 °C (Kell (1975), J. Chem. Eng. Data 20, 97, Table
+  // values of the same correlation the function implements).
+  it('water density follows Kell (1975): 997.05 kg/m³ at 25 °C', () => {
+    expect(waterDensity(25)).toBeCloseTo(997.047, 2)
+    expect(waterDensity(4)).toBeCloseTo(999.972, 2)
+    expect(waterDensity(0)).toBeCloseTo(999.83952, 5)
+    expect(waterDensity(100)).toBeCloseTo(958.35, 1)
   })
 
   // van 't Hoff: log10 K(T) = log10 K(T0) − ΔH/(R ln 10) (1/T − 1/T0), the

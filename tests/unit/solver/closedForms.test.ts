@@ -126,6 +126,6 @@ describe('fractions and complexes at fixed conditions', () => {
     const solid = r.solids.find((s) => s.name === 'MA(s)')!
     expect(solid.present).toBe(true)
     expect(solid.amount).toBeCloseTo(0.1 - S, 12)
-    expect(Math.abs(solid.saturationIndex)).toBeLessThan(1e-10)
+    expect(Math.abs(solid.saturationIndex!)).toBeLessThan(1e-10)
   })
 })

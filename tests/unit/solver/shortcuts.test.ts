@@ -78,7 +78,7 @@ describe('solver shortcuts', () => {
     out.points.forEach((p, k) => {
       const cold = solve(twoHydroxides(values[k]!))
       expect(p.solids.map((s) => s.present)).toEqual(cold.solids.map((s) => s.present))
-      p.species.forEach((s, i) => expect(Math.abs(s.log10 - cold.species[i]!.log10)).toBeLessThan(1e-9))
+      p.species.forEach((s, i) => expect(Math.abs(s.log10! - cold.species[i]!.log10!)).toBeLessThan(1e-9))
     })
   })
 })

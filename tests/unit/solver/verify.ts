@@ -28,6 +28,8 @@ function logActivity(model: Model, result: Result, j: number): Decimal {
   if (comp.mode === 'excess') return new D(0)
   const own = result.species.find((s) => s.name === comp.name)
   if (!own) throw new Error(`result lacks the free form of ${comp.name}`)
+  // No log10 at all: the component is absent (total 0), its activity is 0.
+  if (own.log10 === null) return new D(-Infinity)
   if (own.concentration === 0) return new D(own.log10)
   return new D(own.log10).plus(D.log10(own.gamma))
 }
