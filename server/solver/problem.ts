@@ -20,7 +20,7 @@ export const MODE_ABSENT = 4 // total 0 and every species holds it positively: n
  * and the balance sums fall into subnormal doubles, which carry too few
  * digits to close a balance to 1e-10.
  */
-export const MIN_NONZERO_TOTAL = 1e-250
+export const MIN_NONZERO_TOTAL = 1e-300
 
 /** log10 activity given to an absent component: far enough below anything representable. */
 export const ABSENT_LOG_ACTIVITY = -400
