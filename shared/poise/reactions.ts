@@ -253,6 +253,8 @@ function reportStuck(stuck: PreparedReaction[], known: Map<string, Known>, compo
     const unknown = unknownsOf(r, known)
     const at = { from: r.stmt.left[0]!.formula.from, to: lastFormulaEnd(r.stmt) }
     if (unknown.length === 0) {
+      // A component that failed its own checks stands in with no stoichiometry: its error says enough.
+      if ([...net.keys()].some((n) => n !== WATER && known.get(n)!.formula.name !== n)) continue
       const related = relation(r, known, componentNames)
       if (related) {
         report.error('P060', related, at)

@@ -93,6 +93,10 @@ reaction H2CO3 <=> HCO3- + H+ pKa 6.35 cite "x"
     expect(p060[0]!.message).toContain('library "carbonate" line 5')
     expect(p060[0]!.message).toContain('Remove `component HCO3-`')
   })
+  it('adds no relation error after a component that failed its own check', () => {
+    const r = compile(`system "s"\ncomponent H+ balance\ncomponent OH- total 1e6 mol/L\n${water}\n`)
+    expect(r.diagnostics.map((d) => d.code)).toEqual(['P083'])
+  })
   it('still takes a library reaction that only repeats what the file defines as no relation', () => {
     const lib = `system "carbonate"\ncomponent H+ balance\ncomponent CO3^2- total 1 mM\nreaction HCO3- <=> CO3^2- + H+ pKa 10.33 cite "x"\n`
     const r = compile(`system "s"\nuse "carbonate"\ncomponent H+ balance\ncomponent CO3^2- total 1 mmol/L\nreaction HCO3- <=> CO3^2- + H+ pKa 10.3 cite "x"\n`, {
