@@ -6,6 +6,7 @@
 import type { Model } from '../../shared/poise/model'
 import { ACTIVITY_DAVIES, ACTIVITY_DEBYE_HUCKEL, ACTIVITY_IDEAL, type ActivityCode } from './activity'
 import { ionSizeAngstrom } from '../../shared/poise/ionSize'
+import { MIN_NONZERO_TOTAL } from '../../shared/poise/limits'
 import { debyeHuckelA, debyeHuckelB, vantHoff } from './physics'
 
 /** Component roles in the equations. */
@@ -15,12 +16,8 @@ export const MODE_FIXED_CONCENTRATION = 2 // `free`: concentration known, activi
 export const MODE_FIXED_ACTIVITY = 3 // `pH`, `pressure`, `excess`
 export const MODE_ABSENT = 4 // total 0 and every species holds it positively: nothing of it exists
 
-/**
- * Smallest magnitude of a non-zero total, mol/L: below it the free forms
- * and the balance sums fall into subnormal doubles, which carry too few
- * digits to close a balance to 1e-10.
- */
-export const MIN_NONZERO_TOTAL = 1e-300
+/** Smallest magnitude of a non-zero total, mol/L: one limit with the language's (shared/poise/limits.ts), so the checker refuses what the solver would. */
+export { MIN_NONZERO_TOTAL }
 
 /** log10 activity given to an absent component: far enough below anything representable. */
 export const ABSENT_LOG_ACTIVITY = -400

@@ -124,6 +124,14 @@ export type LimitName = keyof typeof LIMITS
 export const NUMBER_MAX = Number.MAX_VALUE
 export const NUMBER_MIN = 2.2250738585072014e-308
 
+/**
+ * A non-zero concentration closer to 0 than this is refused: below it the
+ * free forms and the balance sums fall into subnormal doubles, which carry
+ * too few digits to close a balance to 1e-10 (server/solver/problem.ts reads
+ * the same constant). Give 0 to leave a component out.
+ */
+export const MIN_NONZERO_TOTAL = 1e-300
+
 /** At most this many points in one sweep; the compiler and the server's request limits both use it. */
 export const MAX_SWEEP_POINTS = 5000
 /** At most this many atoms of one element in a formula. */
@@ -177,6 +185,9 @@ export function rangeProblem(name: LimitName, value: number, options: { magnitud
   const v = options.magnitude ? Math.abs(value) : value
   // Zero is an absent component, never "less than one particle".
   if (v === 0 && name === 'concentration') return null
+  if (name === 'concentration' && v > 0 && v < MIN_NONZERO_TOTAL) {
+    return { severity: 'error', message: `${what} is ${shown}, closer to 0 than ${formatNumber(MIN_NONZERO_TOTAL)}${l.unit}, beyond what the solver's arithmetic can resolve: give 0 to leave it out` }
+  }
   if (!inside(v, l.hard)) {
     return { severity: 'error', message: `${what} is ${shown}, outside the range Poise accepts (${options.magnitude ? 'in size ' : ''}${rangeText(name)}): ${l.hardWhy}` }
   }
@@ -205,6 +216,7 @@ export function limitsTable(): string {
     '| quantity | error outside | warning outside |',
     '| --- | --- | --- |',
     ...rows,
+    `| a non-zero concentration | ${formatNumber(MIN_NONZERO_TOTAL)} mol/L or more in size (the solver cannot resolve less; write 0 to leave a component out) | — |`,
     `| any number written | 0, or ${formatNumber(NUMBER_MIN)} to ${formatNumber(NUMBER_MAX)} in size | — |`,
     `| sweep points | 2 to ${MAX_SWEEP_POINTS} | — |`,
     `| atoms of one element in a formula | 1 to ${MAX_ATOM_COUNT} | — |`,

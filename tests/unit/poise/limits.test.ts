@@ -65,6 +65,7 @@ describe('each quantity has a range; outside it an error with the range (P083)',
     ['Ka 1e-200', replacing('logK -7.95', 'K 1e-200'), 'from -150 to 150'],
     ['dH 1e308 kcal/mol (overflows in kJ)', replacing('dH 55.84 kJ/mol', 'dH 1e308 kcal/mol'), 'from -1000 to 1000 kJ/mol'],
     ['dH 5000 kJ/mol', replacing('dH 55.84 kJ/mol', 'dH 5000 kJ/mol'), 'from -1000 to 1000 kJ/mol'],
+    ['a total of 1e-305 mol/L (closer to 0 than the solver resolves)', replacing('total 1 mmol/L', 'total 1e-305 mol/L'), 'closer to 0 than 1e-300 mol/L'],
     ['a coefficient of 1e300', replacing('Cu(OH)2(s) <=> Cu^2+ + 2 OH-', 'Cu(OH)2(s) <=> Cu^2+ + 1e300 OH-'), 'from 0.01 to 1000'],
     ['an ion size of 50 Å', withLine('activity debye-huckel\nion-size Cu^2+ 50 Å'), 'above 0 and up to 20 Å'],
   ]
