@@ -7,7 +7,7 @@
  * end sessions for good — a copied cookie stops working too.
  */
 import type { H3Event } from 'h3'
-import { and, eq, ne } from 'drizzle-orm'
+import { and, eq, lt, ne, or } from 'drizzle-orm'
 import { tables, useDb } from './db'
 import { hashToken, newToken } from './tokens'
 import { sessionLifetimesFrom, type SessionLifetimes } from './session-lifetime'
@@ -24,8 +24,16 @@ export async function startSession(event: H3Event, user: { id: number, email: st
   const { token, hash } = newToken()
   const userAgent = (getRequestHeader(event, 'user-agent') ?? '').slice(0, 200)
   await endSession(event, { keepCookie: true })
-  await useDb().insert(tables.sessions).values({ userId: user.id, tokenHash: hash, userAgent })
-  const maxAge = Math.round(sessionLifetimes(event).absoluteMinutes * 60)
+  const lifetimes = sessionLifetimes(event)
+  const now = Date.now()
+  const db = useDb()
+  // Sessions of this account that ended unseen (a browser closed, never signed out) go now.
+  await db.delete(tables.sessions).where(and(eq(tables.sessions.userId, user.id), or(
+    lt(tables.sessions.lastSeenAt, new Date(now - lifetimes.idleMinutes * 60_000)),
+    lt(tables.sessions.createdAt, new Date(now - lifetimes.absoluteMinutes * 60_000)),
+  )))
+  await db.insert(tables.sessions).values({ userId: user.id, tokenHash: hash, userAgent })
+  const maxAge = Math.round(lifetimes.absoluteMinutes * 60)
   await replaceUserSession(event, { user, secure: { token }, loggedInAt: Date.now() }, { maxAge })
 }
 

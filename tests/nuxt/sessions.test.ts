@@ -101,6 +101,14 @@ describe('sessions end', () => {
     expect(await query('SELECT id FROM sessions WHERE user_id IN (?, ?)', [idle.user.id, old.user.id])).toEqual([])
   })
 
+  it('clears the sessions that ended unseen when the account signs in again', async () => {
+    const forgetful = await signUp('unseen')
+    await query(`UPDATE sessions SET last_seen_at = NOW(3) - INTERVAL ${DEFAULT_SESSION_LIFETIMES.idleMinutes + 1} MINUTE WHERE user_id = ?`, [forgetful.user.id])
+    await signIn(forgetful.user.email, forgetful.password)
+    const rows = await query<{ age: number }>('SELECT TIMESTAMPDIFF(MINUTE, last_seen_at, NOW(3)) AS age FROM sessions WHERE user_id = ?', [forgetful.user.id])
+    expect(rows.map((r) => Number(r.age))).toEqual([0])
+  })
+
   it('keeps an active session going and notes when it was last used', async () => {
     const active = await signUp('active')
     await query('UPDATE sessions SET last_seen_at = NOW(3) - INTERVAL 1 DAY WHERE user_id = ?', [active.user.id])
