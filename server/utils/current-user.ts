@@ -38,7 +38,7 @@ export async function requireUser(event: H3Event): Promise<CurrentUser> {
     .from(tables.sessions)
     .innerJoin(tables.users, eq(tables.users.id, tables.sessions.userId))
     .where(eq(tables.sessions.tokenHash, hashToken(session.secure.token)))
-  if (!row || row.id !== session.user.id) return refuse(event, 'Your session has ended (signed out, or signed out everywhere); sign in again')
+  if (!row || row.id !== session.user.id) return refuse(event, 'Your session has ended (signed out, here or from another session); sign in again')
   const now = Date.now()
   const lifetimes = sessionLifetimes(event)
   const ended = sessionEndReason(row, now, lifetimes)

@@ -30,11 +30,17 @@ export const LOGIN_THROTTLE = {
   address: { freeFailures: 50, firstDelaySeconds: 60, maxDelaySeconds: 15 * 60, forgetAfterMinutes: 60 },
 } as const satisfies Record<string, FailureRule>
 
+/** Throttle counters untouched for this long are deleted (longer than any rule's window or forgetting time). */
+export const COUNTERS_KEPT_HOURS = 48
+
 /** Invitations sent in the last hour: by one person (over all labs), and into one lab (by all its owners). */
 export const INVITATIONS_PER_HOUR = { perUser: 20, perLab: 20 } as const
 
 /** Password reset mails to one account: at most `perWindow` in `windowMinutes`, so the form cannot flood a mailbox. */
 export const RESET_MAILS = { perWindow: 3, windowMinutes: 15 } as const
+
+/** Registrations asked from one client address in an hour (each may mail a stranger's address). */
+export const REGISTRATIONS_PER_ADDRESS_PER_HOUR = 10
 
 /** Mails a registration may cause to one address in an hour (confirmation links, "someone tried to register"). */
 export const REGISTRATION_MAILS_PER_HOUR = 3

@@ -5,7 +5,8 @@ import { describe, expect, it } from 'vitest'
 import { url } from '@nuxt/test-utils/e2e'
 import { useBuiltServer } from '../setup/server'
 import mysql from 'mysql2/promise'
-import { api, confirmationToken, freshEmail, sessionCookie, signIn, signUp } from '../setup/accounts'
+import { api, confirmationToken, freshClientAddress, freshEmail, sessionCookie, signIn, signUp } from '../setup/accounts'
+import { REGISTRATIONS_PER_ADDRESS_PER_HOUR } from '../../server/utils/limits'
 import { waitForMail } from '../setup/mail'
 import { TEST_DATABASE_URL } from '../setup/test-database'
 
@@ -60,6 +61,19 @@ describe('register', () => {
     const late = await api('/api/auth/register/confirm', { method: 'POST', body: { token } })
     expect(late.status).toBe(410)
     expect(late.body.message).toMatch(/expired .*register again/)
+  })
+
+  it('limits registrations from one client address in an hour, with a 429 saying when to try again', async () => {
+    const from = freshClientAddress()
+    const register = (address: string) => api('/api/auth/register', {
+      method: 'POST', body: { email: freshEmail('many'), name: 'Many', password: 'a long enough password' }, headers: { 'x-forwarded-for': address },
+    })
+    for (let i = 0; i < REGISTRATIONS_PER_ADDRESS_PER_HOUR; i++) expect((await register(from)).status).toBe(202)
+    const refused = await register(from)
+    expect(refused.status).toBe(429)
+    expect(refused.body.message).toMatch(/^Too many registrations from your network in the last hour \(at most 10\)\. Try again in \d+ minutes/)
+    expect(Number(refused.headers.get('retry-after'))).toBeGreaterThan(3500)
+    expect((await register(freshClientAddress())).status).toBe(202)
   })
 
   it('says what to change for a bad e-mail and a short password', async () => {

@@ -1,7 +1,7 @@
 // The pure parts of the account limits: sign-in delays, the client address
 // behind a trusted proxy, and session lifetimes.
 import { describe, expect, it } from 'vitest'
-import { failureDelaySeconds, failureWaitSeconds, LOGIN_THROTTLE, waitInWords } from '../../../server/utils/limits'
+import { COUNTERS_KEPT_HOURS, failureDelaySeconds, failureWaitSeconds, LOGIN_THROTTLE, waitInWords } from '../../../server/utils/limits'
 import { clientAddressFrom, trustedProxyList } from '../../../server/utils/client-address'
 import { sessionEndMessage, sessionEndReason, sessionLifetimesFrom } from '../../../server/utils/session-lifetime'
 
@@ -27,6 +27,10 @@ describe('sign-in delays', () => {
     expect(failureWaitSeconds(pair, many, t0 + 60_000)).toBe(pair.maxDelaySeconds - 60)
     expect(failureWaitSeconds(pair, many, t0 + pair.forgetAfterMinutes * MINUTE)).toBe(0)
     expect(failureWaitSeconds(pair, undefined, t0)).toBe(0)
+  })
+
+  it('keeps every counter at least as long as its rule remembers it', () => {
+    for (const rule of Object.values(LOGIN_THROTTLE)) expect(rule.forgetAfterMinutes).toBeLessThanOrEqual(COUNTERS_KEPT_HOURS * 60)
   })
 
   it('says the wait in words', () => {
