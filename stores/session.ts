@@ -13,7 +13,8 @@ export interface SessionUser {
 }
 
 export const useSessionStore = defineStore('session', {
-  state: () => ({ user: null as SessionUser | null, loaded: false }),
+  // endedMessage: why the browser's session ended (lifetime, signed out elsewhere), for the sign-in page.
+  state: () => ({ user: null as SessionUser | null, loaded: false, endedMessage: '' }),
   getters: {
     signedIn: (state) => state.user !== null,
   },
@@ -23,14 +24,18 @@ export const useSessionStore = defineStore('session', {
       try {
         const answer = await fetcher<{ user: SessionUser }>('/api/me')
         this.user = answer.user
-      } catch {
+      } catch (error) {
         this.user = null
+        const answer = error as { statusCode?: number, data?: { message?: string } }
+        const message = answer.data?.message ?? ''
+        this.endedMessage = answer.statusCode === 401 && message && !message.startsWith('Sign in to continue') ? message : ''
       }
       this.loaded = true
     },
     async login(input: LoginInput) {
       const answer = await $fetch<{ user: SessionUser }>('/api/auth/login', { method: 'POST', body: input })
       this.user = answer.user
+      this.endedMessage = ''
     },
     /** Confirms a registration with the token from its mail: the account is created and signed in. */
     async confirmRegistration(token: string) {
