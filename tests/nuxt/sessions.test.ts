@@ -2,12 +2,14 @@
 // against the built server and the real MariaDB. Client addresses are stood
 // for with X-Forwarded-For, which the test server believes from its loopback
 // proxy (NUXT_TRUSTED_PROXIES in global-server.ts).
-import { describe, expect, it } from 'vitest'
+import { resolve } from 'node:path'
+import { describe, expect, inject, it } from 'vitest'
 import mysql from 'mysql2/promise'
 import { useBuiltServer } from '../setup/server'
 import { api, freshEmail, signIn, signUp, type SignedIn } from '../setup/accounts'
 import { linkTo, waitForMail } from '../setup/mail'
 import { TEST_DATABASE_URL } from '../setup/test-database'
+import { startServerProcess } from '../setup/server-process'
 import { LOGIN_THROTTLE } from '../../server/utils/limits'
 import { DEFAULT_SESSION_LIFETIMES } from '../../server/utils/session-lifetime'
 
@@ -150,6 +152,24 @@ describe('sign-in throttling', () => {
     const longer = await login(owner.user.email, owner.password, attacker)
     expect(longer.status).toBe(429)
     expect(Number(longer.headers.get('retry-after'))).toBeGreaterThan(rule.firstDelaySeconds * 2 - 5)
+  })
+
+  it('holds in another server process on the same database (a restart, or a second instance)', async () => {
+    const owner = await signUp('instances')
+    const attacker = '203.0.113.99'
+    for (let i = 0; i <= rule.freeFailures; i++) expect((await login(owner.user.email, `guess ${i}`, attacker)).status).toBe(401)
+    const other = await startServerProcess(inject('serverEnv'), resolve(import.meta.dirname, '../..'))
+    try {
+      const loginThere = (from: string) => fetch(new URL('/api/auth/login', other.baseURL), {
+        method: 'POST',
+        headers: { 'content-type': 'application/json', 'x-forwarded-for': from },
+        body: JSON.stringify({ email: owner.user.email, password: owner.password }),
+      })
+      expect((await loginThere(attacker)).status).toBe(429)
+      expect((await loginThere('198.51.100.8')).status).toBe(200)
+    } finally {
+      await other.stop()
+    }
   })
 
   it('does not count a guesser against an unknown address differently from a known one', async () => {
