@@ -4,6 +4,7 @@
  */
 import type { Model } from '../../shared/poise/model'
 import type { Result, SweepResult } from '../../shared/types/result'
+import { dissolvedText } from '../../shared/results/names'
 
 const exp = (v: number) => (v === 0 ? '0' : v.toExponential(3))
 const fixed = (v: number, d: number) => v.toFixed(d)
@@ -38,8 +39,8 @@ export function formatResultTable(model: Model, r: Result): string {
     out.push('', align([['gas', 'atm', 'log10'], ...r.gases.map((g) => [g.name, exp(g.pressure), fixedOrNone(g.log10, 3)])]))
   }
   out.push('', align([
-    ['component', 'mode', 'total mol/L', 'free'],
-    ...r.components.map((c) => [c.name, c.mode, exp(c.total), exp(c.free)]),
+    ['component', 'mode', 'total mol/L', 'dissolved mol/L', 'free'],
+    ...r.components.map((c) => [c.name, c.mode, exp(c.total), c.dissolved === undefined ? '-' : `${exp(c.dissolved)} (${dissolvedText(c.name)})`, exp(c.free)]),
   ]))
   for (const w of r.warnings ?? []) out.push(`warning: ${w}`)
   return out.join('\n')

@@ -59,6 +59,12 @@ export interface ResultsDiff {
   ionicStrength: ScalarChange | null
   /** Largest effect first. */
   species: SpeciesChange[]
+  /**
+   * Components' dissolved totals (Σ ν·c over aqueous species, "dissolved Ni")
+   * that moved, largest effect first; `name` is the component. Absent in
+   * diffs of answers without dissolved totals.
+   */
+  dissolved: SpeciesChange[]
   solids: SolidChange[]
   /** Saturation indices that moved, largest first (also of solids that stay dissolved). */
   saturation: SaturationChange[]
@@ -90,6 +96,10 @@ export function incomparableReason(a: SolvedAnswer, b: SolvedAnswer): string | n
 function speciesAt(point: Result, name: string): number | null {
   const found = point.species.find(s => s.name === name)
   return found ? found.concentration : null
+}
+
+function dissolvedAt(point: Result, component: string): number | null {
+  return point.components.find(c => c.name === component)?.dissolved ?? null
 }
 
 function speciesChange(name: string, from: number | null, to: number | null, at: number | null): SpeciesChange {
@@ -158,6 +168,17 @@ export function diffResults(a: SolvedAnswer, b: SolvedAnswer): ResultsDiff {
   }
   species.sort((x, y) => y.size - x.size || x.name.localeCompare(y.name))
 
+  const componentNames = new Set<string>()
+  for (const p of withPoints) for (const c of [...p.from.components, ...p.to.components]) if (c.dissolved !== undefined) componentNames.add(c.name)
+  const dissolved: SpeciesChange[] = []
+  for (const name of componentNames) {
+    const along = withPoints.map(p => speciesChange(name, dissolvedAt(p.from, name), dissolvedAt(p.to, name), p.at))
+    const biggest = largest(along, c => c.size)
+    // Below a part in a million the move is noise of the solve, not of the model.
+    if (biggest && biggest.size > 4e-7) dissolved.push(biggest)
+  }
+  dissolved.sort((x, y) => y.size - x.size || x.name.localeCompare(y.name))
+
   const solidNames = new Set<string>()
   for (const p of withPoints) for (const s of [...p.from.solids, ...p.to.solids]) solidNames.add(s.name)
   const solids: SolidChange[] = []
@@ -208,6 +229,6 @@ export function diffResults(a: SolvedAnswer, b: SolvedAnswer): ResultsDiff {
   return {
     kind: comparable && isSweep(a) ? 'sweep' : 'single',
     sweep: comparable && isSweep(a) ? sweepLabel(a) : null,
-    pH, ionicStrength, species, solids, saturation, unconverged,
+    pH, ionicStrength, species, dissolved, solids, saturation, unconverged,
   }
 }

@@ -7,6 +7,7 @@
  */
 
 import type { Result, SweepResult } from '../types/result'
+import { dissolvedText } from './names'
 
 /** Quote a field when it holds a comma, a quote or a line break (RFC 4180 §2.6–2.7). */
 export function csvField(value: string): string {
@@ -92,17 +93,20 @@ function sweepVariableHeader(sweep: SweepResult): string {
 
 /**
  * A sweep as CSV, one row a point: the swept value, whether it converged,
- * pH, ionic strength, every species' concentration, then each solid's
- * amount and saturation index (where a metal drops out is often the point of
+ * pH, ionic strength, every species' concentration, each component's
+ * dissolved total ("dissolved Ni", Σ ν·c over the aqueous species), then
+ * each solid's amount and saturation index (where a metal drops out is often the point of
  * the sweep). A failed point keeps its row with empty numbers and the
  * reason, so row k is always point k.
  */
 export function sweepCsv(sweep: SweepResult): string {
   const names: string[] = []
   const solids: string[] = []
+  const components: string[] = []
   for (const point of sweep.points) {
     for (const s of point.species) if (!names.includes(s.name)) names.push(s.name)
     for (const s of point.solids) if (!solids.includes(s.name)) solids.push(s.name)
+    for (const c of point.components) if (c.dissolved !== undefined && !components.includes(c.name)) components.push(c.name)
   }
   const header = [
     sweepVariableHeader(sweep),
@@ -110,10 +114,11 @@ export function sweepCsv(sweep: SweepResult): string {
     'pH',
     'ionic strength (mol/L)',
     ...names.map((n) => `${n} (mol/L)`),
+    ...components.map((n) => `${dissolvedText(n)} (mol/L)`),
     ...solids.flatMap((n) => [`${n} amount (mol/L)`, `${n} saturation index`]),
     'reason',
   ]
-  const blanks = names.length + 2 * solids.length
+  const blanks = names.length + components.length + 2 * solids.length
   const rows = sweep.values.map((x, k) => {
     const point = sweep.points[k]
     if (!point || !point.converged) {
@@ -121,12 +126,14 @@ export function sweepCsv(sweep: SweepResult): string {
     }
     const byName = new Map(point.species.map((s) => [s.name, s.concentration]))
     const solidByName = new Map(point.solids.map((s) => [s.name, s]))
+    const dissolvedByName = new Map(point.components.map((c) => [c.name, c.dissolved]))
     return [
       csvNumber(x),
       'true',
       csvNumber(point.pH),
       csvNumber(point.ionicStrength),
       ...names.map((n) => csvNumber(byName.get(n))),
+      ...components.map((n) => csvNumber(dissolvedByName.get(n))),
       ...solids.flatMap((n) => [csvNumber(solidByName.get(n)?.amount), csvNumber(solidByName.get(n)?.saturationIndex)]),
       '',
     ]

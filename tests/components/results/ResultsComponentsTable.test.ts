@@ -7,12 +7,23 @@ import { copperAmmoniaResult } from '../../unit/results/fixtures'
 describe('ResultsComponentsTable', () => {
   it('says in words how each component was set, with total, dissolved and free', () => {
     const wrapper = mount(ResultsComponentsTable, { props: { components: copperAmmoniaResult().components } })
-    const rows = wrapper.findAll('[data-test="component-row"]').map((r) => r.findAll('td').map((td) => td.text()))
-    expect(rows.map((r) => r[0])).toEqual(['H⁺', 'Cu²⁺', 'NH₃'])
-    expect(rows[0][1]).toBe('pH held fixed')
-    expect(rows[1][1]).toBe('total given')
-    expect(rows[1][4]).toBe('1.00e-12')
+    const rows = wrapper.findAll('[data-test="component-row"]')
+    expect(rows.map((r) => r.get('[data-test="component-name"]').text())).toEqual(['H⁺', 'Cu²⁺', 'NH₃'])
+    const cells = rows.map((r) => r.findAll('td').map((td) => td.text()))
+    expect(cells[0][1]).toBe('pH held fixed')
+    expect(cells[1][1]).toBe('total given')
+    expect(cells[1][4]).toBe('1.00e-12')
     expect(wrapper.findAll('th').map((t) => t.text())).toContain('Dissolved (mol/L)')
+  })
+
+  it('names the dissolved total and the free ion apart', () => {
+    const result = copperAmmoniaResult()
+    const wrapper = mount(ResultsComponentsTable, { props: { components: result.components } })
+    const copper = wrapper.findAll('[data-test="component-row"]')[1]!
+    expect(copper.get('[data-test="component-names"]').text()).toBe('dissolved Cu · free Cu²⁺')
+    const dissolved = copper.get('[data-test="dissolved"]')
+    expect(dissolved.attributes('aria-label')).toBe(`dissolved Cu: ${dissolved.text()} mol/L`)
+    expect(dissolved.text()).not.toBe(copper.findAll('td')[4]!.text())
   })
 
   it('asks for a run when there is nothing to show', () => {

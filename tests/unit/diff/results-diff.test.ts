@@ -67,6 +67,12 @@ sweep pH from 4 to 9 step 1`
     expect(diff.kind).toBe('sweep')
     expect(diff.solids).toEqual([{ name: 'Cu(OH)2(s)', change: 'appears', at: supersaturated, ranges: [[supersaturated[0], supersaturated.at(-1)]] }])
     expect(diff.species.find(s => s.name === 'Cu^2+')!.factor).toBeLessThan(1)
+    // Dissolved Cu drops where the hydroxide takes it: the largest drop is at the last point, where the least stays dissolved.
+    const dissolvedCu = diff.dissolved.find(d => d.name === 'Cu^2+')!
+    expect(dissolvedCu.factor!).toBeLessThan(1e-2)
+    const last = after.points.at(-1)!.components.find(c => c.name === 'Cu^2+')!
+    expect(dissolvedCu.to).toBe(last.dissolved)
+    expect(dissolvedCu.at).toBe(9)
     // A pH sweep holds H+ at each value: the pH is the variable, not a result to compare.
     expect(diff.pH).toBeNull()
   })

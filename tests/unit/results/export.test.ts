@@ -73,6 +73,15 @@ describe('sweepCsv', () => {
     })
   })
 
+  it('has one column for each component\'s dissolved total, named apart from the free ion', () => {
+    const column = rows[0].indexOf('dissolved CO3 (mol/L)')
+    expect(column).toBeGreaterThan(rows[0].indexOf('CO3^2- (mol/L)'))
+    sweep.points.forEach((p, k) => {
+      if (!p.converged) return
+      expect(Number(rows[k + 1][column])).toBe(p.components.find((c) => c.name === 'CO3^2-')!.dissolved)
+    })
+  })
+
   it('keeps a failed point as a row with empty numbers and the reason', () => {
     const k = sweep.values.indexOf(9)
     const row = rows[k + 1]

@@ -1,0 +1,28 @@
+/**
+ * The names that keep a component's free ion apart from its dissolved total
+ * everywhere results are shown: "free Ni²⁺" is the concentration of the ion
+ * Ni²⁺ itself; "dissolved Ni" is Σ ν·c over every aqueous species holding
+ * Ni (the component's `dissolved` in the Result). Never the same label for
+ * both.
+ */
+import { typesetFormula } from './typeset'
+
+/** The formula of a component without its charge and phase: `Ni^2+` → `Ni`, `SO4^2-` → `SO4`, `H+` → `H`. */
+export function componentCore(name: string): string {
+  return name.trim().replace(/\((?:s|g|aq|l)\)$/, '').replace(/\^\d*[+-]$/, '').replace(/(?<=[A-Za-z0-9)\]])[+-]$/, '')
+}
+
+/** "free Ni²⁺": the component's free form. */
+export function freeLabel(component: string): string {
+  return `free ${typesetFormula(component)}`
+}
+
+/** "dissolved Ni": the component's dissolved total, by its formula without charge. */
+export function dissolvedLabel(component: string): string {
+  return `dissolved ${typesetFormula(componentCore(component))}`
+}
+
+/** The same label in plain caret text, for CSV headers and the command line: "dissolved SO4". */
+export function dissolvedText(component: string): string {
+  return `dissolved ${componentCore(component)}`
+}
