@@ -13,7 +13,7 @@ import { MIN_NONZERO_TOTAL, MODE_BALANCE, MODE_TOTAL, buildProblem, setComponent
 import { buildResult } from './report'
 
 /** Stored with every run, so a result can be traced to the solver that made it. */
-export const SOLVER_VERSION = '1.0.0'
+export const SOLVER_VERSION = '1.1.0'
 
 /** Hard ceilings the server may rely on whatever a caller asks for. */
 export const SOLVER_LIMITS = { maxIterations: 2000, timeBudgetMs: 60_000 } as const

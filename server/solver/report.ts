@@ -38,6 +38,8 @@ export function buildResult(ws: Workspace, state: SolverState, info: ReportInput
     maxScaled = Math.max(maxScaled, v)
   }
   const species: SpeciesResult[] = new Array(p.nsp)
+  let anyAbsent = false
+  for (let j = 0; j < p.nc; j++) if (p.mode[j] === MODE_ABSENT) anyAbsent = true
   let ionic = 0
   // Dissolved amount of each component, summed over the nonzero stoichiometry only.
   const dissolvedOf = new Float64Array(p.nc)
@@ -47,28 +49,25 @@ export function buildResult(ws: Workspace, state: SolverState, info: ReportInput
     for (let e = p.nzStart[i]; e < p.nzStart[i + 1]; e++) dissolvedOf[p.nzComponent[e]] += p.nzNu[e] * c
     const gamma = Math.exp(ws.g[i] * Math.LN10)
     ionic += 0.5 * p.z2[i] * c
-    const absent = absentIn(p, p.nu, i)
+    const absent = anyAbsent ? absentIn(p, p.nu, i) : null
     const log10 = absent === null ? logOrNull(ws.lc[i]) : null
-    species[i] = {
+    const entry: SpeciesResult = {
       name: s.name, charge: s.charge,
       concentration: absent === null ? safe(c) : 0, log10,
       activity: absent === null ? safe(c * gamma) : 0, gamma: safe(gamma, 1),
-      ...(log10 === null ? { none: absent ?? 'the concentration is below what a number can hold' } : {}),
     }
+    if (log10 === null) entry.none = absent ?? 'the concentration is not a finite number'
+    species[i] = entry
   }
   const ionicStrength = p.fixedRootI >= 0 ? p.fixedRootI * p.fixedRootI : ionic
   const solids: SolidResult[] = m.solids.map((s, k) => {
     const amount = state.active[k] === 1 ? safe(state.n[k]) : 0
-    const absent = absentIn(p, p.solidNu, k)
+    const absent = anyAbsent ? absentIn(p, p.solidNu, k) : null
     const si = absent === null ? logOrNull(saturationIndex(p, state.x, k)) : null
-    return {
-      name: s.name,
-      present: state.active[k] === 1,
-      amount, precipitated: amount,
-      saturationIndex: si,
-      ...(s.suppressed ? { suppressed: true } : {}),
-      ...(si === null ? { none: absent ?? 'the saturation index is beyond what a number can hold' } : {}),
-    }
+    const entry: SolidResult = { name: s.name, present: state.active[k] === 1, amount, precipitated: amount, saturationIndex: si }
+    if (s.suppressed) entry.suppressed = true
+    if (si === null) entry.none = absent ?? 'the saturation index is not a finite number'
+    return entry
   })
   const components: ComponentResult[] = m.components.map((comp, j) => {
     const dissolved = dissolvedOf[j]
@@ -79,11 +78,10 @@ export function buildResult(ws: Workspace, state: SolverState, info: ReportInput
     const activity = p.mode[j] === MODE_ABSENT ? 0 : Math.exp(state.x[j] * Math.LN10)
     const concentration = own >= 0 ? species[own].concentration : null
     const free = concentration !== null && p.mode[j] !== MODE_FIXED_ACTIVITY ? concentration : activity
-    return {
-      name: comp.name, mode: comp.mode, total: safe(dissolved + inSolids), free: safe(free), dissolved: safe(dissolved),
-      ...(concentration !== null ? { freeConcentration: concentration } : {}),
-      freeActivity: safe(activity),
-    }
+    const entry: ComponentResult = { name: comp.name, mode: comp.mode, total: safe(dissolved + inSolids), free: safe(free), dissolved: safe(dissolved) }
+    if (concentration !== null) entry.freeConcentration = concentration
+    entry.freeActivity = safe(activity)
+    return entry
   })
   m.components.forEach((comp, j) => {
     if (comp.mode === 'excess' && p.mode[j] === MODE_FIXED_ACTIVITY && !solids.some((s) => s.name === comp.name)) {
@@ -94,12 +92,11 @@ export function buildResult(ws: Workspace, state: SolverState, info: ReportInput
   const gases: GasResult[] = m.gases.map((g, k) => {
     let l = p.gasLogK[k]
     for (let j = 0; j < p.nc; j++) l += p.gasNu[k * p.nc + j] * state.x[j]
-    const absent = absentIn(p, p.gasNu, k)
+    const absent = anyAbsent ? absentIn(p, p.gasNu, k) : null
     const log10 = absent === null ? logOrNull(l) : null
-    return {
-      name: g.name, pressure: log10 === null ? 0 : safe(Math.exp(l * Math.LN10)), log10,
-      ...(log10 === null ? { none: absent ?? 'the pressure is below what a number can hold' } : {}),
-    }
+    const entry: GasResult = { name: g.name, pressure: log10 === null ? 0 : safe(Math.exp(l * Math.LN10)), log10 }
+    if (log10 === null) entry.none = absent ?? 'the pressure is not a finite number'
+    return entry
   })
   const warnings = [...info.notes, ...rangeWarnings(ws, ionicStrength)]
   const hasH = p.hIndex >= 0
