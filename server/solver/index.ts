@@ -9,6 +9,7 @@ import { presolve } from './presolve'
 import { Workspace, type Limits, type SolverState } from './workspace'
 import { canPrecipitate, saturationIndex, solveWithPhases, SUPERSATURATION_TOLERANCE } from './phases'
 import { RESIDUAL_TOLERANCE } from './newton'
+import { computeSpecies } from './equations'
 import { MIN_NONZERO_TOTAL, MODE_BALANCE, MODE_TOTAL, buildProblem, setComponent, setTemperature, type Problem } from './problem'
 import { buildResult } from './report'
 
@@ -23,8 +24,9 @@ export interface SolveOptions {
    * Newton iterations allowed for one set of solids (default 300); one
    * attempt may spend PHASE_BUDGET_FACTOR times this over all the sets it
    * tries. A solve makes at most MAX_ATTEMPTS attempts (two warm starts at a
-   * sweep point, three cold guesses of pH, up to sixteen stages of activity
-   * continuation), so it never runs more than MAX_ATTEMPTS ×
+   * sweep point, five cold guesses of pH, up to sixteen stages of activity
+   * continuation, and when H+ is under a balance up to 33 solves that
+   * bracket its pH), so it never runs more than MAX_ATTEMPTS ×
    * PHASE_BUDGET_FACTOR × this many iterations. This budget, not the clock, decides answers: the
    * same model gives the same answer on a busy or an idle server.
    */
@@ -125,6 +127,7 @@ function adviceFor(equation: string): string {
     return `Check the constant of ${name}; if it should not form here, mark it suppressed, or suppress a competing solid whose constant is close to it.`
   }
   if (equation === 'the ionic strength') return 'Fix the ionic strength, or use ideal activities, if the solution is beyond the range of the activity model.'
+  if (equation === '') return 'Suppress the solids that cannot form here, or check the constants of those that compete for the same components.'
   return 'Check the totals and constants of the model.'
 }
 
@@ -155,8 +158,11 @@ function attempt(ws: Workspace, state: SolverState, limits: Limits, iterationsBe
 const ACTIVITY_HOMOTOPY = [0, 0.25, 0.5, 0.75, 0.9, 1]
 /** Most stages (planned and halfway retries) one walk in A may take. */
 const HOMOTOPY_STAGES_MAX = 16
+/** pH values held first when bracketing H+'s own equation, and the bisections after. */
+const BRACKET_PH = [0, 2, 4, 6, 8, 10, 12, 14]
+const BRACKET_BISECTIONS = 24
 /** Most attempts one solve makes (see SolveOptions.maxIterations). */
-export const MAX_ATTEMPTS = 2 + PROTON_GUESSES.length + HOMOTOPY_STAGES_MAX
+export const MAX_ATTEMPTS = 2 + PROTON_GUESSES.length + HOMOTOPY_STAGES_MAX + BRACKET_PH.length + BRACKET_BISECTIONS + 1
 
 /**
  * Solves from each `warm` start in turn, then from cold guesses, then (with an activity
@@ -215,7 +221,91 @@ function solveProblem(ws: Workspace, state: SolverState, limits: Limits, warm: S
       p.A = fullA
     }
   }
+  if (last && !last.ok && !limitsPassed(limits)) {
+    const bracketed = bracketProton(ws, state, limits, spent)
+    if (bracketed) {
+      if (bracketed.ok) return bracketed
+      spent = bracketed.result.iterations
+    }
+  }
   return last ?? attempt(ws, state, limits, spent)
+}
+
+const limitsPassed = (limits: Limits) => performance.now() > limits.deadline
+
+
+/**
+ * Last resort when H+ is under a balance (charge or total) and every other
+ * start failed: holds the pH at a few values, solves each (H+ held is much
+ * easier), finds where H+'s own equation changes sign — it moves one way
+ * with pH when the other totals are held — bisects there, and starts the
+ * full solve from the state found. Counted work (each held solve has the
+ * usual budget), so deterministic. Null when it does not apply or finds no
+ * sign change.
+ */
+function bracketProton(ws: Workspace, state: SolverState, limits: Limits, spentBefore: number): Attempt | null {
+  const p = ws.p
+  const j = p.hIndex
+  if (j < 0 || (p.mode[j] !== MODE_BALANCE && p.mode[j] !== MODE_TOTAL)) return null
+  const saved = { mode: p.mode[j], total: p.total[j], fixed: p.fixedLog[j] }
+  let spent = spentBefore
+  const held = newState(p)
+  const best = newState(p)
+  let found = false
+  let bestPH = 7
+  /** H+'s own equation at pH held, from the state in `held`; null when the held solve fails. */
+  const residualAt = (pH: number, warm: boolean): number | null => {
+    setComponent(p, j, 'pH', pH)
+    if (!warm) coldStart(ws, held, -pH)
+    const out = solveWithPhases(ws, held, limits)
+    spent += out.iterations
+    if (!out.ok) return null
+    computeSpecies(ws, held)
+    let sum = 0
+    if (saved.mode === MODE_BALANCE) {
+      for (let i = 0; i < p.nsp; i++) sum += p.charge[i] * ws.c[i]
+    } else {
+      for (let i = 0; i < p.nsp; i++) sum += p.nu[i * p.nc + j] * ws.c[i]
+      for (let s = 0; s < p.nsol; s++) if (held.active[s]) sum += p.solidNu[s * p.nc + j] * held.n[s]
+      sum -= saved.total
+    }
+    return Number.isFinite(sum) ? sum : null
+  }
+  try {
+    let lo = -1
+    let fLo = 0
+    let hi = -1
+    for (const pH of BRACKET_PH) {
+      if (limitsPassed(limits)) return null
+      const f = residualAt(pH, false)
+      if (f === null) continue
+      if (lo >= 0 && Math.sign(f) !== Math.sign(fLo)) { hi = pH; break }
+      lo = pH; fLo = f; bestPH = pH
+      copyState(best, held)
+    }
+    if (lo < 0 || hi < 0) return null
+    // Bisect from the low end's state (warm starts: each step is small).
+    let a = lo
+    let b = hi
+    for (let k = 0; k < BRACKET_BISECTIONS && !limitsPassed(limits); k++) {
+      const mid = (a + b) / 2
+      copyState(held, best)
+      const f = residualAt(mid, true)
+      if (f === null) break
+      if (Math.sign(f) === Math.sign(fLo)) { a = mid; bestPH = mid; copyState(best, held) } else b = mid
+    }
+    found = true
+  } finally {
+    p.mode[j] = saved.mode; p.total[j] = saved.total; p.fixedLog[j] = saved.fixed
+  }
+  if (!found) return null
+  // From the held state: H+'s free concentration where its activity was
+  // held (γ depends on √I only, so computeSpecies gives it whatever y is).
+  copyState(state, best)
+  const own = p.componentSpecies[j]
+  computeSpecies(ws, state)
+  state.y[j] = -bestPH - (own >= 0 ? ws.g[own] : 0)
+  return attempt(ws, state, limits, spent)
 }
 
 /** A Result for a model that could not be set up at all. */

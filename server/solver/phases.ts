@@ -143,7 +143,7 @@ export function solveWithPhases(ws: Workspace, state: SolverState, limits: Limit
     if (add < 0) {
       const stuck = blockedSupersaturated(p, state, blocked)
       if (stuck) {
-        return { ok: false, iterations, maxScaled: out.maxScaled, worstRow: out.worstRow, notes, reason: stuck }
+        return { ok: false, iterations, maxScaled: out.maxScaled, worstRow: out.worstRow, notes, ...stuck }
       }
       addFixedSupersaturationNotes(p, state, notes)
       return { ok: true, iterations, maxScaled: out.maxScaled, worstRow: out.worstRow, notes }
@@ -153,6 +153,7 @@ export function solveWithPhases(ws: Workspace, state: SolverState, limits: Limit
     if (present >= maxSolids) {
       return {
         ok: false, iterations, maxScaled: out.maxScaled, worstRow: out.worstRow, notes,
+        equation: `the saturation of ${p.model.solids[add].name}`,
         reason: `${p.model.solids[add].name} is supersaturated (SI ${best.toFixed(3)}) but ${present} solids are already present with only ${maxSolids} components under a mass balance (phase rule)`,
       }
     }
@@ -225,13 +226,17 @@ function swapOut(p: Problem, state: SolverState, added: number, seen: Set<string
   return false
 }
 
-/** A reason when a solid that had to be left out is still supersaturated at the end. */
-function blockedSupersaturated(p: Problem, state: SolverState, blocked: Uint8Array): string | null {
+/** The equation and reason when a solid that had to be left out is still supersaturated at the end. */
+function blockedSupersaturated(p: Problem, state: SolverState, blocked: Uint8Array): { equation: string; reason: string } | null {
   for (let s = 0; s < p.nsol; s++) {
     if (!blocked[s]) continue
     const si = saturationIndex(p, state.x, s)
     if (si > SUPERSATURATION_TOLERANCE) {
-      return `${p.model.solids[s].name} stays supersaturated (SI ${si.toExponential(2)}) but no set of solids including it could be solved (its saturation equation depends on those of the others)`
+      const name = p.model.solids[s].name
+      return {
+        equation: `the saturation of ${name}`,
+        reason: `${name} stays supersaturated (SI ${si.toExponential(2)}) but no set of solids including it could be solved (its saturation equation depends on those of the others)`,
+      }
     }
   }
   return null
@@ -247,6 +252,7 @@ function remember(seen: Set<string>, active: Uint8Array): boolean {
 function cycling(p: Problem, solid: number, move: 'joins' | 'leaves', iterations: number, out: { maxScaled: number; worstRow: number }, notes: string[]): PhaseOutcome {
   return {
     ok: false, iterations, maxScaled: out.maxScaled, worstRow: out.worstRow, notes,
+    equation: `the saturation of ${p.model.solids[solid].name}`,
     reason: `the set of solids present cycles: ${p.model.solids[solid].name} ${move} a set of solids tried before; their constants may be too close to tell which is stable`,
   }
 }
