@@ -176,7 +176,7 @@ export type ReviewComment = typeof reviewComments.$inferSelect
 /**
  * An owner's invitation of an e-mail address into a lab with a role. Only the
  * sha256 of the link's token is kept, so a database reader cannot use it; the
- * link works once (acceptedAt) and until expiresAt.
+ * link works once (acceptedAt), until expiresAt, and not after withdrawal.
  */
 export const invitations = mysqlTable('invitations', {
   id: int('id').autoincrement().primaryKey(),
@@ -188,6 +188,8 @@ export const invitations = mysqlTable('invitations', {
   expiresAt: datetime('expires_at', { mode: 'date', fsp: 3 }).notNull(),
   acceptedAt: datetime('accepted_at', { mode: 'date', fsp: 3 }),
   acceptedBy: int('accepted_by').references(() => users.id, { onDelete: 'set null' }),
+  /** When an owner withdrew it: the link stops working, and the row stays so it still counts against the hourly limit. */
+  withdrawnAt: datetime('withdrawn_at', { mode: 'date', fsp: 3 }),
   createdAt,
 }, (t) => [
   uniqueIndex('invitations_token_unique').on(t.tokenHash),

@@ -32,7 +32,7 @@ export async function findOpenInvitation(token: string): Promise<OpenInvitation>
     .from(tables.invitations)
     .innerJoin(tables.labs, eq(tables.labs.id, tables.invitations.labId))
     .leftJoin(tables.users, eq(tables.users.id, tables.invitations.invitedBy))
-    .where(eq(tables.invitations.tokenHash, hashToken(token)))
+    .where(and(eq(tables.invitations.tokenHash, hashToken(token)), isNull(tables.invitations.withdrawnAt)))
   if (!row) throw createError({ statusCode: 404, message: 'This invitation link is not valid; check that you opened the whole link from the mail' })
   const askAgain = `ask ${row.inviterName ?? 'an owner of the lab'} to invite you again`
   if (row.invitation.acceptedAt) {
@@ -53,7 +53,7 @@ export async function acceptInvitation(open: OpenInvitation, userId: number): Pr
   return useDb().transaction(async (tx) => {
     const [result] = await tx.update(tables.invitations)
       .set({ acceptedAt: new Date(), acceptedBy: userId })
-      .where(and(eq(tables.invitations.id, open.invitation.id), isNull(tables.invitations.acceptedAt), gt(tables.invitations.expiresAt, new Date())))
+      .where(and(eq(tables.invitations.id, open.invitation.id), isNull(tables.invitations.acceptedAt), isNull(tables.invitations.withdrawnAt), gt(tables.invitations.expiresAt, new Date())))
     if (result.affectedRows !== 1) {
       throw createError({ statusCode: 410, message: `This invitation to ${open.lab.name} was already used; an invitation link works once` })
     }

@@ -1,5 +1,5 @@
 /** DELETE /api/labs/:lab/invitations/:id — an owner withdraws an invitation; its link stops working. */
-import { and, eq } from 'drizzle-orm'
+import { and, eq, isNull } from 'drizzle-orm'
 import { z } from 'zod'
 import { SlugSchema } from '#shared/utils/lab-schemas'
 
@@ -11,8 +11,9 @@ const Params = z.object({
 export default defineEventHandler(async (event) => {
   const params = validateParams(event, Params)
   const { lab, user } = await requireLabRole(event, params.lab, 'owner')
-  const [result] = await useDb().delete(tables.invitations)
-    .where(and(eq(tables.invitations.id, params.id), eq(tables.invitations.labId, lab.id)))
+  // Marked, not deleted: a withdrawn invitation still counts against the hourly limit (limits.ts).
+  const [result] = await useDb().update(tables.invitations).set({ withdrawnAt: new Date() })
+    .where(and(eq(tables.invitations.id, params.id), eq(tables.invitations.labId, lab.id), isNull(tables.invitations.withdrawnAt)))
   if (result.affectedRows !== 1) throw createError({ statusCode: 404, message: 'No such invitation in this lab' })
   await recordAudit({ actorId: user.id, labId: lab.id, action: 'invitation.withdraw', detail: { invitationId: params.id } })
   return { withdrawn: true }

@@ -1,12 +1,12 @@
 /** GET /api/labs/:lab/invitations — the lab's invitations, newest first (owners). */
-import { desc, eq } from 'drizzle-orm'
+import { and, desc, eq, isNull } from 'drizzle-orm'
 import { LabParams } from '#shared/utils/lab-schemas'
 
 export default defineEventHandler(async (event) => {
   const params = validateParams(event, LabParams)
   const { lab } = await requireLabRole(event, params.lab, 'owner')
   const rows = await useDb().select().from(tables.invitations)
-    .where(eq(tables.invitations.labId, lab.id))
+    .where(and(eq(tables.invitations.labId, lab.id), isNull(tables.invitations.withdrawnAt)))
     .orderBy(desc(tables.invitations.id))
     .limit(200)
   return { invitations: rows.map(invitationView) }

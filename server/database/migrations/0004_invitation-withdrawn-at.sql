@@ -1,0 +1,1 @@
+ALTER TABLE `invitations` ADD `withdrawn_at` datetime(3);
