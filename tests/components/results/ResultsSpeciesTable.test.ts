@@ -98,4 +98,14 @@ describe('ResultsSpeciesTable', () => {
     expect(wrapper.findAll('[data-test="species-row"]')).toHaveLength(0)
     expect(wrapper.find('[data-test="species-empty"]').text()).toMatch(/did not converge/)
   })
+
+  it('shows "none" with the reason where a species has no log10 (a component of total 0)', () => {
+    const absent = { ...result, species: result.species.map((s) => (s.name === 'Cu^2+' ? { ...s, concentration: 0, activity: 0, log10: null, none: 'none: the total of Cu^2+ is 0' } : s)) }
+    const wrapper = mountTable({ result: absent, model })
+    const row = wrapper.findAll('[data-test="species-row"]').find((r) => r.find('td').text() === 'Cu²⁺')!
+    const headers = wrapper.findAll('th').map((th) => th.text())
+    const cell = row.findAll('td')[headers.findIndex((h) => h.startsWith('log₁₀ c'))]!
+    expect(cell.text()).toBe('none')
+    expect(cell.attributes('title')).toBe('none: the total of Cu^2+ is 0')
+  })
 })

@@ -41,4 +41,21 @@ describe('ResultsSolidsTable', () => {
     expect(rows[0]).toEqual(['Cu(OH)₂(s)', '0.00', 'present', '1.40e-3'])
     expect(rows[1]).toEqual(['CuO(s)', '0.80', 'supersaturated, suppressed', '0'])
   })
+
+  it('shows "none" with the reason for a solid without a saturation index, and the amount precipitated', () => {
+    const wrapper = mount(ResultsSolidsTable, {
+      props: {
+        solids: [
+          { name: 'Zn(OH)2(s)', present: false, amount: 0, precipitated: 0, saturationIndex: null, none: 'none: the total of Zn^2+ is 0' },
+          { name: 'Cu(OH)2(s)', present: true, amount: 2e-3, precipitated: 2e-3, saturationIndex: 0 },
+        ],
+      },
+    })
+    const rows = wrapper.findAll('[data-test="solid-row"]')
+    const cells = rows[0]!.findAll('td')
+    expect(cells.map((td) => td.text())).toEqual(['Zn(OH)₂(s)', 'none', 'absent', '0'])
+    expect(cells[1]!.attributes('title')).toBe('none: the total of Zn^2+ is 0')
+    expect(rows[1]!.findAll('td')[3]!.text()).toBe('2.00e-3')
+    expect(wrapper.text()).not.toMatch(/-38\d|-399|NaN|Infinity/)
+  })
 })

@@ -53,6 +53,19 @@ describe('resultCsv', () => {
     expect(back.find((r) => r[2] === 'converged')![3]).toBe('false')
     expect(back.find((r) => r[2] === 'reason')![3]).toBe(failed.reason)
   })
+
+  it('writes a value that does not exist as an empty cell with a row saying why, never a stand-in number', () => {
+    const absent = {
+      ...result,
+      species: result.species.map((s) => (s.name === 'Cu^2+' ? { ...s, concentration: 0, activity: 0, log10: null, none: 'none: the total of Cu^2+ is 0' } : s)),
+      solids: [{ name: 'Cu(OH)2(s)', present: false, amount: 0, precipitated: 0, saturationIndex: null, none: 'none: the total of Cu^2+ is 0' }],
+    }
+    const back = parseCsv(resultCsv(absent))
+    expect(back.find((r) => r[1] === 'Cu^2+' && r[2] === 'log10 concentration')![3]).toBe('')
+    expect(back.find((r) => r[1] === 'Cu^2+' && r[2] === 'none')![3]).toBe('none: the total of Cu^2+ is 0')
+    expect(back.find((r) => r[1] === 'Cu(OH)2(s)' && r[2] === 'saturation index')![3]).toBe('')
+    expect(back.find((r) => r[1] === 'Cu(OH)2(s)' && r[2] === 'precipitated')![3]).toBe('0')
+  })
 })
 
 describe('sweepCsv', () => {
