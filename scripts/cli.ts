@@ -7,7 +7,7 @@ import { pathToFileURL } from 'node:url'
 import { resolve, dirname } from 'node:path'
 import { compile } from '../shared/poise/index'
 
-const USAGE = 'usage: npm run -s cli -- check FILE.poise [--json]\n       npm run -s cli -- solve FILE.poise [--json]'
+const USAGE = 'usage: npm run -s cli -- check FILE.poise [--json]\n       npm run -s cli -- solve FILE.poise [--json] [--units UNIT] [--as-element]'
 
 function check(args: string[]): number {
   const json = args.includes('--json')

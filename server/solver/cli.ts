@@ -1,5 +1,9 @@
 /**
- * `npm run -s cli -- solve FILE.poise [--json]`, called by scripts/cli.ts.
+ * `npm run -s cli -- solve FILE.poise [--json] [--units UNIT] [--as-element]`,
+ * called by scripts/cli.ts. `--units` (mol/L, mmol/L, µmol/L or umol/L,
+ * mg/L, µg/L or ug/L) sets the unit of the tables; `--as-element` counts
+ * components in a mass unit as their element (Ni as Ni, NH3 as N). The JSON
+ * is the Result as the solver wrote it, always in mol/L.
  * Exit codes: 0 solved, 1 a solve (or a sweep point) did not converge,
  * 2 the file could not be read or compiled (diagnostics on stderr).
  */
@@ -8,12 +12,26 @@ import { compile } from '../../shared/poise/index'
 import type { Result, SweepResult } from '../../shared/types/result'
 import { solve, sweep } from './index'
 import { formatResultTable, formatSweepTable } from './table'
+import { OUTPUT_UNITS, parseOutputUnit, unitScale } from '../../shared/results/units'
 
-const USAGE = 'usage: npm run -s cli -- solve FILE.poise [--json]'
+const USAGE = 'usage: npm run -s cli -- solve FILE.poise [--json] [--units UNIT] [--as-element]'
 
 export async function runSolveCommand(args: string[]): Promise<number> {
   const json = args.includes('--json')
-  const files = args.filter((a) => a !== '--json')
+  const asElement = args.includes('--as-element')
+  const rest = args.filter((a) => a !== '--json' && a !== '--as-element')
+  const at = rest.indexOf('--units')
+  let unitText: string | null = null
+  if (at >= 0) {
+    unitText = rest[at + 1] ?? ''
+    rest.splice(at, 2)
+  }
+  const unit = unitText === null ? 'mol/L' : parseOutputUnit(unitText)
+  if (unit === null) {
+    console.error(`--units takes one of ${OUTPUT_UNITS.join(', ')}${unitText ? `, not ${unitText}` : ''}.\n${USAGE}`)
+    return 2
+  }
+  const files = rest
   if (files.length !== 1) {
     console.error(`solve takes exactly one file.\n${USAGE}`)
     return 2
@@ -31,10 +49,10 @@ export async function runSolveCommand(args: string[]): Promise<number> {
   if (!model || compiled.diagnostics.some((d) => d.severity === 'error')) return 2
   if (model.sweep) {
     const out: SweepResult = sweep(model)
-    console.log(json ? JSON.stringify(out, null, 2) : formatSweepTable(model, out))
+    console.log(json ? JSON.stringify(out, null, 2) : formatSweepTable(model, out, unitScale(model, { unit, asElement })))
     return out.points.every((p) => p.converged) ? 0 : 1
   }
   const result: Result = solve(model)
-  console.log(json ? JSON.stringify(result, null, 2) : formatResultTable(model, result))
+  console.log(json ? JSON.stringify(result, null, 2) : formatResultTable(model, result, unitScale(model, { unit, asElement })))
   return result.converged ? 0 : 1
 }

@@ -5,6 +5,7 @@
 import type { Model } from '../../shared/poise/model'
 import type { Result, SweepResult } from '../../shared/types/result'
 import { dissolvedText } from '../../shared/results/names'
+import { MOLAR_SCALE, type UnitScale } from '../../shared/results/units'
 
 const exp = (v: number) => (v === 0 ? '0' : v.toExponential(3))
 const fixed = (v: number, d: number) => v.toFixed(d)
@@ -19,15 +20,18 @@ function align(rows: string[][]): string {
     .join('\n')
 }
 
-export function formatResultTable(model: Model, r: Result): string {
+/** A value in mol/L times a unit's factor; `-` when a mass unit has no molar mass for it. */
+const scaledExp = (v: number, factor: number | null) => (factor === null ? '-' : exp(v * factor))
+
+export function formatResultTable(model: Model, r: Result, scale: UnitScale = MOLAR_SCALE): string {
   const out: string[] = [model.title, '']
   if (!r.converged) out.push(`NOT CONVERGED: ${r.reason ?? 'no reason given'}`, '')
   out.push(`pH ${fixed(r.pH, 3)}   ionic strength ${exp(r.ionicStrength)} mol/L   ${r.temperatureC} °C   ` +
     `${r.iterations} iterations, max scaled residual ${exp(r.residuals.maxScaled)}`, '')
   const species = [...r.species].sort((a, b) => b.concentration - a.concentration)
   out.push(align([
-    ['species', 'mol/L', 'log10', 'activity', 'gamma'],
-    ...species.map((s) => [s.name, exp(s.concentration), fixedOrNone(s.log10, 3), exp(s.activity), fixed(s.gamma, 4)]),
+    ['species', scale.unit, 'log10 mol/L', 'activity', 'gamma'],
+    ...species.map((s) => [s.name, scaledExp(s.concentration, scale.species(s.name)), fixedOrNone(s.log10, 3), scaledExp(s.activity, scale.species(s.name)), fixed(s.gamma, 4)]),
   ]))
   if (r.solids.length > 0) {
     out.push('', align([
@@ -39,20 +43,34 @@ export function formatResultTable(model: Model, r: Result): string {
     out.push('', align([['gas', 'atm', 'log10'], ...r.gases.map((g) => [g.name, exp(g.pressure), fixedOrNone(g.log10, 3)])]))
   }
   out.push('', align([
-    ['component', 'mode', 'total mol/L', 'dissolved mol/L', 'free'],
-    ...r.components.map((c) => [c.name, c.mode, exp(c.total), c.dissolved === undefined ? '-' : `${exp(c.dissolved)} (${dissolvedText(c.name)})`, exp(c.free)]),
+    ['component', 'mode', 'unit', 'total', 'dissolved', 'free'],
+    ...r.components.map((c) => {
+      const factor = scale.component(c.name)
+      const fixedFree = c.mode === 'pressure' || c.mode === 'excess'
+      return [
+        c.name, c.mode, scale.componentUnit(c.name), scaledExp(c.total, factor),
+        c.dissolved === undefined ? '-' : `${scaledExp(c.dissolved, factor)} (${dissolvedText(c.name)})`,
+        fixedFree ? `${exp(c.free)}${c.mode === 'pressure' ? ' atm' : ''}` : scaledExp(c.free, factor),
+      ]
+    }),
   ]))
   for (const w of r.warnings ?? []) out.push(`warning: ${w}`)
   return out.join('\n')
 }
 
-export function formatSweepTable(model: Model, s: SweepResult): string {
+export function formatSweepTable(model: Model, s: SweepResult, scale: UnitScale = MOLAR_SCALE): string {
   const label = s.variable === 'total' || s.variable === 'pressure' ? `${s.variable} ${s.component}` : s.variable
   const solidNames = model.solids.map((x) => x.name)
-  const rows = [[label, 'pH', 'I mol/L', 'solids present', 'status']]
+  // The dissolved total of every component given by its total: what a sweep is usually read for.
+  const totals = model.components.filter((c) => c.mode === 'total' && c.name !== 'H+').map((c) => c.name)
+  const rows = [[label, 'pH', 'I mol/L', ...totals.map((n) => `${dissolvedText(n)} ${scale.componentUnit(n)}`), 'solids present', 'status']]
   s.points.forEach((p, k) => {
     const present = p.solids.filter((x) => x.present && solidNames.includes(x.name)).map((x) => x.name).join(' ') || '-'
-    rows.push([String(s.values[k]), fixed(p.pH, 3), exp(p.ionicStrength), present, p.converged ? 'ok' : `failed: ${p.reason ?? ''}`])
+    const dissolved = totals.map((n) => {
+      const d = p.converged ? p.components.find((c) => c.name === n)?.dissolved : undefined
+      return d === undefined ? '-' : scaledExp(d, scale.component(n))
+    })
+    rows.push([String(s.values[k]), fixed(p.pH, 3), exp(p.ionicStrength), ...dissolved, present, p.converged ? 'ok' : `failed: ${p.reason ?? ''}`])
   })
   return [model.title, '', align(rows)].join('\n')
 }

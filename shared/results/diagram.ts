@@ -12,6 +12,8 @@
 import type { Result, SweepResult } from '../types/result'
 import { dissolvedTotal, speciesShares, type StoichiometryModel } from './share'
 import { typesetFormula } from './typeset'
+import { dissolvedLabel } from './names'
+import { MOLAR_SCALE, type UnitScale } from './units'
 
 export type DiagramKind = 'distribution' | 'logConcentration' | 'solubility'
 
@@ -105,6 +107,8 @@ export interface DiagramOptions {
   floor?: number
   /** Show the series below the floor too. */
   showAll?: boolean
+  /** The unit of the log-concentration and solubility axes (default mol/L); the floor stays in mol/L. */
+  scale?: UnitScale
 }
 
 /** Axis label of the swept variable, in words with its unit. */
@@ -196,7 +200,7 @@ function solubility(sweep: SweepResult, model: StoichiometryModel, component: st
   return [
     {
       key: 'dissolved',
-      label: `Dissolved ${name}`,
+      label: dissolvedLabel(component),
       ...styleForIndex(0),
       labelAt: 'end',
       values: sweep.points.map((p) => valueAt(p, (r) => Math.log10(dissolvedTotal(r, model, component)))),
@@ -236,6 +240,7 @@ function atLeastTwoDecades(series: DiagramSeries[]): [number, number] | null {
 export function diagramData(sweep: SweepResult, model: StoichiometryModel, options: DiagramOptions): DiagramData {
   const component = options.component ?? ''
   const componentName = typesetFormula(component)
+  const scale = options.scale ?? MOLAR_SCALE
   let series: DiagramSeries[]
   let yLabel: string
   let yDomain: [number, number] | null = null
@@ -249,16 +254,23 @@ export function diagramData(sweep: SweepResult, model: StoichiometryModel, optio
       break
     case 'logConcentration':
       series = logConcentration(sweep, model)
-      yLabel = 'log₁₀ of concentration in mol/L'
+      yLabel = `log₁₀ of concentration in ${scale.unit}`
       floor = Math.log10(options.floor ?? DEFAULT_CONCENTRATION_FLOOR)
       break
     case 'solubility':
       series = solubility(sweep, model, component)
-      yLabel = `log₁₀ of ${componentName} in mol/L`
+      yLabel = `log₁₀ of ${componentName} in ${scale.componentUnit(component)}`
       break
   }
   const below = series.filter((s) => !(maxFinite(s.values) >= floor))
-  const shown = options.showAll ? series : series.filter((s) => !below.includes(s))
+  let shown = options.showAll ? series : series.filter((s) => !below.includes(s))
+  // Another unit moves each log curve by the log of its factor (a gap where a mass unit has no molar mass).
+  if (options.kind !== 'distribution' && scale !== MOLAR_SCALE) {
+    shown = shown.map((s) => {
+      const factor = (options.kind === 'solubility' ? scale.component(component) : scale.species(s.key)) ?? Number.NaN
+      return { ...s, values: s.values.map((v) => v + Math.log10(factor)) }
+    })
+  }
   if (options.kind !== 'distribution') yDomain = atLeastTwoDecades(shown)
   return {
     kind: options.kind,

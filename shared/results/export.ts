@@ -8,6 +8,7 @@
 
 import type { Result, SweepResult } from '../types/result'
 import { dissolvedText } from './names'
+import { MOLAR_SCALE, type UnitScale } from './units'
 
 /** Quote a field when it holds a comma, a quote or a line break (RFC 4180 §2.6–2.7). */
 export function csvField(value: string): string {
@@ -30,8 +31,18 @@ export function csvNumber(value: number | undefined | null): string {
 
 const RESULT_HEADER = ['section', 'name', 'quantity', 'value', 'unit']
 
-/** One result as a tidy CSV: conditions, species, solids, gases and components. */
-export function resultCsv(result: Result): string {
+/** A value in mol/L times a unit's factor; empty when the unit cannot take it (a mass unit without a molar mass). */
+function scaled(value: number | undefined | null, factor: number | null): string {
+  return factor === null || value === undefined || value === null ? '' : csvNumber(value * factor)
+}
+
+/**
+ * One result as a tidy CSV: conditions, species, solids, gases and
+ * components. Concentrations of species and components are in the unit of
+ * `scale` (default mol/L, named in the unit column); ionic strength, solid
+ * amounts and log10 columns stay in mol/L.
+ */
+export function resultCsv(result: Result, scale: UnitScale = MOLAR_SCALE): string {
   const rows: string[][] = [RESULT_HEADER]
   const add = (section: string, name: string, quantity: string, value: string, unit = '') =>
     rows.push([section, name, quantity, value, unit])
@@ -45,9 +56,10 @@ export function resultCsv(result: Result): string {
   add('conditions', '', 'max scaled residual', csvNumber(result.residuals.maxScaled))
   for (const s of result.species) {
     add('species', s.name, 'charge', String(s.charge))
-    add('species', s.name, 'concentration', csvNumber(s.concentration), 'mol/L')
+    const factor = scale.species(s.name)
+    add('species', s.name, 'concentration', scaled(s.concentration, factor), scale.unit)
     add('species', s.name, 'log10 concentration', csvNumber(s.log10), 'log10(mol/L)')
-    add('species', s.name, 'activity', csvNumber(s.activity), 'mol/L')
+    add('species', s.name, 'activity', scaled(s.activity, factor), scale.unit)
     add('species', s.name, 'activity coefficient', csvNumber(s.gamma))
     if (s.none) add('species', s.name, 'none', s.none)
   }
@@ -67,11 +79,15 @@ export function resultCsv(result: Result): string {
   }
   for (const c of result.components) {
     add('component', c.name, 'mode', c.mode)
-    add('component', c.name, 'total', csvNumber(c.total), 'mol/L')
-    add('component', c.name, 'free', csvNumber(c.free), 'mol/L')
-    if (c.freeConcentration !== undefined) add('component', c.name, 'free concentration', csvNumber(c.freeConcentration), 'mol/L')
-    if (c.freeActivity !== undefined) add('component', c.name, 'free activity', csvNumber(c.freeActivity), 'mol/L')
-    if (c.dissolved !== undefined) add('component', c.name, 'dissolved', csvNumber(c.dissolved), 'mol/L')
+    const factor = scale.component(c.name)
+    const unit = scale.componentUnit(c.name)
+    // The free value of a pressure component is in atm and of an excess solid an activity: never converted.
+    const fixed = c.mode === 'pressure' || c.mode === 'excess'
+    add('component', c.name, 'total', scaled(c.total, factor), unit)
+    add('component', c.name, 'free', fixed ? csvNumber(c.free) : scaled(c.free, factor), c.mode === 'pressure' ? 'atm' : c.mode === 'excess' ? '' : unit)
+    if (c.freeConcentration !== undefined) add('component', c.name, 'free concentration', scaled(c.freeConcentration, factor), unit)
+    if (c.freeActivity !== undefined) add('component', c.name, 'free activity', fixed ? csvNumber(c.freeActivity) : scaled(c.freeActivity, factor), fixed ? '' : unit)
+    if (c.dissolved !== undefined) add('component', c.name, 'dissolved', scaled(c.dissolved, factor), unit)
   }
   for (const w of result.warnings ?? []) add('conditions', '', 'warning', w)
   return csvLines(rows)
@@ -99,7 +115,7 @@ function sweepVariableHeader(sweep: SweepResult): string {
  * the sweep). A failed point keeps its row with empty numbers and the
  * reason, so row k is always point k.
  */
-export function sweepCsv(sweep: SweepResult): string {
+export function sweepCsv(sweep: SweepResult, scale: UnitScale = MOLAR_SCALE): string {
   const names: string[] = []
   const solids: string[] = []
   const components: string[] = []
@@ -113,8 +129,8 @@ export function sweepCsv(sweep: SweepResult): string {
     'converged',
     'pH',
     'ionic strength (mol/L)',
-    ...names.map((n) => `${n} (mol/L)`),
-    ...components.map((n) => `${dissolvedText(n)} (mol/L)`),
+    ...names.map((n) => `${n} (${scale.unit})`),
+    ...components.map((n) => `${dissolvedText(n)} (${scale.componentUnit(n)})`),
     ...solids.flatMap((n) => [`${n} amount (mol/L)`, `${n} saturation index`]),
     'reason',
   ]
@@ -132,8 +148,8 @@ export function sweepCsv(sweep: SweepResult): string {
       'true',
       csvNumber(point.pH),
       csvNumber(point.ionicStrength),
-      ...names.map((n) => csvNumber(byName.get(n))),
-      ...components.map((n) => csvNumber(dissolvedByName.get(n))),
+      ...names.map((n) => scaled(byName.get(n), scale.species(n))),
+      ...components.map((n) => scaled(dissolvedByName.get(n), scale.component(n))),
       ...solids.flatMap((n) => [csvNumber(solidByName.get(n)?.amount), csvNumber(solidByName.get(n)?.saturationIndex)]),
       '',
     ]

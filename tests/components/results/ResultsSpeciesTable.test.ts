@@ -56,7 +56,7 @@ describe('ResultsSpeciesTable', () => {
     const wrapper = mountTable()
     expect(column(wrapper, 'Concentration')[2]).toBe('1.00e-12')
     await wrapper.find('[data-test="scale-log"]').trigger('click')
-    expect(column(wrapper, 'log₁₀ concentration')[2]).toBe('-12.00')
+    expect(column(wrapper, 'log₁₀ concentration (mol/L)')[2]).toBe('-12.00')
     expect(wrapper.find('[data-test="scale-log"]').attributes('aria-pressed')).toBe('true')
     await wrapper.find('[data-test="scale-linear"]').trigger('click')
     expect(column(wrapper, 'Concentration')[2]).toBe('1.00e-12')

@@ -1,9 +1,10 @@
 import { execFileSync } from 'node:child_process'
-import { mkdtempSync, writeFileSync } from 'node:fs'
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { describe, expect, it } from 'vitest'
 import { CLEAN } from './helpers'
+import type { Result } from '../../../shared/types/result'
 
 const root = new URL('../../../', import.meta.url).pathname
 const tsx = join(root, 'node_modules/.bin/tsx')
@@ -47,5 +48,43 @@ describe('cli check', { timeout: 60_000 }, () => {
     const usage = run([])
     expect(usage.code).toBe(2)
     expect(usage.stderr).toContain('usage:')
+  })
+})
+
+describe('cli solve --units', { timeout: 120_000 }, () => {
+  // The shipped nickel rinse at one pH (no sweep), so the tables hold one answer.
+  const text = readFileSync(join(root, 'examples/nickel-rinse-discharge.poise'), 'utf8').replace(/^sweep .*$/m, '').replace('pH 8', 'pH 10')
+  const p = file('nickel.poise', text)
+  const json = run(['solve', p, '--json'])
+  const result = JSON.parse(json.stdout) as Result
+
+  it('prints the tables in mg/L with IUPAC molar masses; the JSON stays in mol/L', () => {
+    expect(json.code).toBe(0)
+    const r = run(['solve', p, '--units', 'mg/L'])
+    expect(r.code).toBe(0)
+    const header = r.stdout.split('\n').find((l) => l.startsWith('species'))!
+    expect(header).toMatch(/^species\s+mg\/L\s+log10 mol\/L/)
+    // Ni2+ in mg/L = mol/L × 58.693 g/mol (IUPAC, Standard atomic weights 2021) × 1000 mg/g.
+    const ni = result.species.find((s) => s.name === 'Ni^2+')!.concentration
+    const line = r.stdout.split('\n').find((l) => l.startsWith('Ni^2+ '))!
+    expect(Number(line.trim().split(/\s+/)[1])).toBeCloseTo(ni * 58.693e3, 3 - Math.floor(Math.log10(ni * 58.693e3)))
+    // The JSON is unchanged by --units.
+    expect(JSON.parse(run(['solve', p, '--json', '--units', 'mg/L']).stdout)).toEqual(result)
+  })
+
+  it('counts ammonia as N with --as-element, and names dissolved Ni apart from the free ion', () => {
+    const r = run(['solve', p, '--units', 'mg/L', '--as-element'])
+    // The component table's row (the species table has an NH3 row too).
+    const line = r.stdout.split('\n').find((l) => /^NH3\s+total\s/.test(l))!
+    expect(line).toContain('mg/L as N')
+    // 20 mmol/L NH3 × 14.007 g/mol N (IUPAC, Standard atomic weights 2021) = 280.14 mg/L as N.
+    expect(line).toMatch(/2\.801e\+2/)
+    expect(r.stdout).toContain('(dissolved Ni)')
+  })
+
+  it('refuses a unit it does not know, saying which it takes', () => {
+    const r = run(['solve', p, '--units', 'ppm'])
+    expect(r.code).toBe(2)
+    expect(r.stderr).toContain('--units takes one of mol/L, mmol/L, µmol/L, mg/L, µg/L, not ppm')
   })
 })

@@ -92,7 +92,7 @@ describe('solubility diagram', () => {
     const failed = sweep.values.indexOf(9)
     expect(dissolved.values[0]).toBeCloseTo(Math.log10(2e-3), 10)
     expect(dissolved.values[failed]).toBeNaN()
-    expect(dissolved.label).toBe('Dissolved CO₃²⁻')
+    expect(dissolved.label).toBe('dissolved CO₃')
   })
 
   it('shows a constant total over two whole decades rather than stretching rounding noise', () => {

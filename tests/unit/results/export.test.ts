@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest'
 import { csvField, csvLines, csvNumber, jsonExport, resultCsv, safeFileName, sweepCsv } from '../../../shared/results/export'
 import { carbonateSweep, copperAmmoniaResult } from './fixtures'
 import { parseCsv } from './csvParse'
+import { unitScale, type UnitModel } from '../../../shared/results/units'
 
 describe('CSV quoting (RFC 4180)', () => {
   it('quotes fields with commas, quotes and line breaks, and doubles inner quotes', () => {
@@ -93,6 +94,20 @@ describe('sweepCsv', () => {
       if (!p.converged) return
       expect(Number(rows[k + 1][column])).toBe(p.components.find((c) => c.name === 'CO3^2-')!.dissolved)
     })
+  })
+
+  it('writes concentrations in the unit chosen, named in the headers', () => {
+    const milli = parseCsv(sweepCsv(sweep, unitScale(null, { unit: 'mmol/L', asElement: false })))
+    const column = milli[0].indexOf('HCO3- (mmol/L)')
+    const dissolved = milli[0].indexOf('dissolved CO3 (mmol/L)')
+    expect(column).toBeGreaterThan(0)
+    expect(Number(milli[1][column])).toBeCloseTo(sweep.points[0].species.find((s) => s.name === 'HCO3-')!.concentration * 1000, 15)
+    expect(Number(milli[1][dissolved])).toBeCloseTo(2, 12)
+    // Carbonate as C: 2 mmol/L × 12.011 g/mol (IUPAC, Standard atomic weights 2021) = 24.022 mg/L.
+    const model: UnitModel = { components: [{ name: 'H+', elements: { H: 1 } }, { name: 'CO3^2-', elements: { C: 1, O: 3 } }], species: [] }
+    const asC = parseCsv(sweepCsv(sweep, unitScale(model, { unit: 'mg/L', asElement: true })))
+    const c = asC[0].indexOf('dissolved CO3 (mg/L as C)')
+    expect(Number(asC[1][c])).toBeCloseTo(24.022, 9)
   })
 
   it('keeps a failed point as a row with empty numbers and the reason', () => {
