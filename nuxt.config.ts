@@ -1,11 +1,50 @@
 // Nuxt configuration for Equipoise. The project root is the source folder
 // (no app/ directory); shared/ holds code that runs in browser, server and CLI.
+import { fileURLToPath } from 'node:url'
+
 export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
   srcDir: '.',
   devtools: { enabled: false },
   telemetry: false,
-  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils'],
+  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils', 'nuxt-security'],
+  // Security headers on every answer (pages and API) from nuxt-security. The Content-Security-Policy
+  // lets scripts run only from this site with the per-request nonce Nuxt's own inline script gets (no
+  // eval); styles may be inline (CodeMirror, the diagrams and Vue's style bindings set them); images
+  // may be data:/blob: URLs (the PNG export draws the SVG diagram through one). Request bodies,
+  // cross-origin writes and sign-in throttling are handled by our own middleware
+  // (server/middleware/, server/utils/request-limits.ts), so the module's limiters stay off.
+  security: {
+    headers: {
+      contentSecurityPolicy: {
+        'default-src': ["'self'"],
+        'base-uri': ["'none'"],
+        'connect-src': ["'self'"],
+        'font-src': ["'self'", 'data:'],
+        'form-action': ["'self'"],
+        'frame-ancestors': ["'none'"],
+        'img-src': ["'self'", 'data:', 'blob:'],
+        'object-src': ["'none'"],
+        'script-src': ["'self'", "'strict-dynamic'", "'nonce-{{nonce}}'"],
+        'script-src-attr': ["'none'"],
+        'style-src': ["'self'", "'unsafe-inline'"],
+        // Served over plain http locally; behind TLS the proxy sends people to https.
+        'upgrade-insecure-requests': false,
+      },
+      xFrameOptions: 'DENY',
+      // Same-origin requests keep their Origin (writes need it, see server/middleware/01.same-origin.ts); other sites learn nothing.
+      referrerPolicy: 'same-origin',
+      // Only browsers on https heed it; not for the other sites of the domain.
+      strictTransportSecurity: { maxAge: 15552000, includeSubdomains: false },
+    },
+    requestSizeLimiter: false,
+    rateLimiter: false,
+    xssValidator: false,
+    corsHandler: false,
+    allowedMethodsRestricter: false,
+    removeLoggers: false,
+    hidePoweredBy: true,
+  },
   css: ['~/assets/css/main.css'],
   // main.css holds the @tailwind directives; without this the module injects a second copy of them.
   tailwindcss: { cssPath: false },
@@ -32,8 +71,6 @@ export default defineNuxtConfig({
       // Where the local fake SMTP server keeps captured mail; set only in development and tests, it turns on /admin/mail.
       captureDir: '',
     },
-    // The public address of the site for links in mail (NUXT_SITE_URL); empty: the address of the request.
-    siteUrl: '',
     // Session lifetimes in minutes (NUXT_SESSION_IDLE_MINUTES, NUXT_SESSION_ABSOLUTE_MINUTES): a session
     // ends after this long without a request, and this long after signing in. Defaults: 7 and 30 days.
     sessionIdleMinutes: 7 * 24 * 60,
@@ -41,9 +78,21 @@ export default defineNuxtConfig({
     // Proxies whose X-Forwarded-For is believed for the client address (NUXT_TRUSTED_PROXIES: comma-separated
     // addresses or CIDR ranges). Empty: the socket's address is the client's.
     trustedProxies: '',
+    public: {
+      // The address people open the site at (NUXT_PUBLIC_SITE_URL): links in mail are built on it and
+      // writes must come from its origin. Required: the built server refuses to start without it.
+      siteUrl: '',
+    },
   },
   // The examples travel with the built server (read with useStorage('assets:examples')).
   // Nitro resolves the folder from server/, hence the '..'.
+  hooks: {
+    // Our handler first: a database that cannot be reached becomes a 503 with a plain message; Nuxt's renders the rest.
+    'nitro:config'(config) {
+      const others = config.errorHandler ? (Array.isArray(config.errorHandler) ? config.errorHandler : [config.errorHandler]) : []
+      config.errorHandler = [fileURLToPath(new URL('./server/error-handler.ts', import.meta.url)), ...others]
+    },
+  },
   nitro: {
     serverAssets: [{ baseName: 'examples', dir: '../examples' }],
     typescript: { tsConfig: { compilerOptions: { noUncheckedIndexedAccess: false } } },

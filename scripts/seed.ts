@@ -1,7 +1,14 @@
 // Seeds the demo lab and accounts into NUXT_DATABASE_URL (or the local database), once.
 import { resolve } from 'node:path'
 import { databaseUrlFromEnv, openDatabase } from '../server/database/connect'
+import { isProductionMode } from '../server/database/production'
 import { DEMO_LAB, seedDemo } from '../server/database/seed'
+
+if (isProductionMode()) {
+  console.error('Not seeding: this is production mode (EQUIPOISE_PRODUCTION=1, or NODE_ENV=production), and the demo accounts have a published password. '
+    + 'Production starts from an empty database (`npm run migrate`); create the first account by registering, then `npm run admin -- you@example.org`.')
+  process.exit(1)
+}
 
 const { db, pool } = openDatabase(databaseUrlFromEnv())
 try {

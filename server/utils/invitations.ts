@@ -8,7 +8,7 @@ import { and, desc, eq, gt, isNull } from 'drizzle-orm'
 import type { Invitation, Lab } from '../database/schema'
 import { INVITATION_DAYS } from '../../shared/utils/invitation-schemas'
 import { labRoleAtLeast, type LabRole } from '../../shared/utils/roles'
-import { tables, useDb } from './db'
+import { tables, useDb, type Transaction } from './db'
 import { recordAudit } from './audit'
 import { INVITATIONS_PER_HOUR, refuseForNow } from './limits'
 import { sendMail, siteLink } from './mail'
@@ -45,38 +45,37 @@ export async function findOpenInvitation(token: string): Promise<OpenInvitation>
 }
 
 /**
- * Uses the invitation for this account: marks it used (only if nobody used it
- * in the meantime) and adds the membership, or raises an existing lower role.
+ * Uses the invitation for this account, inside the caller's transaction:
+ * marks it used (only if nobody used it in the meantime) and adds the
+ * membership, or raises an existing lower role.
  * Returns the role the account now has in the lab.
  */
-export async function acceptInvitation(open: OpenInvitation, userId: number): Promise<LabRole> {
-  return useDb().transaction(async (tx) => {
-    const [result] = await tx.update(tables.invitations)
-      .set({ acceptedAt: new Date(), acceptedBy: userId })
-      .where(and(eq(tables.invitations.id, open.invitation.id), isNull(tables.invitations.acceptedAt), isNull(tables.invitations.withdrawnAt), gt(tables.invitations.expiresAt, new Date())))
-    if (result.affectedRows !== 1) {
-      throw createError({ statusCode: 410, message: `This invitation to ${open.lab.name} was already used; an invitation link works once` })
-    }
-    const [member] = await tx.select({ role: tables.labMembers.role }).from(tables.labMembers)
-      .where(and(eq(tables.labMembers.labId, open.lab.id), eq(tables.labMembers.userId, userId)))
-    const invited = open.invitation.role
-    if (!member) {
-      await tx.insert(tables.labMembers).values({ labId: open.lab.id, userId, role: invited })
-      return invited
-    }
-    if (labRoleAtLeast(member.role, invited)) return member.role
-    await tx.update(tables.labMembers).set({ role: invited })
-      .where(and(eq(tables.labMembers.labId, open.lab.id), eq(tables.labMembers.userId, userId)))
+export async function acceptInvitation(tx: Transaction, open: OpenInvitation, userId: number): Promise<LabRole> {
+  const [result] = await tx.update(tables.invitations)
+    .set({ acceptedAt: new Date(), acceptedBy: userId })
+    .where(and(eq(tables.invitations.id, open.invitation.id), isNull(tables.invitations.acceptedAt), isNull(tables.invitations.withdrawnAt), gt(tables.invitations.expiresAt, new Date())))
+  if (result.affectedRows !== 1) {
+    throw createError({ statusCode: 410, message: `This invitation to ${open.lab.name} was already used; an invitation link works once` })
+  }
+  const [member] = await tx.select({ role: tables.labMembers.role }).from(tables.labMembers)
+    .where(and(eq(tables.labMembers.labId, open.lab.id), eq(tables.labMembers.userId, userId)))
+  const invited = open.invitation.role
+  if (!member) {
+    await tx.insert(tables.labMembers).values({ labId: open.lab.id, userId, role: invited })
     return invited
-  })
+  }
+  if (labRoleAtLeast(member.role, invited)) return member.role
+  await tx.update(tables.labMembers).set({ role: invited })
+    .where(and(eq(tables.labMembers.labId, open.lab.id), eq(tables.labMembers.userId, userId)))
+  return invited
 }
 
 /**
  * Invites an address into a lab, the one way an owner adds people (so nobody
  * learns whether an address has an account): refuses an address that is
  * already a member (409) and an owner or lab past INVITATIONS_PER_HOUR (429),
- * stores the invitation, mails its link and records it. Says whether the mail
- * went out.
+ * stores the invitation with its audit line and mails its link. Says whether
+ * the mail went out.
  */
 export async function inviteToLab(event: H3Event, input: {
   lab: Lab
@@ -92,9 +91,7 @@ export async function inviteToLab(event: H3Event, input: {
   if (member) {
     throw createError({ statusCode: 409, message: `${member.name} (${input.email}) is already a member (${member.role}); change their role instead`, data: { issues: [{ path: 'email', message: `Already a member (${member.role})` }] } })
   }
-  const { invitation, mailed } = await createInvitation(event, input)
-  await recordAudit({ actorId: input.inviter.id, labId: input.lab.id, action: 'invitation.create', detail: { invitationId: invitation.id, email: input.email, role: input.role, mailed } })
-  return { invitation, mailed }
+  return createInvitation(event, input)
 }
 
 /** Seconds until fewer than `limit` of these creation times fall in the last hour (0: none to wait). */
@@ -104,9 +101,10 @@ function hourlyWait(newestFirst: { createdAt: Date }[], limit: number, now: numb
 }
 
 /**
- * Stores a new invitation and mails its link; says whether the mail went out.
- * The count against INVITATIONS_PER_HOUR and the insert happen under locks
- * on the inviter's and the lab's rows, so parallel requests cannot overshoot.
+ * Stores a new invitation with its audit line (one transaction), then mails
+ * its link; says whether the mail went out. The count against
+ * INVITATIONS_PER_HOUR and the insert happen under locks on the inviter's and
+ * the lab's rows, so parallel requests cannot overshoot.
  */
 async function createInvitation(event: H3Event, input: {
   lab: Lab
@@ -114,10 +112,9 @@ async function createInvitation(event: H3Event, input: {
   role: LabRole
   inviter: { id: number; name: string }
 }): Promise<{ invitation: Invitation; mailed: boolean }> {
-  const db = useDb()
   const { token, hash } = newToken()
   const expiresAt = new Date(Date.now() + INVITATION_DAYS * 24 * 3600 * 1000)
-  const invitationId = await db.transaction(async (tx) => {
+  const invitation = await useDb().transaction(async (tx) => {
     await tx.select({ id: tables.users.id }).from(tables.users).where(eq(tables.users.id, input.inviter.id)).for('update')
     await tx.select({ id: tables.labs.id }).from(tables.labs).where(eq(tables.labs.id, input.lab.id)).for('update')
     const hourAgo = new Date(Date.now() - 3600_000)
@@ -138,10 +135,11 @@ async function createInvitation(event: H3Event, input: {
       invitedBy: input.inviter.id,
       expiresAt,
     }).$returningId()
-    return inserted!.id
+    await recordAudit(tx, { actorId: input.inviter.id, labId: input.lab.id, action: 'invitation.create', detail: { invitationId: inserted!.id, email: input.email, role: input.role } })
+    const [row] = await tx.select().from(tables.invitations).where(eq(tables.invitations.id, inserted!.id))
+    return row!
   })
-  const [invitation] = await db.select().from(tables.invitations).where(eq(tables.invitations.id, invitationId))
-  const link = siteLink(event, `/invitations/accept?token=${token}`)
+  const link = siteLink(`/invitations/accept?token=${token}`)
   const { delivered } = await sendMail({
     to: input.email,
     subject: `${input.inviter.name} invites you to ${input.lab.name} on Equipoise`,
@@ -158,7 +156,7 @@ async function createInvitation(event: H3Event, input: {
       + `<p><a href="${escapeHtml(link)}">Accept the invitation</a> — the link works once, until ${dateFormat.format(expiresAt)}.</p>`
       + `<p>If you have no account yet, the link lets you create one with this address (${escapeHtml(input.email)}). If you did not expect this invitation, ignore this mail.</p>`,
   })
-  return { invitation: invitation!, mailed: delivered }
+  return { invitation, mailed: delivered }
 }
 
 /** The public shape of an invitation in an owner's list. */

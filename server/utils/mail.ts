@@ -8,7 +8,6 @@
  * Sending never throws: a notification that cannot be delivered must not
  * undo the action that caused it. The caller learns whether it went out.
  */
-import type { H3Event } from 'h3'
 import { createTransport, type Transporter } from 'nodemailer'
 
 export interface MailMessage {
@@ -73,11 +72,10 @@ export async function sendMail(message: MailMessage): Promise<MailOutcome> {
 }
 
 /**
- * The absolute address of a page of this site, for links in mail. NUXT_SITE_URL
- * when set (behind a proxy), else the address the request came in on.
+ * The absolute address of a page of this site, for links in mail: always on
+ * the configured site origin (NUXT_PUBLIC_SITE_URL), never on the Host header
+ * of the request, which whoever sends it chooses.
  */
-export function siteLink(event: H3Event, path: string): string {
-  const configured = String(useRuntimeConfig().siteUrl || '').replace(/\/+$/, '')
-  const origin = configured || getRequestURL(event).origin
-  return `${origin}${path}`
+export function siteLink(path: string): string {
+  return `${siteOrigin()}${path}`
 }

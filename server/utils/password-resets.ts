@@ -3,9 +3,9 @@
  * PASSWORD_RESET_MINUTES. Asking for one answers the same whether or not the
  * address has an account, so the form cannot be used to find out who has one.
  */
-import type { H3Event } from 'h3'
 import { and, count, eq, gt, isNull } from 'drizzle-orm'
 import { PASSWORD_RESET_MINUTES } from '../../shared/utils/invitation-schemas'
+import { recordAudit } from './audit'
 import { tables, useDb } from './db'
 import { sendMail, siteLink } from './mail'
 import { hashToken, newToken } from './tokens'
@@ -20,7 +20,7 @@ export const RESET_REQUESTED_MESSAGE = `If an account uses this address, a link 
  * many lately); does nothing visible otherwise. The route runs it after
  * answering, so known and unknown addresses answer alike and as fast.
  */
-export async function requestPasswordReset(event: H3Event, email: string): Promise<void> {
+export async function requestPasswordReset(email: string): Promise<void> {
   const db = useDb()
   const [account] = await db.select({ id: tables.users.id, name: tables.users.name }).from(tables.users).where(eq(tables.users.email, email))
   if (!account) return
@@ -40,7 +40,7 @@ export async function requestPasswordReset(event: H3Event, email: string): Promi
     return true
   })
   if (!stored) return
-  const link = siteLink(event, `/password/reset?token=${token}`)
+  const link = siteLink(`/password/reset?token=${token}`)
   await sendMail({
     to: email,
     subject: 'Choose a new password for Equipoise',
@@ -61,7 +61,8 @@ const LINK_UNUSABLE = 'This reset link has expired or was already used; ask for 
 /**
  * Sets a new password with a reset link's token. The link is used up first
  * (only one request can win), then every other open link of the account is
- * closed too, and every session of the account ends. Returns the account's id.
+ * closed too, and every session of the account ends; with the audit line, all
+ * in one transaction. Returns the account's id.
  */
 export async function resetPassword(token: string, passwordHash: string): Promise<number> {
   const db = useDb()
@@ -77,6 +78,7 @@ export async function resetPassword(token: string, passwordHash: string): Promis
     await tx.delete(tables.sessions).where(eq(tables.sessions.userId, reset.userId))
     await tx.update(tables.passwordResets).set({ usedAt: now })
       .where(and(eq(tables.passwordResets.userId, reset.userId), isNull(tables.passwordResets.usedAt)))
+    await recordAudit(tx, { actorId: reset.userId, labId: null, action: 'user.password-reset' })
     return reset.userId
   })
 }

@@ -6,10 +6,10 @@
  * account gets a mail saying someone tried to register it. At most
  * REGISTRATION_MAILS_PER_HOUR such mails go to one address in an hour.
  */
-import type { H3Event } from 'h3'
 import { and, eq, gt, isNull } from 'drizzle-orm'
 import { createHash } from 'node:crypto'
 import type { RegisterInput } from '../../shared/utils/account-schemas'
+import { recordAudit } from './audit'
 import { tables, useDb } from './db'
 import { isDuplicateKey } from './revisions'
 import { REGISTRATION_CONFIRM_HOURS } from '../../shared/utils/invitation-schemas'
@@ -22,7 +22,7 @@ import { hashToken, newToken } from './tokens'
 export const REGISTRATION_REQUESTED_MESSAGE = `Check your mail: we sent a link to confirm the address (it works for ${REGISTRATION_CONFIRM_HOURS} hours). Open it to finish creating your account. If the address already has an account, the mail says so.`
 
 /** Does the work of a registration; never throws (it runs after the answer was sent). */
-export async function requestRegistration(event: H3Event, input: RegisterInput): Promise<void> {
+export async function requestRegistration(input: RegisterInput): Promise<void> {
   const db = useDb()
   // Counted atomically before any mail, so parallel requests cannot send more than the limit.
   const key = `register-mail:${createHash('sha256').update(input.email).digest('hex')}`
@@ -38,8 +38,8 @@ export async function requestRegistration(event: H3Event, input: RegisterInput):
         '',
         `Someone (perhaps you) tried to create a new Equipoise account with ${input.email}, which already has one. Nothing was changed.`,
         '',
-        `To sign in: ${siteLink(event, '/login')}`,
-        `Forgot your password? Choose a new one here: ${siteLink(event, '/password/forgot')}`,
+        `To sign in: ${siteLink('/login')}`,
+        `Forgot your password? Choose a new one here: ${siteLink('/password/forgot')}`,
         '',
         'If it was not you, ignore this mail.',
       ].join('\n'),
@@ -54,7 +54,7 @@ export async function requestRegistration(event: H3Event, input: RegisterInput):
     tokenHash: hash,
     expiresAt: new Date(Date.now() + REGISTRATION_CONFIRM_HOURS * 3600_000),
   })
-  const link = siteLink(event, `/register/confirm?token=${token}`)
+  const link = siteLink(`/register/confirm?token=${token}`)
   await sendMail({
     to: input.email,
     subject: 'Confirm your address to create your Equipoise account',
@@ -72,7 +72,8 @@ export async function requestRegistration(event: H3Event, input: RegisterInput):
 
 /**
  * Creates the account of a registration from its confirmation token (once),
- * and returns it. Other open links for the same address stop working.
+ * with its audit line, and returns it. Other open links for the same address
+ * stop working.
  */
 export async function confirmRegistration(token: string): Promise<{ id: number, email: string, name: string }> {
   const db = useDb()
@@ -95,6 +96,7 @@ export async function confirmRegistration(token: string): Promise<{ id: number, 
     }
     await tx.update(tables.pendingRegistrations).set({ usedAt: now })
       .where(and(eq(tables.pendingRegistrations.email, pending.email), isNull(tables.pendingRegistrations.usedAt)))
+    await recordAudit(tx, { actorId: id, labId: null, action: 'user.register' })
     return { id, email: pending.email, name: pending.name }
   })
 }

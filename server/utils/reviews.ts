@@ -4,7 +4,6 @@
  * The reviewer comments on lines of either side and approves or asks for
  * changes; both steps send a mail.
  */
-import type { H3Event } from 'h3'
 import { and, asc, desc, eq, inArray, type SQL } from 'drizzle-orm'
 import { alias } from 'drizzle-orm/mysql-core'
 import type { Review } from '../database/schema'
@@ -127,8 +126,8 @@ export async function listComments(reviewId: number): Promise<ReviewCommentView[
 }
 
 /** Mail the reviewer that a review waits for them. Never throws (see sendMail). */
-export async function mailReviewRequested(event: H3Event, review: ReviewView, requesterName: string): Promise<void> {
-  const link = siteLink(event, `/labs/${review.lab.slug}/reviews/${review.id}`)
+export async function mailReviewRequested(review: ReviewView, requesterName: string): Promise<void> {
+  const link = siteLink(`/labs/${review.lab.slug}/reviews/${review.id}`)
   await sendMail({
     to: review.reviewer.email,
     subject: `Review requested: ${review.system.title}, revision ${review.to} against ${review.from}`,
@@ -141,11 +140,11 @@ export async function mailReviewRequested(event: H3Event, review: ReviewView, re
 }
 
 /** Mail the requester the reviewer's decision. Never throws (see sendMail). */
-export async function mailReviewDecided(event: H3Event, review: ReviewView): Promise<void> {
+export async function mailReviewDecided(review: ReviewView): Promise<void> {
   if (!review.requester) return
   const [requester] = await useDb().select({ email: tables.users.email }).from(tables.users).where(eq(tables.users.id, review.requester.id))
   if (!requester) return
-  const link = siteLink(event, `/labs/${review.lab.slug}/reviews/${review.id}`)
+  const link = siteLink(`/labs/${review.lab.slug}/reviews/${review.id}`)
   await sendMail({
     to: requester.email,
     subject: `Review ${REVIEW_STATE_WORDS[review.state]}: ${review.system.title}, revision ${review.to}`,

@@ -5,12 +5,14 @@
 import { createHash } from 'node:crypto'
 import { eq } from 'drizzle-orm'
 import type { Revision } from '../database/schema'
+import type { Transaction } from './db'
 
 export function sha256Hex(text: string): string {
   return createHash('sha256').update(text, 'utf8').digest('hex')
 }
 
-export async function addRevision(input: {
+/** Adds the next revision inside the caller's transaction (with its audit line). */
+export async function addRevision(tx: Transaction, input: {
   systemId: number
   number: number
   parentId: number | null
@@ -18,9 +20,8 @@ export async function addRevision(input: {
   authorId: number
   message: string
 }): Promise<Revision> {
-  const db = useDb()
-  const [inserted] = await db.insert(tables.revisions).values({ ...input, sha256: sha256Hex(input.source) }).$returningId()
-  const [row] = await db.select().from(tables.revisions).where(eq(tables.revisions.id, inserted!.id))
+  const [inserted] = await tx.insert(tables.revisions).values({ ...input, sha256: sha256Hex(input.source) }).$returningId()
+  const [row] = await tx.select().from(tables.revisions).where(eq(tables.revisions.id, inserted!.id))
   return row!
 }
 

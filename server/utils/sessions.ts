@@ -8,7 +8,7 @@
  */
 import type { H3Event } from 'h3'
 import { and, eq, lt, ne, or } from 'drizzle-orm'
-import { tables, useDb } from './db'
+import { tables, useDb, type DbExecutor } from './db'
 import { hashToken, newToken } from './tokens'
 import { sessionLifetimesFrom, type SessionLifetimes } from './session-lifetime'
 
@@ -44,10 +44,14 @@ export async function endSession(event: H3Event, options: { keepCookie?: boolean
   if (!options.keepCookie) await clearUserSession(event)
 }
 
-/** Ends every session of the account except the one this request came with (all of them when `event` is null). Returns how many ended. */
-export async function endOtherSessions(userId: number, event: H3Event | null): Promise<number> {
+/**
+ * Ends every session of the account except the one this request came with (all
+ * of them when `event` is null), in the caller's transaction when given one.
+ * Returns how many ended.
+ */
+export async function endOtherSessions(userId: number, event: H3Event | null, db: DbExecutor = useDb()): Promise<number> {
   const token = event ? (await getUserSession(event)).secure?.token : undefined
-  const [result] = await useDb().delete(tables.sessions).where(token
+  const [result] = await db.delete(tables.sessions).where(token
     ? and(eq(tables.sessions.userId, userId), ne(tables.sessions.tokenHash, hashToken(token)))
     : eq(tables.sessions.userId, userId))
   return result.affectedRows

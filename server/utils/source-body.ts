@@ -1,6 +1,7 @@
 /**
- * The `{ source }` body of the stateless routes. An oversized text is a 413
- * (checked on the header first, so a huge upload is not read into memory).
+ * The `{ source }` body of the stateless routes. An oversized text is a 413;
+ * the body as a whole was already limited while it streamed in
+ * (server/middleware/02.request-body.ts), so a huge one is never held.
  */
 import type { H3Event } from 'h3'
 import { z } from 'zod'
@@ -11,8 +12,6 @@ export const SourceBody = z.object({
 })
 
 export async function readSourceBody(event: H3Event): Promise<string> {
-  const declared = Number(getRequestHeader(event, 'content-length') ?? 0)
-  if (declared > SOLVE_LIMITS.maxSourceChars * 4 + 1024) throw tooLarge()
   const { source } = await validateBody(event, SourceBody)
   if (source.length > SOLVE_LIMITS.maxSourceChars) throw tooLarge()
   return source

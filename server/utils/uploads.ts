@@ -1,14 +1,16 @@
 /**
  * Reading an uploaded `.poise` file (multipart/form-data, field "file") for
- * the import routes. The size is checked on the Content-Length header before
- * anything is read, and the file must be UTF-8 text; each refusal says what
- * to change.
+ * the import routes. The body as a whole is limited while it streams in
+ * (BODY_LIMITS.uploadBytes, server/middleware/02.request-body.ts); here the
+ * file itself is checked: its size, its name, and that it is UTF-8 text.
+ * Each refusal says what to change.
  */
 import type { H3Event } from 'h3'
 import type { z } from 'zod'
 import type { Lab } from '../database/schema'
 import { SOURCE_MAX_LENGTH } from '../../shared/utils/lab-schemas'
-import { UPLOAD_EXTENSIONS, UPLOAD_MAX_BYTES } from '../../shared/utils/upload-schemas'
+import { UPLOAD_EXTENSIONS, UPLOAD_MAX_BYTES, UploadFilenameSchema } from '../../shared/utils/upload-schemas'
+import type { Transaction } from './db'
 
 export interface PoiseUpload {
   /** The text, without a byte-order mark, with Windows line ends made plain. */
@@ -18,8 +20,6 @@ export interface PoiseUpload {
   fields: Record<string, string>
 }
 
-/** Room for the multipart boundaries and the small fields sent beside the file. */
-const FORM_OVERHEAD_BYTES = 16 * 1024
 const sizeLabel = `${UPLOAD_MAX_BYTES / 1024} KiB`
 
 function tooLarge(what: string) {
@@ -35,16 +35,17 @@ export async function readPoiseUpload(event: H3Event): Promise<PoiseUpload> {
   if (!type.toLowerCase().startsWith('multipart/form-data')) {
     throw unsupported('Send the file as multipart/form-data, in a field named "file"')
   }
-  const length = getRequestHeader(event, 'content-length')
-  if (length === undefined) throw createError({ statusCode: 411, message: 'Send the upload with its Content-Length' })
-  if (Number(length) > UPLOAD_MAX_BYTES + FORM_OVERHEAD_BYTES) throw tooLarge('The upload')
-
   const parts = await readMultipartFormData(event).catch(() => {
     throw createError({ statusCode: 400, message: 'The upload could not be read as a form; choose the file again and resend it' })
   })
   const file = parts?.find((p) => p.name === 'file' && p.filename !== undefined)
   if (!file) throw createError({ statusCode: 400, message: 'Choose a .poise file to upload (form field "file")', data: { issues: [{ path: 'file', message: 'Choose a file' }] } })
   const filename = file.filename || 'upload.poise'
+  const named = UploadFilenameSchema.safeParse(filename)
+  if (!named.success) {
+    const message = named.error.issues[0]!.message
+    throw createError({ statusCode: 400, message: `file: ${message}`, data: { issues: [{ path: 'file', message }] } })
+  }
   if (!UPLOAD_EXTENSIONS.some((ext) => filename.toLowerCase().endsWith(ext))) {
     throw unsupported(`"${filename}" is not a Poise file: choose a file ending in ${UPLOAD_EXTENSIONS.join(' or ')}`)
   }
@@ -88,10 +89,10 @@ export function validateFields<S extends z.ZodType>(schema: S, fields: Record<st
   throw createError({ statusCode: 400, message: `${issues[0]!.path}: ${issues[0]!.message}`, data: { issues } })
 }
 
-/** Adds a system row for an import; a slug already used in the lab is a 409 saying so. */
-export async function insertSystem(lab: Lab, row: { slug: string; title: string; createdBy: number }): Promise<number> {
+/** Adds a system row for an import, in the caller's transaction; a slug already used in the lab is a 409 saying so. */
+export async function insertSystem(tx: Transaction, lab: Lab, row: { slug: string; title: string; createdBy: number }): Promise<number> {
   try {
-    const [inserted] = await useDb().insert(tables.systems).values({ labId: lab.id, ...row }).$returningId()
+    const [inserted] = await tx.insert(tables.systems).values({ labId: lab.id, ...row }).$returningId()
     return inserted!.id
   } catch (error) {
     if (!isDuplicateKey(error)) throw error

@@ -17,9 +17,12 @@ export const LabRoleSchema = z.enum(LAB_ROLES, { error: `Role must be one of ${L
 /** The longest Poise source we store (a generous limit against accidents). */
 export const SOURCE_MAX_LENGTH = 200_000
 
-const TitleSchema = z.string().trim()
+/** The longest title of a system. */
+export const TITLE_MAX_LENGTH = 200
+
+export const SystemTitleSchema = z.string().trim()
   .min(1, { error: 'Enter a title' })
-  .max(200, { error: 'Use at most 200 characters' })
+  .max(TITLE_MAX_LENGTH, { error: `Use at most ${TITLE_MAX_LENGTH} characters` })
 
 const SourceSchema = z.string().max(SOURCE_MAX_LENGTH, { error: `Source is longer than ${SOURCE_MAX_LENGTH} characters` })
 
@@ -31,14 +34,14 @@ export const LabCreateBody = z.object({
 export const MemberUpdateBody = z.object({ role: LabRoleSchema })
 
 export const SystemCreateBody = z.object({
-  title: TitleSchema,
+  title: SystemTitleSchema,
   slug: SlugSchema,
   source: SourceSchema.optional(),
 })
 
 /** Rename, or save a new revision of the source edited from `baseRevision`. */
 export const SystemUpdateBody = z.object({
-  title: TitleSchema.optional(),
+  title: SystemTitleSchema.optional(),
   source: SourceSchema.optional(),
   message: z.string().trim().max(500, { error: 'Use at most 500 characters' }).optional(),
   baseRevision: z.number().int().positive().optional(),

@@ -17,11 +17,19 @@ export interface ApiAnswer<T = any> {
   headers: Headers
 }
 
-/** `headers` adds request headers, e.g. `x-forwarded-for` to stand for a client address (the test server trusts its loopback proxy). */
+/** The site's own origin, which a browser sends as Origin with every write (see server/middleware/01.same-origin.ts). */
+export function siteOrigin(): string {
+  return new URL(url('/')).origin
+}
+
+/**
+ * Like the app's pages in a browser, sends the site's own Origin. `headers` adds or replaces request
+ * headers, e.g. `x-forwarded-for` to stand for a client address (the test server trusts its loopback proxy).
+ */
 export async function api<T = any>(path: string, options: { method?: string, body?: unknown, cookie?: string, headers?: Record<string, string> } = {}): Promise<ApiAnswer<T>> {
-  const headers: Record<string, string> = { accept: 'application/json', ...options.headers }
+  const headers: Record<string, string> = { accept: 'application/json', origin: siteOrigin(), ...options.headers }
   if (options.cookie) headers.cookie = options.cookie
-  if (options.body !== undefined) headers['content-type'] = 'application/json'
+  if (options.body !== undefined) headers['content-type'] ??= 'application/json'
   const response = await fetch(url(path), {
     method: options.method ?? 'GET',
     headers,

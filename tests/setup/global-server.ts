@@ -59,6 +59,9 @@ export default async function setup(project: TestProject) {
     NUXT_MAIL_CAPTURE_DIR: mail.dir,
     // Requests from the tests come over loopback; X-Forwarded-For then stands for a client address.
     NUXT_TRUSTED_PROXIES: '127.0.0.1,::1',
+    // Not production mode, despite NODE_ENV: the tests sign in with the demo accounts.
+    EQUIPOISE_PRODUCTION: '0',
+    // NUXT_PUBLIC_SITE_URL, the site origin, is set by startServerProcess to the address it serves.
   }
   let server: ServerProcess
   try {

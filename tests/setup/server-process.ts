@@ -31,11 +31,19 @@ async function waitUntilServing(url: string, child: ChildProcess, log: string[])
   throw new Error(`The built server did not answer at ${url}:\n${log.join('')}`)
 }
 
-/** Starts the built server with this environment (plus a free PORT) and resolves once it answers. */
+/**
+ * Starts the built server with this environment plus a free PORT and, as the
+ * site origin (links in mail, the same-origin check of writes), the address
+ * it serves; resolves once it answers.
+ */
 export async function startServerProcess(env: Record<string, string | undefined>, cwd: string): Promise<ServerProcess> {
   const port = await freePort()
   const log: string[] = []
-  const child = spawn(process.execPath, [BUILT_SERVER_ENTRY], { cwd, env: { ...env, PORT: String(port) }, stdio: ['ignore', 'pipe', 'pipe'] })
+  const child = spawn(process.execPath, [BUILT_SERVER_ENTRY], {
+    cwd,
+    env: { ...env, PORT: String(port), NUXT_PUBLIC_SITE_URL: `http://localhost:${port}` },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  })
   child.stdout?.on('data', (chunk) => log.push(String(chunk)))
   child.stderr?.on('data', (chunk) => log.push(String(chunk)))
   const stop = async () => {

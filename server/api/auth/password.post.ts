@@ -14,8 +14,12 @@ export default defineEventHandler(async (event) => {
   if (!row || !(await verifyPassword(row.passwordHash, body.currentPassword))) {
     throw createError({ statusCode: 400, message: 'currentPassword: The current password is not correct', data: { issues: [{ path: 'currentPassword', message: 'The current password is not correct' }] } })
   }
-  await db.update(tables.users).set({ passwordHash: await hashPassword(body.newPassword) }).where(eq(tables.users.id, user.id))
-  const otherSessionsEnded = await endOtherSessions(user.id, event)
-  await recordAudit({ actorId: user.id, labId: null, action: 'user.password-change', detail: { otherSessionsEnded } })
+  const passwordHash = await hashPassword(body.newPassword)
+  const otherSessionsEnded = await db.transaction(async (tx) => {
+    await tx.update(tables.users).set({ passwordHash }).where(eq(tables.users.id, user.id))
+    const ended = await endOtherSessions(user.id, event, tx)
+    await recordAudit(tx, { actorId: user.id, labId: null, action: 'user.password-change', detail: { otherSessionsEnded: ended } })
+    return ended
+  })
   return { changed: true, otherSessionsEnded }
 })

@@ -14,7 +14,7 @@ export default defineEventHandler(async (event) => {
     refuseForNow(event, `Too many registrations from your network in the last hour (at most ${REGISTRATIONS_PER_ADDRESS_PER_HOUR}).`, (counter!.firstAt.getTime() + 3600_000 - Date.now()) / 1000)
   }
   // Off the answer's path, so a known address answers as fast as a new one.
-  void requestRegistration(event, body).catch((error) => console.error('[register] could not process a registration:', error))
+  void requestRegistration(body).catch((error) => console.error('[register] could not process a registration:', error))
   setResponseStatus(event, 202)
   return { message: REGISTRATION_REQUESTED_MESSAGE }
 })

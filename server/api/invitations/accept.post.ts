@@ -12,7 +12,10 @@ export default defineEventHandler(async (event) => {
   if (open.invitation.email !== user.email.toLowerCase()) {
     throw createError({ statusCode: 403, message: `This invitation is for ${open.invitation.email}, and you are signed in as ${user.email}; sign out and sign in (or create an account) with ${open.invitation.email}` })
   }
-  const role = await acceptInvitation(open, user.id)
-  await recordAudit({ actorId: user.id, labId: open.lab.id, action: 'invitation.accept', detail: { invitationId: open.invitation.id, role } })
+  const role = await useDb().transaction(async (tx) => {
+    const role = await acceptInvitation(tx, open, user.id)
+    await recordAudit(tx, { actorId: user.id, labId: open.lab.id, action: 'invitation.accept', detail: { invitationId: open.invitation.id, role } })
+    return role
+  })
   return { lab: { slug: open.lab.slug, name: open.lab.name }, role }
 })

@@ -13,17 +13,19 @@ export default defineEventHandler(async (event) => {
   const taken = () => createError({ statusCode: 409, message: `An account with ${email} exists; sign in with it, then open the invitation link again` })
   const [existing] = await db.select({ id: tables.users.id }).from(tables.users).where(eq(tables.users.email, email))
   if (existing) throw taken()
-  let id: number
-  try {
-    const [inserted] = await db.insert(tables.users).values({ email, name: body.name, passwordHash: await hashPassword(body.password) }).$returningId()
-    id = inserted!.id
-  } catch (error) {
+  const passwordHash = await hashPassword(body.password)
+  // The account, its membership and both audit lines commit together: a used-up invitation leaves no account behind.
+  const { id, role } = await db.transaction(async (tx) => {
+    const [inserted] = await tx.insert(tables.users).values({ email, name: body.name, passwordHash }).$returningId()
+    const id = inserted!.id
+    await recordAudit(tx, { actorId: id, labId: null, action: 'user.register', detail: { via: 'invitation' } })
+    const role = await acceptInvitation(tx, open, id)
+    await recordAudit(tx, { actorId: id, labId: open.lab.id, action: 'invitation.accept', detail: { invitationId: open.invitation.id, role } })
+    return { id, role }
+  }).catch((error) => {
     if (isDuplicateKey(error)) throw taken()
     throw error
-  }
-  await recordAudit({ actorId: id, labId: null, action: 'user.register', detail: { via: 'invitation' } })
-  const role = await acceptInvitation(open, id)
-  await recordAudit({ actorId: id, labId: open.lab.id, action: 'invitation.accept', detail: { invitationId: open.invitation.id, role } })
+  })
   const user = { id, email, name: body.name }
   await startSession(event, user)
   setResponseStatus(event, 201)

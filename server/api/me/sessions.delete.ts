@@ -1,7 +1,10 @@
 /** DELETE /api/me/sessions — sign out every other session of the account; this one stays. */
 export default defineEventHandler(async (event) => {
   const user = await requireUser(event)
-  const ended = await endOtherSessions(user.id, event)
-  await recordAudit({ actorId: user.id, labId: null, action: 'user.sign-out-others', detail: { ended } })
+  const ended = await useDb().transaction(async (tx) => {
+    const ended = await endOtherSessions(user.id, event, tx)
+    await recordAudit(tx, { actorId: user.id, labId: null, action: 'user.sign-out-others', detail: { ended } })
+    return ended
+  })
   return { ended }
 })

@@ -14,7 +14,7 @@ const Body = z.object({ isAdmin: z.boolean({ error: 'isAdmin must be true or fal
  * so two administrators demoting each other at once cannot both succeed.
  * Answers the account as it was, or null when there is no such account.
  */
-async function setSiteAdmin(userId: number, isAdmin: boolean): Promise<{ email: string, wasAdmin: boolean } | null> {
+async function setSiteAdmin(actorId: number, userId: number, isAdmin: boolean): Promise<{ email: string, wasAdmin: boolean } | null> {
   return await useDb().transaction(async (tx) => {
     const [account] = await tx.select({ email: tables.users.email, isAdmin: tables.users.isAdmin })
       .from(tables.users).where(eq(tables.users.id, userId)).for('update')
@@ -23,7 +23,10 @@ async function setSiteAdmin(userId: number, isAdmin: boolean): Promise<{ email: 
       const admins = await tx.select({ id: tables.users.id }).from(tables.users).where(eq(tables.users.isAdmin, true)).for('update')
       if (admins.length <= 1) throw createError({ statusCode: 409, message: LAST_ADMIN_MESSAGE })
     }
-    if (account.isAdmin !== isAdmin) await tx.update(tables.users).set({ isAdmin }).where(eq(tables.users.id, userId))
+    if (account.isAdmin !== isAdmin) {
+      await tx.update(tables.users).set({ isAdmin }).where(eq(tables.users.id, userId))
+      await recordAudit(tx, { actorId, labId: null, action: isAdmin ? 'admin.grant' : 'admin.revoke', detail: { userId, email: account.email } })
+    }
     return { email: account.email, wasAdmin: account.isAdmin }
   })
 }
@@ -38,10 +41,7 @@ export default defineEventHandler(async (event) => {
   if (!actor.isAdmin) throw createError({ statusCode: 404, message: 'Page not found' })
   const params = validateParams(event, Params)
   const body = await validateBody(event, Body)
-  const before = await setSiteAdmin(params.user, body.isAdmin)
+  const before = await setSiteAdmin(actor.id, params.user, body.isAdmin)
   if (!before) throw createError({ statusCode: 404, message: 'No account has that id' })
-  if (before.wasAdmin !== body.isAdmin) {
-    await recordAudit({ actorId: actor.id, labId: null, action: body.isAdmin ? 'admin.grant' : 'admin.revoke', detail: { userId: params.user, email: before.email } })
-  }
   return { user: { id: params.user, isAdmin: body.isAdmin } }
 })

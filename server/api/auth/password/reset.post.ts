@@ -6,7 +6,6 @@ import { PasswordResetBody } from '#shared/utils/invitation-schemas'
 
 export default defineEventHandler(async (event) => {
   const body = await validateBody(event, PasswordResetBody)
-  const userId = await resetPassword(body.token, await hashPassword(body.password))
-  await recordAudit({ actorId: userId, labId: null, action: 'user.password-reset' })
+  await resetPassword(body.token, await hashPassword(body.password))
   return { changed: true }
 })

@@ -4,7 +4,6 @@ import { RegisterConfirmBody } from '#shared/utils/invitation-schemas'
 export default defineEventHandler(async (event) => {
   const { token } = await validateBody(event, RegisterConfirmBody)
   const user = await confirmRegistration(token)
-  await recordAudit({ actorId: user.id, labId: null, action: 'user.register' })
   await startSession(event, user)
   setResponseStatus(event, 201)
   return { user: { ...user, isAdmin: false } }

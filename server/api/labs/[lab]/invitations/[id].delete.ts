@@ -11,10 +11,12 @@ const Params = z.object({
 export default defineEventHandler(async (event) => {
   const params = validateParams(event, Params)
   const { lab, user } = await requireLabRole(event, params.lab, 'owner')
-  // Marked, not deleted: a withdrawn invitation still counts against the hourly limit (limits.ts).
-  const [result] = await useDb().update(tables.invitations).set({ withdrawnAt: new Date() })
-    .where(and(eq(tables.invitations.id, params.id), eq(tables.invitations.labId, lab.id), isNull(tables.invitations.withdrawnAt)))
-  if (result.affectedRows !== 1) throw createError({ statusCode: 404, message: 'No such invitation in this lab' })
-  await recordAudit({ actorId: user.id, labId: lab.id, action: 'invitation.withdraw', detail: { invitationId: params.id } })
+  await useDb().transaction(async (tx) => {
+    // Marked, not deleted: a withdrawn invitation still counts against the hourly limit (limits.ts).
+    const [result] = await tx.update(tables.invitations).set({ withdrawnAt: new Date() })
+      .where(and(eq(tables.invitations.id, params.id), eq(tables.invitations.labId, lab.id), isNull(tables.invitations.withdrawnAt)))
+    if (result.affectedRows !== 1) throw createError({ statusCode: 404, message: 'No such invitation in this lab' })
+    await recordAudit(tx, { actorId: user.id, labId: lab.id, action: 'invitation.withdraw', detail: { invitationId: params.id } })
+  })
   return { withdrawn: true }
 })

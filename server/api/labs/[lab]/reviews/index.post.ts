@@ -43,18 +43,21 @@ export default defineEventHandler(async (event) => {
   if (same) {
     throw createError({ statusCode: 409, message: `${member.name} already has this review open (review ${same.id}); add a comment there instead`, data: { reviewId: same.id } })
   }
-  const [inserted] = await useDb().insert(tables.reviews).values({
-    labId: lab.id,
-    systemId: system.id,
-    fromRevisionId: from.id,
-    toRevisionId: to.id,
-    requestedBy: user.id,
-    reviewerId: body.reviewerId,
-    note: body.note ?? '',
-  }).$returningId()
-  const review = await findReview(lab.id, inserted!.id)
-  await recordAudit({ actorId: user.id, labId: lab.id, action: 'review.request', detail: { id: review.id, slug: system.slug, from: from.number, to: to.number, reviewerId: body.reviewerId } })
-  await mailReviewRequested(event, review, user.name)
+  const reviewId = await useDb().transaction(async (tx) => {
+    const [inserted] = await tx.insert(tables.reviews).values({
+      labId: lab.id,
+      systemId: system.id,
+      fromRevisionId: from.id,
+      toRevisionId: to.id,
+      requestedBy: user.id,
+      reviewerId: body.reviewerId,
+      note: body.note ?? '',
+    }).$returningId()
+    await recordAudit(tx, { actorId: user.id, labId: lab.id, action: 'review.request', detail: { id: inserted!.id, slug: system.slug, from: from.number, to: to.number, reviewerId: body.reviewerId } })
+    return inserted!.id
+  })
+  const review = await findReview(lab.id, reviewId)
+  await mailReviewRequested(review, user.name)
   setResponseStatus(event, 201)
   return { review }
 })

@@ -15,28 +15,34 @@ export default defineEventHandler(async (event) => {
   if (body.source !== undefined && body.baseRevision !== latest.number) {
     throw staleRevisionError(latest, await authorNameOf(latest), body.baseRevision!, body.source)
   }
-  if (body.title !== undefined && body.title !== system.title) {
-    await db.update(tables.systems).set({ title: body.title }).where(eq(tables.systems.id, system.id))
-    await recordAudit({ actorId: user.id, labId: lab.id, action: 'system.rename', detail: { slug: system.slug, from: system.title, to: body.title } })
-  }
-  let current = latest
-  let authorName: string | null = null
-  if (body.source !== undefined) {
-    current = await addRevision({
+  // The rename, the new revision and their audit lines commit together or not at all.
+  const revised = await db.transaction(async (tx) => {
+    if (body.title !== undefined && body.title !== system.title) {
+      await tx.update(tables.systems).set({ title: body.title }).where(eq(tables.systems.id, system.id))
+      await recordAudit(tx, { actorId: user.id, labId: lab.id, action: 'system.rename', detail: { slug: system.slug, from: system.title, to: body.title } })
+    }
+    if (body.source === undefined) return null
+    const revision = await addRevision(tx, {
       systemId: system.id,
       number: latest.number + 1,
       parentId: latest.id,
       source: body.source,
       authorId: user.id,
       message: body.message ?? '',
-    }).catch(async (error) => {
-      // Two saves from the same base at once: the unique (system, number) index lets one win.
-      if (!isDuplicateKey(error)) throw error
-      const winner = await findRevision(system.id, latest.number + 1)
-      throw staleRevisionError(winner, await authorNameOf(winner), latest.number, body.source!)
     })
+    await recordAudit(tx, { actorId: user.id, labId: lab.id, action: 'system.revise', detail: { slug: system.slug, number: revision.number } })
+    return revision
+  }).catch(async (error) => {
+    // Two saves from the same base at once: the unique (system, number) index lets one win.
+    if (!isDuplicateKey(error)) throw error
+    const winner = await findRevision(system.id, latest.number + 1)
+    throw staleRevisionError(winner, await authorNameOf(winner), latest.number, body.source!)
+  })
+  let current = latest
+  let authorName: string | null = null
+  if (revised) {
+    current = revised
     authorName = user.name
-    await recordAudit({ actorId: user.id, labId: lab.id, action: 'system.revise', detail: { slug: system.slug, number: current.number } })
   } else if (latest.authorId) {
     const [author] = await db.select({ name: tables.users.name }).from(tables.users).where(eq(tables.users.id, latest.authorId))
     authorName = author?.name ?? null

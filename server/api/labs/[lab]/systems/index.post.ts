@@ -7,18 +7,17 @@ export default defineEventHandler(async (event) => {
   const body = await validateBody(event, SystemCreateBody)
   const source = body.source?.trim() ? body.source : starterSource(body.title)
   const db = useDb()
-  let systemId: number
-  try {
-    const [inserted] = await db.insert(tables.systems).values({ labId: lab.id, slug: body.slug, title: body.title, createdBy: user.id }).$returningId()
-    systemId = inserted!.id
-  } catch (error) {
+  const revision = await db.transaction(async (tx) => {
+    const [inserted] = await tx.insert(tables.systems).values({ labId: lab.id, slug: body.slug, title: body.title, createdBy: user.id }).$returningId()
+    const first = await addRevision(tx, { systemId: inserted!.id, number: 1, parentId: null, source, authorId: user.id, message: 'Created' })
+    await recordAudit(tx, { actorId: user.id, labId: lab.id, action: 'system.create', detail: { slug: body.slug } })
+    return first
+  }).catch((error) => {
     if (isDuplicateKey(error)) {
       throw createError({ statusCode: 409, message: `${lab.name} already has a system at "${body.slug}"; choose another address`, data: { issues: [{ path: 'slug', message: 'Already used in this lab; choose another' }] } })
     }
     throw error
-  }
-  const revision = await addRevision({ systemId, number: 1, parentId: null, source, authorId: user.id, message: 'Created' })
-  await recordAudit({ actorId: user.id, labId: lab.id, action: 'system.create', detail: { slug: body.slug } })
+  })
   setResponseStatus(event, 201)
   return { system: { slug: body.slug, title: body.title, isLibrary: false, latest: revisionView(revision, user.name) } }
 })

@@ -23,8 +23,10 @@ export default defineEventHandler(async (event) => {
   if (body.line > lines) {
     throw createError({ statusCode: 400, message: `Revision ${revision!.number} has ${lines} lines; choose a line from 1 to ${lines}`, data: { issues: [{ path: 'line', message: `Choose a line from 1 to ${lines}` }] } })
   }
-  const [inserted] = await useDb().insert(tables.reviewComments).values({ reviewId: review.id, authorId: user.id, side: body.side, line: body.line, body: body.body }).$returningId()
-  await recordAudit({ actorId: user.id, labId: lab.id, action: 'review.comment', detail: { id: review.id, comment: inserted!.id } })
+  await useDb().transaction(async (tx) => {
+    const [inserted] = await tx.insert(tables.reviewComments).values({ reviewId: review.id, authorId: user.id, side: body.side, line: body.line, body: body.body }).$returningId()
+    await recordAudit(tx, { actorId: user.id, labId: lab.id, action: 'review.comment', detail: { id: review.id, comment: inserted!.id } })
+  })
   setResponseStatus(event, 201)
   return { comments: await listComments(review.id) }
 })

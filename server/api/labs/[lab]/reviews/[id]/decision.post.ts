@@ -23,11 +23,13 @@ export default defineEventHandler(async (event) => {
   if (review.reviewer.id !== user.id) {
     throw createError({ statusCode: 403, message: `This review was asked of ${review.reviewer.name}; only they can approve it or ask for changes` })
   }
-  await useDb().update(tables.reviews)
-    .set({ state: body.decision, decisionNote: body.note ?? '', decidedAt: new Date() })
-    .where(eq(tables.reviews.id, review.id))
+  await useDb().transaction(async (tx) => {
+    await tx.update(tables.reviews)
+      .set({ state: body.decision, decisionNote: body.note ?? '', decidedAt: new Date() })
+      .where(eq(tables.reviews.id, review.id))
+    await recordAudit(tx, { actorId: user.id, labId: lab.id, action: 'review.decide', detail: { id: review.id, decision: body.decision } })
+  })
   const decided = await findReview(lab.id, review.id)
-  await recordAudit({ actorId: user.id, labId: lab.id, action: 'review.decide', detail: { id: review.id, decision: body.decision } })
-  await mailReviewDecided(event, decided)
+  await mailReviewDecided(decided)
   return { review: decided }
 })

@@ -13,8 +13,10 @@ export default defineEventHandler(async (event) => {
   const { system, lab, user, latest } = await requireSystem(event, params.lab, params.system, 'editor')
   const { isLibrary } = await validateBody(event, LibraryMarkBody)
   if (isLibrary !== system.isLibrary) {
-    await useDb().update(tables.systems).set({ isLibrary }).where(eq(tables.systems.id, system.id))
-    await recordAudit({ actorId: user.id, labId: lab.id, action: isLibrary ? 'library.mark' : 'library.unmark', detail: { slug: system.slug } })
+    await useDb().transaction(async (tx) => {
+      await tx.update(tables.systems).set({ isLibrary }).where(eq(tables.systems.id, system.id))
+      await recordAudit(tx, { actorId: user.id, labId: lab.id, action: isLibrary ? 'library.mark' : 'library.unmark', detail: { slug: system.slug } })
+    })
   }
   return { system: { slug: system.slug, title: system.title, isLibrary, latestRevision: latest.number } }
 })
