@@ -76,7 +76,16 @@ async function main() {
   const httpPort = await freePort()
   const server = spawn(process.execPath, [entry], {
     cwd: root,
-    env: { ...process.env, NODE_ENV: 'production', PORT: String(httpPort), NUXT_DATABASE_URL: DATABASE_URL, NUXT_SESSION_PASSWORD: `load-check-${Date.now()}-only-for-this-run-xxxxxxxx` },
+    env: {
+      ...process.env,
+      NODE_ENV: 'production',
+      // Not production mode: this check signs in as a demo account on the local database.
+      EQUIPOISE_PRODUCTION: '0',
+      PORT: String(httpPort),
+      NUXT_PUBLIC_SITE_URL: `http://localhost:${httpPort}`,
+      NUXT_DATABASE_URL: DATABASE_URL,
+      NUXT_SESSION_PASSWORD: `load-check-${Date.now()}-only-for-this-run-xxxxxxxx`,
+    },
     stdio: 'ignore',
   })
   const base = `http://localhost:${httpPort}`
