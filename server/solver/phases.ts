@@ -3,6 +3,7 @@
  * Newton solve. Add the most supersaturated solid, drop one whose amount goes
  * negative, repeat until neither happens; a set seen twice is a cycle.
  */
+import { Matrix, solve } from 'ml-matrix'
 import { MODE_TOTAL, type Problem } from './problem'
 import { newton } from './newton'
 import { estimateJoining, joinIndependent } from './joining'
@@ -211,19 +212,52 @@ function restore(state: SolverState, from: Snapshot): void {
 }
 
 /**
- * Takes out one present solid (the smallest amount first) so that `added` can
- * stay, choosing a set not tried before; false when every choice was tried.
+ * Takes out one present solid so that `added` can stay, choosing a set not
+ * tried before; false when every choice was tried. When the added solid's
+ * stoichiometry over the mass balances combines those of the present ones
+ * (ν_added = Σ c_k ν_k), the solid to leave is the one a growing amount of
+ * the added solid would use up first (smallest n_k / c_k over c_k > 0, the
+ * ratio test of the simplex method), so every amount stays non-negative;
+ * then the others, smallest amount first.
  */
 function swapOut(p: Problem, state: SolverState, added: number, seen: Set<string>): boolean {
   const present: number[] = []
   for (let s = 0; s < p.nsol; s++) if (state.active[s] && s !== added) present.push(s)
-  present.sort((a, b) => state.n[a] - state.n[b])
-  for (const k of present) {
+  const order = ratioOrder(p, state, added, present)
+  for (const k of present.sort((a, b) => state.n[a] - state.n[b])) if (!order.includes(k)) order.push(k)
+  for (const k of order) {
     state.active[k] = 0
     if (remember(seen, state.active)) { state.n[k] = 0; return true }
     state.active[k] = 1
   }
   return false
+}
+
+/** Present solids in the order of the ratio test for `added` (see swapOut); empty when it is not a combination of them. */
+function ratioOrder(p: Problem, state: SolverState, added: number, present: number[]): number[] {
+  const rows: number[] = []
+  for (let j = 0; j < p.nc; j++) if (p.mode[j] === MODE_TOTAL) rows.push(j)
+  if (present.length === 0 || rows.length === 0) return []
+  const A = new Matrix(rows.length, present.length)
+  const b = new Matrix(rows.length, 1)
+  rows.forEach((j, r) => {
+    present.forEach((k, c) => A.set(r, c, p.solidNu[k * p.nc + j]))
+    b.set(r, 0, p.solidNu[added * p.nc + j])
+  })
+  let coefficients: Matrix
+  try {
+    coefficients = solve(A, b, true)
+  } catch {
+    return []
+  }
+  // Only a true combination: the fit must reproduce the added solid's stoichiometry.
+  const fit = A.mmul(coefficients)
+  for (let r = 0; r < rows.length; r++) if (Math.abs(fit.get(r, 0) - b.get(r, 0)) > 1e-9 * (1 + Math.abs(b.get(r, 0)))) return []
+  return present
+    .map((k, c) => ({ k, c: coefficients.get(c, 0) }))
+    .filter(({ c }) => c > 1e-9)
+    .sort((x, y) => Math.max(state.n[x.k], 0) / x.c - Math.max(state.n[y.k], 0) / y.c)
+    .map(({ k }) => k)
 }
 
 /** The equation and reason when a solid that had to be left out is still supersaturated at the end. */
