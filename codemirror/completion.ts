@@ -14,7 +14,7 @@ import { poiseSymbolsField } from './analysis'
 import { lexLine, type LineToken } from './language'
 
 /** Words that open a statement, in the order a file usually has them. */
-const STATEMENT_WORDS = ['system', 'temperature', 'activity', 'ionic-strength', 'ion-size', 'component', 'reaction', 'solid', 'source', 'use', 'sweep']
+const STATEMENT_WORDS = ['system', 'temperature', 'activity', 'ionic-strength', 'ion-size', 'component', 'reaction', 'solid', 'source', 'use', 'sweep', 'limit']
 const COMPONENT_SPECS = ['total', 'free', 'pH', 'pressure', 'balance', 'excess']
 const ACTIVITY_MODELS = ['ideal', 'davies', 'debye-huckel']
 const REACTION_TAIL = ['dH', 'cite']
@@ -95,9 +95,22 @@ export function planCompletion(before: LineToken[], symbols: readonly PoiseSymbo
       if (last.role === 'number' && quantity && !countsPoints) return unitsOf(quantity)
       return { kind: 'keyword', words: known(SWEEP_WORDS, KEYWORDS) }
     }
+    case 'limit': {
+      // `limit dissolved X N UNIT`: X a component (not H+) or an element one of them holds (not H or O).
+      if (before.length === 1) return { kind: 'keyword', words: known(['dissolved'], KEYWORDS) }
+      if (before.length === 2) return { kind: 'symbol', words: limitTargets(symbols) }
+      return before.length === 4 && last.role === 'number' ? unitsOf(AMOUNT) : null
+    }
     default:
       return null
   }
+}
+
+/** What a `limit dissolved` may name: the elements the components hold (H and O aside), then the components (H+ aside). */
+export function limitTargets(symbols: readonly PoiseSymbol[]): string[] {
+  const components = symbols.filter((s) => s.kind === 'component' && s.name !== 'H+')
+  const elements = [...new Set(components.flatMap((c) => Object.keys(c.elements)))].filter((e) => e !== 'H' && e !== 'O')
+  return [...elements, ...components.map((c) => c.name)]
 }
 
 function planReaction(before: LineToken[], symbols: readonly PoiseSymbol[]): CompletionPlan | null {
@@ -130,7 +143,7 @@ function toOptions(plan: CompletionPlan, symbols: readonly PoiseSymbol[]): Compl
   return [...new Set(plan.words)].map((word) => ({
     label: word,
     type: COMPLETION_TYPE[plan.kind],
-    detail: plan.kind === 'symbol' ? symbols.find((s) => s.name === word)?.kind : plan.kind === 'constantKind' ? 'constant' : undefined,
+    detail: plan.kind === 'symbol' ? (symbols.find((s) => s.name === word)?.kind ?? 'element') : plan.kind === 'constantKind' ? 'constant' : undefined,
   }))
 }
 

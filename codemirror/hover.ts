@@ -10,12 +10,13 @@ import { isWater, parseFormula, type ParsedFormula } from '../shared/poise/formu
 import { poiseSymbolsField } from './analysis'
 import { lexLine } from './language'
 import { typesetFormula } from '../shared/results/typeset'
+import { withoutCharge } from '../shared/poise/limitStatement'
 
 export interface SymbolDescription {
   /** Typeset name, e.g. `Cu(NH₃)₄²⁺`. */
   title: string
-  /** What the compiler made of it; `solvent` for water, `formula` when the compile did not reach it. */
-  kind: PoiseSymbol['kind'] | 'solvent' | 'formula'
+  /** What the compiler made of it; `solvent` for water, `formula` when the compile did not reach it, `limit` for the target of `limit dissolved`. */
+  kind: PoiseSymbol['kind'] | 'solvent' | 'formula' | 'limit'
   /** Element counts in the order the formula gives them. */
   composition: { element: string; count: number }[]
   /** Signed charge as chemists write it: `+2`, `0`, `−1`. */
@@ -90,13 +91,45 @@ export function findSymbol(symbols: readonly PoiseSymbol[], written: string): Po
   return symbols.find((symbol) => symbol.name === name)
 }
 
+/**
+ * The target of `limit dissolved X`: which dissolved total it caps and in
+ * which mass a mass unit counts it. Null when X is no element a component
+ * holds and no component (the checker says why).
+ */
+export function describeLimitTarget(symbols: readonly PoiseSymbol[], written: string): SymbolDescription | null {
+  const components = symbols.filter((s) => s.kind === 'component')
+  const parsed = parseFormula(written).formula
+  if (!parsed) return null
+  const component = findSymbol(components, written)
+  const element = !component && Object.keys(parsed.elements).length === 1 && parsed.charge === 0 && parsed.elements[written] === 1 ? written : null
+  const holders = element ? components.filter((c) => (c.elements[element] ?? 0) > 0) : []
+  if (!component && holders.length === 0) return null
+  return {
+    title: `dissolved ${typesetFormula(element ?? withoutCharge(component!.name))}`,
+    kind: 'limit',
+    composition: Object.entries(parsed.elements).map(([e, count]) => ({ element: e, count })),
+    charge: formatCharge(parsed.charge),
+    molarMass: element ? `${formatMolarMass(parsed.molarMass)} (a mass unit counts the element)` : `${formatMolarMass(component!.molarMass)} (a mass unit counts the whole ${typesetFormula(component!.name)})`,
+    formation: element
+      ? `the ${element} atoms of ${holders.map((c) => typesetFormula(c.name)).join(', ')} in every dissolved species; a solid's share is not counted`
+      : `Σ ν·c of ${typesetFormula(component!.name)} over the dissolved species; a solid's share is not counted`,
+    ionSize: null,
+  }
+}
+
 /** The description of the species under document position `pos`, with the formula's range. */
 export function symbolAt(state: EditorState, pos: number): { from: number; to: number; description: SymbolDescription } | null {
   const line = state.doc.lineAt(pos)
   const offset = pos - line.from
-  const token = lexLine(line.text).find((t) => t.role === 'formula' && t.from <= offset && offset <= t.to)
+  const tokens = lexLine(line.text)
+  const token = tokens.find((t) => t.role === 'formula' && t.from <= offset && offset <= t.to)
   if (!token) return null
-  const symbol = findSymbol(state.field(poiseSymbolsField, false) ?? [], token.image)
+  const symbols = state.field(poiseSymbolsField, false) ?? []
+  if (tokens[0]?.image === 'limit' && tokens[2] === token) {
+    const target = describeLimitTarget(symbols, token.image)
+    if (target) return { from: line.from + token.from, to: line.from + token.to, description: target }
+  }
+  const symbol = findSymbol(symbols, token.image)
   const formula = symbol ? null : parseFormula(token.image).formula
   const description = symbol ? describeSymbol(symbol) : formula ? describeFormula(formula) : null
   if (!description) return null
@@ -110,6 +143,7 @@ const KIND_LABEL: Record<SymbolDescription['kind'], string> = {
   gas: 'gas',
   solvent: 'solvent',
   formula: 'not defined yet',
+  limit: 'what the limit caps',
 }
 
 function renderDescription(description: SymbolDescription): HTMLElement {

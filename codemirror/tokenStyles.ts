@@ -59,6 +59,8 @@ export const TOKEN_STYLES: Readonly<Record<string, TokenStyle | null>> = {
   SourceKeyword: statement,
   UseKeyword: statement,
   SweepKeyword: statement,
+  LimitKeyword: statement,
+  DissolvedKeyword: keyword,
   TotalKeyword: keyword,
   FreeKeyword: keyword,
   PHKeyword: keyword,

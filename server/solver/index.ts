@@ -12,6 +12,7 @@ import { RESIDUAL_TOLERANCE } from './newton'
 import { computeSpecies } from './equations'
 import { MIN_NONZERO_TOTAL, MODE_BALANCE, MODE_TOTAL, buildProblem, setComponent, setTemperature, type Problem } from './problem'
 import { buildResult } from './report'
+import { limitWindows } from './limits'
 
 /** Stored with every run, so a result can be traced to the solver that made it. */
 export const SOLVER_VERSION = '1.1.0'
@@ -412,6 +413,27 @@ function sweepComponentIndex(model: Model): { index: number } | { error: string 
 }
 
 /**
+ * One solve of the model at sweep value v (the swept variable set to v; for
+ * temperature, every constant moved to it), from a cold start. The limit
+ * windows locate their ends with it. Never throws.
+ */
+export function solveAtSweepValue(model: Model, v: number, options?: SolveOptions): Result {
+  try {
+    const built = buildProblem(model)
+    if ('error' in built) return unsolvable(model, built.error)
+    const p = built.problem
+    const target = sweepComponentIndex(model)
+    if ('error' in target) return unsolvable(model, `The sweep cannot run: ${target.error}.`)
+    const bad = applySweepValue(p, model.sweep!.variable, target.index, v)
+    if (bad) return unsolvable(model, `This sweep value cannot be solved: ${bad}.`)
+    const ws = new Workspace(p)
+    return solveProblem(ws, newState(p), { maxIterations: iterationsOf(options), ...guardOf(options) }, []).result
+  } catch (error) {
+    return internalFailure(model, error)
+  }
+}
+
+/**
  * The model's sweep: each point starts from a prediction through the
  * previous converged points, or else from the last one (continuation);
  * a point that fails is marked converged:false with its reason and the sweep
@@ -455,6 +477,8 @@ export function sweep(model: Model, options?: SolveOptions): SweepResult {
       }
       base.points.push(out.result)
     }
+    // Limit windows: their ends located by exact solves between the grid points.
+    if (model.limits?.length) base.limits = limitWindows(model, base, (v) => solveAtSweepValue(model, v, options))
     return base
   } catch (error) {
     return { ...base, points: [internalFailure(model, error)] }

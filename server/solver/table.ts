@@ -6,6 +6,7 @@ import type { Model } from '../../shared/poise/model'
 import type { Result, SweepResult } from '../../shared/types/result'
 import { dissolvedText } from '../../shared/results/names'
 import { MOLAR_SCALE, type UnitScale } from '../../shared/results/units'
+import { limitSentence } from '../../shared/results/limits'
 
 const exp = (v: number) => (v === 0 ? '0' : v.toExponential(3))
 const fixed = (v: number, d: number) => v.toFixed(d)
@@ -72,5 +73,6 @@ export function formatSweepTable(model: Model, s: SweepResult, scale: UnitScale 
     })
     rows.push([String(s.values[k]), fixed(p.pH, 3), exp(p.ionicStrength), ...dissolved, present, p.converged ? 'ok' : `failed: ${p.reason ?? ''}`])
   })
-  return [model.title, '', align(rows)].join('\n')
+  const limits = (s.limits ?? []).flatMap((w) => [`limit: ${limitSentence(s, w)}`, ...(w.note ? [`  (${w.note})`] : [])])
+  return [model.title, '', align(rows), ...(limits.length ? ['', ...limits] : [])].join('\n')
 }

@@ -3,7 +3,7 @@
  * problem becomes a diagnostic; nothing here throws to the caller (index.ts
  * turns even an internal bug into a diagnostic).
  */
-import type { Model, ModelComponent, ModelGas, ModelReaction, ModelSolid, ModelSpecies, ModelSweep, ActivityModelName, ConstantKind } from './model'
+import type { Model, ModelComponent, ModelGas, ModelLimit, ModelReaction, ModelSolid, ModelSpecies, ModelSweep, ActivityModelName, ConstantKind } from './model'
 import type { Diagnostic, SourceRange } from './diagnostics'
 import { parseFormula, type ParsedFormula } from './formula'
 import { Reporter } from './report'
@@ -11,6 +11,7 @@ import { parseFile, type Statement, type Tok } from './statements'
 import { checkComponent } from './components'
 import { checkBalance, kindMismatch, logKFromConstant, resolveReactions, type Known, type PreparedReaction, type PreparedTerm, type ReactionStatement } from './reactions'
 import { compileSweep } from './sweep'
+import { compileLimit } from './limitStatement'
 import { convert, unitInfo, UNIT_HINTS } from './units'
 import { REFERENCE_TEMPERATURE_C, vantHoff } from './thermo'
 import { checkRange } from './limits'
@@ -243,6 +244,13 @@ export function compileSource(source: string, options: CompileOptions, stack: st
   let sweep: ModelSweep | null = null
   // With a component missing, a sweep check would only add confusing errors.
   if (sweepStmt && !incomplete) sweep = compileSweep(sweepStmt, components, report)
+  const limits: ModelLimit[] = []
+  if (!incomplete) {
+    for (const l of of('limit')) {
+      const limit = compileLimit(l, components, sweepStmt !== undefined, report)
+      if (limit) limits.push(limit)
+    }
+  }
 
   const model = buildModel()
   const symbols = buildSymbols()
@@ -282,6 +290,7 @@ export function compileSource(source: string, options: CompileOptions, stack: st
     return {
       title: of('system')[0]?.title ?? '', temperatureC, refTemperatureC: REFERENCE_TEMPERATURE_C, activity, fixedIonicStrength,
       components, species, solids, gases, reactions, sweep, sources, libraries,
+      ...(limits.length ? { limits } : {}),
     }
   }
 

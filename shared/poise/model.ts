@@ -127,6 +127,28 @@ export interface ModelSweep {
   line: number
 }
 
+/**
+ * `limit dissolved X N UNIT`: a ceiling on a dissolved total, read along the
+ * sweep. The quantity in mol/L at an answer is Σ_j weights[j] ×
+ * components[j].dissolved: for an element, how many of its atoms each
+ * component holds; for a component, 1 for it and 0 for the others.
+ */
+export interface ModelLimit {
+  /** In words, e.g. `dissolved Ni` (the element, or the component without its charge). */
+  quantity: string
+  /** As written, in caret form: `Ni` or `Ni^2+`. */
+  target: string
+  targetKind: 'element' | 'component'
+  /** The number and unit as written (`1`, `mg/L`). */
+  value: number
+  unit: string
+  /** The limit in mol/L: of atoms of the element, or of the component's formula units. */
+  molPerLitre: number
+  /** Over `model.components`, same order and length. */
+  weights: number[]
+  line: number
+}
+
 export type { IonSizeSource }
 
 export interface Model {
@@ -143,6 +165,8 @@ export interface Model {
   gases: ModelGas[]
   reactions: ModelReaction[]
   sweep: ModelSweep | null
+  /** `limit` statements of the file; absent when it has none (and in models stored before limits existed). */
+  limits?: ModelLimit[]
   /** `source KEY "text"` entries, the file's and its libraries'. */
   sources: Record<string, string>
   /** Libraries resolved through `use`, with the revision actually used. */

@@ -23,7 +23,7 @@ function alternatives(paths: TokenType[][][]): string {
 }
 
 const RULE_NAMES: Record<string, string> = {
-  statement: 'a statement (system, temperature, activity, ionic-strength, ion-size, component, reaction, solid, source, use or sweep)',
+  statement: 'a statement (system, temperature, activity, ionic-strength, ion-size, component, reaction, solid, source, use, sweep or limit)',
   componentSpec: 'a component spec (total, free, pH, pressure, balance or excess)',
   sweepVariable: 'a sweep variable (pH, total F, temperature or pressure F)',
 }
@@ -56,6 +56,7 @@ class PoiseParser extends CstParser {
     { ALT: () => this.SUBRULE(this.sourceStatement) },
     { ALT: () => this.SUBRULE(this.useStatement) },
     { ALT: () => this.SUBRULE(this.sweepStatement) },
+    { ALT: () => this.SUBRULE(this.limitStatement) },
   ]
   private readonly activityAlts = [
     { ALT: () => this.CONSUME(T.IdealKeyword) },
@@ -213,6 +214,14 @@ class PoiseParser extends CstParser {
     this.SUBRULE2(this.quantity)
     this.OR(this.sweepSpacingAlts)
     this.OPTION(this.logSpacing)
+  })
+
+  /** `limit dissolved X N UNIT`: X an element symbol (Ni) or a component (Ni^2+). */
+  private limitStatement = this.RULE('limitStatement', () => {
+    this.CONSUME(T.LimitKeyword)
+    this.CONSUME(T.DissolvedKeyword)
+    this.CONSUME(T.Formula)
+    this.SUBRULE(this.quantity)
   })
 
   private sweepVariable = this.RULE('sweepVariable', () => {

@@ -25,6 +25,7 @@ export type Statement = Base & (
   | { kind: 'solid'; formula: Tok }
   | { kind: 'source'; key: Tok; text: string }
   | { kind: 'use'; name: string; nameTok: Tok; revision: Quantity | null }
+  | { kind: 'limit'; dissolved: Tok; target: Tok; quantity: Quantity }
   | { kind: 'sweep'; variable: 'pH' | 'total' | 'temperature' | 'pressure'; variableTok: Tok; target: Tok | null; start: Quantity; end: Quantity; step: Quantity | null; points: Quantity | null; log: boolean }
 )
 
@@ -131,6 +132,11 @@ function toStatement(cst: CstNode, from: number, to: number): Statement {
       const rev = maybeToken(inner, 'Number')
       return { kind: 'use', from, to, keyword: kw('UseKeyword'), name: unquote(s.image), nameTok: tok(s), revision: rev ? numberQuantity(rev) : null }
     }
+    case 'limitStatement':
+      return {
+        kind: 'limit', from, to, keyword: kw('LimitKeyword'), dissolved: kw('DissolvedKeyword'),
+        target: tok(token(inner, 'Formula')), quantity: quantity(node(inner, 'quantity')),
+      }
     case 'sweepStatement': {
       const v = node(inner, 'sweepVariable')
       const vKey = Object.keys(v.children).find((k) => k.endsWith('Keyword'))!

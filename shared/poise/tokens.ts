@@ -110,6 +110,8 @@ export const ToKeyword = keyword('ToKeyword', 'to')
 export const StepKeyword = keyword('StepKeyword', 'step')
 export const PointsKeyword = keyword('PointsKeyword', 'points')
 export const LogKeyword = keyword('LogKeyword', 'log')
+export const LimitKeyword = keyword('LimitKeyword', 'limit')
+export const DissolvedKeyword = keyword('DissolvedKeyword', 'dissolved')
 
 /** A chemical formula: starts with an upper-case letter; its inside is checked by formula.ts. */
 export const Formula = createToken({
@@ -125,7 +127,7 @@ export const KEYWORD_TOKENS: TokenType[] = [
   ReactionKeyword, SolidKeyword, SourceKeyword, UseKeyword, SweepKeyword, TotalKeyword, FreeKeyword,
   PHKeyword, PressureKeyword, BalanceKeyword, ExcessKeyword, SuppressedKeyword, IdealKeyword,
   DaviesKeyword, DebyeHuckelKeyword, EnthalpyKeyword, CiteKeyword, FromKeyword, ToKeyword,
-  StepKeyword, PointsKeyword, LogKeyword,
+  StepKeyword, PointsKeyword, LogKeyword, LimitKeyword, DissolvedKeyword,
 ]
 
 /** Order matters: the first pattern that matches wins (keywords before Word, units before Formula). */

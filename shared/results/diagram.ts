@@ -9,7 +9,8 @@
  * a plausible-looking curve through a value nobody computed.
  */
 
-import type { Result, SweepResult } from '../types/result'
+import type { LimitWindow, Result, SweepResult } from '../types/result'
+import type { ModelLimit } from '../poise/model'
 import { dissolvedTotal, speciesShares, type StoichiometryModel } from './share'
 import { typesetFormula } from './typeset'
 import { dissolvedLabel } from './names'
@@ -297,4 +298,40 @@ export function diagramRows(data: DiagramData): DiagramRow[] {
   return data.series.flatMap((s) =>
     data.x.map((x, k) => ({ x, y: s.values[k] ?? Number.NaN, key: s.key, label: s.label })),
   )
+}
+
+/** What a diagram draws for the limits of a sweep: a band over each range where a limit holds, and the limit as a line. */
+export interface LimitOverlay {
+  /** [from, to] of the swept variable, one per range of every limit. */
+  bands: { from: number; to: number; label: string }[]
+  /** Horizontal lines, in the diagram's y units (log10 of the shown unit); only where the y axis is the capped quantity. */
+  lines: { y: number; label: string }[]
+}
+
+/**
+ * The limit overlay of a diagram. Bands on every kind; a line only on the
+ * solubility diagram of the component the limit caps (alone, so its
+ * dissolved total is the limited quantity up to a whole coefficient).
+ */
+export function limitOverlay(
+  data: DiagramData,
+  windows: LimitWindow[] | undefined,
+  limits: Pick<ModelLimit, 'weights' | 'molPerLitre' | 'quantity'>[] | undefined,
+  model: StoichiometryModel,
+  component: string | null,
+  scale: UnitScale = MOLAR_SCALE,
+): LimitOverlay {
+  const overlay: LimitOverlay = { bands: [], lines: [] }
+  ;(windows ?? []).forEach((w, i) => {
+    const words = `${w.quantity} ≤ ${w.value} ${w.unit}`
+    for (const [from, to] of w.ranges) overlay.bands.push({ from, to, label: words })
+    const limit = limits?.[i]
+    if (data.kind !== 'solubility' || !limit || !component) return
+    const j = model.components.findIndex((c) => c.name === component)
+    const held = limit.weights.flatMap((weight, k) => (weight !== 0 ? [k] : []))
+    if (j < 0 || held.length !== 1 || held[0] !== j) return
+    const y = Math.log10((limit.molPerLitre / limit.weights[j]!) * (scale.component(component) ?? Number.NaN))
+    if (Number.isFinite(y)) overlay.lines.push({ y, label: words })
+  })
+  return overlay
 }

@@ -6,11 +6,10 @@
  * both.
  */
 import { typesetFormula } from './typeset'
+import { withoutCharge } from '../poise/limitStatement'
 
 /** The formula of a component without its charge and phase: `Ni^2+` → `Ni`, `SO4^2-` → `SO4`, `H+` → `H`. */
-export function componentCore(name: string): string {
-  return name.trim().replace(/\((?:s|g|aq|l)\)$/, '').replace(/\^\d*[+-]$/, '').replace(/(?<=[A-Za-z0-9)\]])[+-]$/, '')
-}
+export const componentCore = withoutCharge
 
 /** "free Ni²⁺": the component's free form. */
 export function freeLabel(component: string): string {

@@ -86,9 +86,30 @@ export interface Result {
   warnings?: string[]
 }
 
+/**
+ * Where along a sweep a `limit dissolved X N UNIT` holds: the ranges of the
+ * swept variable (its own units: pH, mol/L, °C, atm) over which the quantity
+ * is at or below the limit. An end inside the sweep is located by exact
+ * solves (bisection) to better than 0.001 of the variable, on the side where
+ * the limit holds; an end at the sweep's first or last value is that value.
+ */
+export interface LimitWindow {
+  /** In words: `dissolved Ni`. */
+  quantity: string
+  /** The limit as written: `1`, `mg/L`. */
+  value: number
+  unit: string
+  /** [from, to] with from ≤ to, in increasing order; empty when the limit holds nowhere. */
+  ranges: [number, number][]
+  /** Set when an end could not be located exactly (a solve failed): what was done instead. */
+  note?: string
+}
+
 export interface SweepResult {
   variable: 'pH' | 'total' | 'temperature' | 'pressure'
   component: string | null
   values: number[]
   points: Result[]
+  /** One entry per `limit` statement of the model, in file order; absent when it has none. */
+  limits?: LimitWindow[]
 }

@@ -113,4 +113,17 @@ reaction `
     const labels = completionsAt(state, doc.length, false)!.options.map((o) => o.label)
     expect(labels).toEqual(expect.arrayContaining(['Ca^2+', 'CO3^2-', 'H+', 'OH-', 'HCO3-']))
   })
+
+  it('completes a limit: dissolved, then an element a component holds or a component, then a concentration unit', () => {
+    expect(offered('lim|')).toContain('limit')
+    expect(offered('limit |')).toEqual(['dissolved'])
+    const state = EditorState.create({ doc: 'limit dissolved ', extensions: [poiseSymbolsField] })
+      .update({ effects: setPoiseSymbols.of(compile('system "t"\ncomponent H+ pH 7\ncomponent Ni^2+ total 1 mmol/L\ncomponent SO4^2- total 1 mmol/L\n').symbols) }).state
+    expect(completionsAt(state, 16, true)!.options.map((o) => o.label)).toEqual(['Ni', 'S', 'Ni^2+', 'SO4^2-'])
+    const units = offered('limit dissolved Ni 1 |')!
+    expect(units).toContain('mg/L')
+    expect(units).toContain('µmol/L')
+    expect(units).not.toContain('atm')
+  })
 })
+

@@ -94,3 +94,23 @@ describe('hover on a species', () => {
     expect(symbolAt(state, plating.indexOf('13.0') + 1)).toBeNull()
   })
 })
+
+describe('hover on the target of a limit', () => {
+  const text = plating + 'sweep pH from 7 to 12 step 0.5\nlimit dissolved Cu 1 mg/L\nlimit dissolved NH3 10 mmol/L\n'
+  const result = compile(text)
+  const state = EditorState.create({ doc: text, extensions: [poiseSymbolsField] }).update({ effects: setPoiseSymbols.of(result.symbols) }).state
+
+  it('says an element counts its atoms in every dissolved species, by the element\'s weight (Cu 63.546 g/mol, IUPAC 2021)', () => {
+    const found = symbolAt(state, text.indexOf('limit dissolved Cu') + 16)!
+    expect(found.description.kind).toBe('limit')
+    expect(found.description.title).toBe('dissolved Cu')
+    expect(found.description.molarMass).toBe('63.546 g/mol (a mass unit counts the element)')
+    expect(found.description.formation).toBe('the Cu atoms of Cu²⁺ in every dissolved species; a solid\'s share is not counted')
+  })
+
+  it('says a component counts its dissolved total by its formula mass', () => {
+    const found = symbolAt(state, text.indexOf('limit dissolved NH3') + 17)!
+    expect(found.description.title).toBe('dissolved NH₃')
+    expect(found.description.molarMass).toBe('17.031 g/mol (a mass unit counts the whole NH₃)')
+  })
+})

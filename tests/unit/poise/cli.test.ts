@@ -4,7 +4,7 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { describe, expect, it } from 'vitest'
 import { CLEAN } from './helpers'
-import type { Result } from '../../../shared/types/result'
+import type { Result, SweepResult } from '../../../shared/types/result'
 
 const root = new URL('../../../', import.meta.url).pathname
 const tsx = join(root, 'node_modules/.bin/tsx')
@@ -86,5 +86,19 @@ describe('cli solve --units', { timeout: 120_000 }, () => {
     const r = run(['solve', p, '--units', 'ppm'])
     expect(r.code).toBe(2)
     expect(r.stderr).toContain('--units takes one of mol/L, mmol/L, µmol/L, mg/L, µg/L, not ppm')
+  })
+})
+
+describe('cli solve of a sweep with a limit', { timeout: 120_000 }, () => {
+  const p = join(root, 'examples/nickel-rinse-discharge.poise')
+
+  it('states the window in words under the table, and gives it in the JSON', () => {
+    const json = JSON.parse(run(['solve', p, '--json']).stdout) as SweepResult
+    expect(json.limits).toHaveLength(1)
+    const [[from, to]] = json.limits![0]!.ranges
+    const text = run(['solve', p, '--units', 'mg/L'])
+    expect(text.code).toBe(0)
+    expect(text.stdout).toContain(`limit: dissolved Ni ≤ 1 mg/L from pH ${from!.toFixed(2)} to ${to!.toFixed(2)}`)
+    expect(text.stdout).toMatch(/dissolved Ni mg\/L/)
   })
 })
