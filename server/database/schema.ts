@@ -9,6 +9,7 @@ import {
   text, uniqueIndex, varchar,
 } from 'drizzle-orm/mysql-core'
 import { LAB_ROLES } from '../../shared/utils/roles'
+import { API_TOKEN_SCOPES } from '../../shared/utils/token-schemas'
 
 const createdAt = datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`)
 
@@ -241,6 +242,27 @@ export const sessions = mysqlTable('sessions', {
 ])
 
 /**
+ * A personal API token (Authorization: Bearer) for scripts and the command
+ * line. Only the secret's sha256 is kept; the secret is shown once, when the
+ * token is made. A revoked token keeps its row (for the audit trail) with
+ * `revokedAt` set; see server/utils/api-tokens.ts.
+ */
+export const apiTokens = mysqlTable('api_tokens', {
+  id: int('id').autoincrement().primaryKey(),
+  userId: int('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  name: varchar('name', { length: 80 }).notNull(),
+  scope: mysqlEnum('scope', API_TOKEN_SCOPES).notNull(),
+  tokenHash: varchar('token_hash', { length: 64 }).notNull(),
+  lastUsedAt: datetime('last_used_at', { mode: 'date', fsp: 3 }),
+  expiresAt: datetime('expires_at', { mode: 'date', fsp: 3 }),
+  revokedAt: datetime('revoked_at', { mode: 'date', fsp: 3 }),
+  createdAt,
+}, (t) => [
+  uniqueIndex('api_tokens_token_unique').on(t.tokenHash),
+  index('api_tokens_user_idx').on(t.userId),
+])
+
+/**
  * Counters of the rate limits that must hold across restarts and server
  * processes (failed sign-ins per account and address, per address; see
  * server/utils/limits.ts). A counter starts over when its window has passed.
@@ -272,5 +294,6 @@ export const pendingRegistrations = mysqlTable('pending_registrations', {
 ])
 
 export type Session = typeof sessions.$inferSelect
+export type ApiToken = typeof apiTokens.$inferSelect
 export type PendingRegistration = typeof pendingRegistrations.$inferSelect
 export type ThrottleCounter = typeof throttleCounters.$inferSelect

@@ -4,9 +4,12 @@
  * before any route runs, so another site cannot make a signed-in person's
  * browser change things here. Browsers send Origin with every such request;
  * a request with neither header comes from a script or the command line,
- * which carries no one's cookie by accident, and is let through.
+ * which carries no one's cookie by accident, and is let through; so is a
+ * request with an API token (Authorization: Bearer) and no session cookie,
+ * which no other site can make a browser send.
  */
 import { WRITE_METHODS } from '../utils/request-limits'
+import { isBearerOnly } from '../utils/api-tokens'
 
 function originOf(value: string): string {
   try {
@@ -18,6 +21,7 @@ function originOf(value: string): string {
 
 export default defineEventHandler((event) => {
   if (!WRITE_METHODS.has(event.method)) return
+  if (isBearerOnly(event)) return
   const origin = getRequestHeader(event, 'origin')
   const referer = getRequestHeader(event, 'referer')
   const from = origin !== undefined ? origin : referer ? originOf(referer) : undefined

@@ -12,6 +12,8 @@
  */
 import type { IncomingMessage } from 'node:http'
 import type { H3Event } from 'h3'
+import { hasBearer } from '../utils/api-tokens'
+import { requireUser } from '../utils/current-user'
 import { BODY_LIMITS, bodyLimitFor, isUploadRoute, tooLargeMessage, WRITE_METHODS, type BodyLimit } from '../utils/request-limits'
 
 function tooLarge(limit: BodyLimit) {
@@ -29,6 +31,15 @@ function checkContentType(event: H3Event, path: string): void {
 }
 
 async function isSignedIn(event: H3Event): Promise<boolean> {
+  if (hasBearer(event)) {
+    // An API token counts when it is good; a read token refused a write (403) is still a signed-in caller.
+    try {
+      await requireUser(event)
+      return true
+    } catch (error) {
+      return (error as { statusCode?: number }).statusCode === 403
+    }
+  }
   const cookieName = (useRuntimeConfig().session as { name?: string } | undefined)?.name || 'nuxt-session'
   if (!getCookie(event, cookieName)) return false
   const session = await getUserSession(event)

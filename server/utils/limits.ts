@@ -81,3 +81,14 @@ export function refuseForNow(event: H3Event, what: string, seconds: number): nev
     data: { retryAfterSeconds: wait },
   })
 }
+
+/**
+ * Requests with an API token that is unknown, revoked or expired, per client
+ * address: like sign-in failures, a few are free, then each further one
+ * waits longer (a guesser cannot try many secrets; a script with an old
+ * token is told to stop).
+ */
+export const API_TOKEN_THROTTLE: FailureRule = { freeFailures: 10, firstDelaySeconds: 30, maxDelaySeconds: 15 * 60, forgetAfterMinutes: 60 }
+
+/** Live (not revoked, not expired) API tokens one account may hold. */
+export const API_TOKENS_PER_USER = 20

@@ -4,7 +4,7 @@
  * server that sends real mail, so it does not even reveal that it exists.
  */
 export default defineEventHandler(async (event) => {
-  const user = await requireUser(event)
+  const user = await requireBrowserUser(event, 'administer the site')
   const dir = mailCaptureDir()
   if (!user.isAdmin || !dir) throw createError({ statusCode: 404, message: 'Page not found' })
   return { messages: await listCapturedMail(dir) }

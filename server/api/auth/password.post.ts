@@ -7,7 +7,7 @@ import { PasswordChangeBody } from '#shared/utils/account-schemas'
  * the one that made the change stays signed in.
  */
 export default defineEventHandler(async (event) => {
-  const user = await requireUser(event)
+  const user = await requireBrowserUser(event, 'change the password')
   const body = await validateBody(event, PasswordChangeBody)
   const db = useDb()
   const [row] = await db.select({ passwordHash: tables.users.passwordHash }).from(tables.users).where(eq(tables.users.id, user.id))

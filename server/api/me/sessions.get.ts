@@ -2,7 +2,7 @@
 import { and, desc, eq, ne } from 'drizzle-orm'
 
 export default defineEventHandler(async (event) => {
-  const user = await requireUser(event)
+  const user = await requireBrowserUser(event, 'manage sessions')
   const token = (await getUserSession(event)).secure!.token
   const others = await useDb().select({ lastSeenAt: tables.sessions.lastSeenAt, createdAt: tables.sessions.createdAt, userAgent: tables.sessions.userAgent })
     .from(tables.sessions)

@@ -37,7 +37,7 @@ async function setSiteAdmin(actorId: number, userId: number, isAdmin: boolean): 
  * stays one (409). 404 for non-administrators and for unknown accounts.
  */
 export default defineEventHandler(async (event) => {
-  const actor = await requireUser(event)
+  const actor = await requireBrowserUser(event, 'administer the site')
   if (!actor.isAdmin) throw createError({ statusCode: 404, message: 'Page not found' })
   const params = validateParams(event, Params)
   const body = await validateBody(event, Body)

@@ -37,7 +37,7 @@ async function listUsersForAdmin(): Promise<AdminUserView[]> {
  * administrator. 404 for everyone else, so the page does not reveal itself.
  */
 export default defineEventHandler(async (event) => {
-  const user = await requireUser(event)
+  const user = await requireBrowserUser(event, 'administer the site')
   if (!user.isAdmin) throw createError({ statusCode: 404, message: 'Page not found' })
   return { users: await listUsersForAdmin() }
 })

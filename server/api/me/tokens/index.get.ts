@@ -1,0 +1,5 @@
+/** GET /api/me/tokens — the account's live API tokens (never their secrets). */
+export default defineEventHandler(async (event) => {
+  const user = await requireBrowserUser(event, 'manage API tokens')
+  return { tokens: await listApiTokens(user.id) }
+})
