@@ -11,6 +11,9 @@ import { Workspace, type SolverState } from '../server/solver/workspace'
 import { buildProblem } from '../server/solver/problem'
 import { PlainNewtonStep } from './plainStep'
 import { benchSystemSource, twoHundredLineSource } from './systems'
+import { spawnSync } from 'node:child_process'
+import { fileURLToPath } from 'node:url'
+import { buildCli } from '../scripts/build-cli.mjs'
 
 const median = (xs: number[]) => {
   const s = [...xs].sort((a, b) => a - b)
@@ -49,7 +52,27 @@ function machineCheckNs(): number {
   return acc > 0 ? (ms * 1e6) / n : 0
 }
 
-function main(json: boolean): void {
+const root = fileURLToPath(new URL('..', import.meta.url))
+
+/** Median wall time in ms of a new Node process running `args` to its end (each one cold: a process of its own). */
+function processMs(args: string[], reps: number): number {
+  const t: number[] = []
+  for (let k = 0; k < reps + 1; k++) {
+    const t0 = performance.now()
+    const run = spawnSync(process.execPath, args, { cwd: root, stdio: 'ignore' })
+    if (run.status !== 0) throw new Error(`node ${args.join(' ')} exited ${run.status}`)
+    if (k > 0) t.push(performance.now() - t0)
+  }
+  return median(t)
+}
+
+async function main(json: boolean): Promise<void> {
+  // The command line's start-up: the bundle (built from the current source) checking a shipped example, against a bare Node.
+  await buildCli()
+  const cliCheckMs = processMs(['bin/equipoise.mjs', 'check', 'examples/copper-rinse-tank.poise'], 15)
+  const nodeBareMs = processMs(['-e', '0'], 15)
+  const cliRatio = cliCheckMs / nodeBareMs
+
   const longSource = twoHundredLineSource()
   const compileMs = timeMs(() => { compile(longSource) }, 40)
 
@@ -93,7 +116,7 @@ function main(json: boolean): void {
   for (let j = 0; j < p.nc; j++) agree = Math.max(agree, Math.abs(ours[j] - work.y[j]))
   const ratioToPlain = ourStepUs / plainStepUs
 
-  const figures = { compileMs, solveColdUs, sweepPointUs, sweep1000Ms, ratioToPlain }
+  const figures = { compileMs, solveColdUs, sweepPointUs, sweep1000Ms, ratioToPlain, cliCheckMs, nodeBareMs, cliRatio }
   if (json) {
     console.log(JSON.stringify(figures))
     return
@@ -109,6 +132,9 @@ function main(json: boolean): void {
   console.log(row('1,000-point pH sweep, end to end', `${sweep1000Ms.toFixed(1)} ms`, '< 150 ms', sweep1000Ms < 150))
   console.log(row('Newton step, ours / plain Float64Array', `${ratioToPlain.toFixed(2)}×`, '≤ 3×', ratioToPlain <= 3))
   console.log(`  (step: ours ${ourStepUs.toFixed(1)} µs, plain ${plainStepUs.toFixed(1)} µs; results agree to ${agree.toExponential(1)} log units; ${failedPoints} sweep points failed)`)
+  console.log(row('equipoise check of an example, new process', `${cliCheckMs.toFixed(0)} ms`, '< 300 ms', cliCheckMs < 300))
+  console.log(row('  the same / a bare `node -e 0`', `${cliRatio.toFixed(2)}×`, '≤ 4×', cliRatio <= 4))
+  console.log(`  (node -e 0: ${nodeBareMs.toFixed(0)} ms)`)
 }
 
-main(process.argv.includes('--json'))
+await main(process.argv.includes('--json'))

@@ -1,6 +1,6 @@
 /**
  * `npm run -s cli -- solve FILE.poise [--json] [--units UNIT] [--as-element]`,
- * called by scripts/cli.ts. `--units` (mol/L, mmol/L, µmol/L or umol/L,
+ * called by cli/local.ts. `--units` (mol/L, mmol/L, µmol/L or umol/L,
  * mg/L, µg/L or ug/L) sets the unit of the tables; `--as-element` counts
  * components in a mass unit as their element (Ni as Ni, NH3 as N). The JSON
  * is the Result as the solver wrote it, always in mol/L.

@@ -7,11 +7,13 @@ import { CLEAN } from './helpers'
 import type { Result, SweepResult } from '../../../shared/types/result'
 
 const root = new URL('../../../', import.meta.url).pathname
-const tsx = join(root, 'node_modules/.bin/tsx')
+
+// The command as users run it: the bundle (built from the current source) through bin/equipoise.mjs.
+await (await import('../../../scripts/build-cli.mjs')).buildCli()
 
 function run(args: string[]): { code: number; stdout: string; stderr: string } {
   try {
-    const stdout = execFileSync(tsx, ['scripts/cli.ts', ...args], { cwd: root, encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'] })
+    const stdout = execFileSync(process.execPath, ['bin/equipoise.mjs', ...args], { cwd: root, encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'] })
     return { code: 0, stdout, stderr: '' }
   } catch (e) {
     const err = e as { status: number; stdout: string; stderr: string }

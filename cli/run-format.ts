@@ -1,0 +1,32 @@
+/**
+ * The tables of a stored run, as `solve` prints them for a local file: the
+ * revision's text is compiled again (with the library revisions the run
+ * used) for the names and units; the numbers are the run's own.
+ */
+import { compile } from '../shared/poise/index'
+import type { Result, SweepResult } from '../shared/types/result'
+import { formatResultTable, formatSweepTable } from '../server/solver/table'
+import { OUTPUT_UNITS, parseOutputUnit, unitScale, type OutputUnit } from '../shared/results/units'
+import { CliError, EXIT } from './exit-codes'
+
+export function checkUnit(text: string | undefined): OutputUnit {
+  if (text === undefined) return 'mol/L'
+  const unit = parseOutputUnit(text)
+  if (!unit) throw new CliError(EXIT.badInput, `--units takes one of ${OUTPUT_UNITS.join(', ')}, not ${text}`)
+  return unit
+}
+
+export function formatRun(
+  source: string,
+  libraries: Map<string, { source: string, revision: number }>,
+  run: { kind: 'single' | 'sweep', result: unknown },
+  choice: { unit: OutputUnit, asElement: boolean },
+): string {
+  const compiled = compile(source, { resolveLibrary: (name) => libraries.get(name) ?? null })
+  const model = compiled.model
+  if (!model || run.result === null) return JSON.stringify(run.result, null, 2)
+  const scale = unitScale(model, choice)
+  return run.kind === 'sweep'
+    ? formatSweepTable(model, run.result as SweepResult, scale)
+    : formatResultTable(model, run.result as Result, scale)
+}

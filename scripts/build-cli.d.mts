@@ -1,0 +1,2 @@
+export declare const CLI_BUNDLE: string
+export declare function buildCli(): Promise<void>

@@ -1,0 +1,33 @@
+/**
+ * Bundles the command line (cli/main.ts with the language and solver it
+ * loads) into one file, dist/equipoise.mjs, so it starts without compiling
+ * TypeScript. Run by `npm run build:cli`, postinstall, `npm start`, `npm
+ * test` and the CLI tests; bin/equipoise.mjs runs the bundle.
+ */
+import { build } from 'esbuild'
+import { fileURLToPath } from 'node:url'
+
+const root = fileURLToPath(new URL('..', import.meta.url))
+
+export const CLI_BUNDLE = `${root}dist/equipoise.mjs`
+
+export async function buildCli() {
+  await build({
+    entryPoints: [`${root}cli/main.ts`],
+    outfile: CLI_BUNDLE,
+    bundle: true,
+    platform: 'node',
+    format: 'esm',
+    target: 'node20',
+    // Keep require() of Node's own modules working inside the ES module bundle.
+    banner: { js: "import { createRequire as __equipoiseRequire } from 'node:module'; const require = __equipoiseRequire(import.meta.url);" },
+    legalComments: 'none',
+    minifyWhitespace: true,
+    minifySyntax: true,
+    logLevel: 'warning',
+  })
+}
+
+if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
+  await buildCli()
+}
