@@ -6,6 +6,7 @@
  * Nitro.
  */
 import type { Result, SweepResult } from '../types/result'
+import { hasDissolvedTotal } from '../results/names'
 
 /** A concentration below this (mol/L) is treated as absent when computing factors. */
 const NEGLIGIBLE = 1e-30
@@ -169,7 +170,7 @@ export function diffResults(a: SolvedAnswer, b: SolvedAnswer): ResultsDiff {
   species.sort((x, y) => y.size - x.size || x.name.localeCompare(y.name))
 
   const componentNames = new Set<string>()
-  for (const p of withPoints) for (const c of [...p.from.components, ...p.to.components]) if (c.dissolved !== undefined) componentNames.add(c.name)
+  for (const p of withPoints) for (const c of [...p.from.components, ...p.to.components]) if (c.dissolved !== undefined && hasDissolvedTotal(c.name)) componentNames.add(c.name)
   const dissolved: SpeciesChange[] = []
   for (const name of componentNames) {
     const along = withPoints.map(p => speciesChange(name, dissolvedAt(p.from, name), dissolvedAt(p.to, name), p.at))

@@ -7,7 +7,7 @@
  */
 
 import type { Result, SweepResult } from '../types/result'
-import { dissolvedText } from './names'
+import { dissolvedText, hasDissolvedTotal } from './names'
 import { MOLAR_SCALE, type UnitScale } from './units'
 
 /** Quote a field when it holds a comma, a quote or a line break (RFC 4180 §2.6–2.7). */
@@ -122,7 +122,7 @@ export function sweepCsv(sweep: SweepResult, scale: UnitScale = MOLAR_SCALE): st
   for (const point of sweep.points) {
     for (const s of point.species) if (!names.includes(s.name)) names.push(s.name)
     for (const s of point.solids) if (!solids.includes(s.name)) solids.push(s.name)
-    for (const c of point.components) if (c.dissolved !== undefined && !components.includes(c.name)) components.push(c.name)
+    for (const c of point.components) if (c.dissolved !== undefined && hasDissolvedTotal(c.name) && !components.includes(c.name)) components.push(c.name)
   }
   const header = [
     sweepVariableHeader(sweep),

@@ -6,7 +6,7 @@
  */
 import type { ModelLimit } from '../poise/model'
 import type { LimitWindow, Result, SweepResult } from '../types/result'
-import { typesetFormula } from './typeset'
+import { formatFixed, formatScientific, typesetFormula } from './typeset'
 
 /** The capped quantity at an answer, mol/L: Σ weight × dissolved total over the components. NaN when it cannot be read. */
 export function limitQuantity(components: { name: string }[], limit: Pick<ModelLimit, 'weights'>, result: Result): number {
@@ -22,26 +22,26 @@ export function limitQuantity(components: { name: string }[], limit: Pick<ModelL
   return sum
 }
 
-/** A value of the swept variable in words: `pH 9.62`, `25.0 °C`, `total Na⁺ 1.20e-3 mol/L`. */
+/** A value of the swept variable in words and its unit: `pH 9.62`, `25.0 °C`, `total Na⁺ 1.20e-3 mol/L`, `p(CO₂(g)) 1.00e-3 atm`. */
 export function sweptValueText(sweep: Pick<SweepResult, 'variable' | 'component'>, value: number): string {
-  const name = sweep.component ? typesetFormula(sweep.component) : ''
+  const name = typesetFormula(sweep.component ?? '')
   switch (sweep.variable) {
     case 'pH':
-      return `pH ${value.toFixed(2)}`
+      return `pH ${formatFixed(value, 2)}`
     case 'temperature':
-      return `${value.toFixed(1)} °C`
-    case 'total':
-      return `total ${name} ${value.toPrecision(3)} mol/L`
+      return `${formatFixed(value, 1)} °C`
     case 'pressure':
-      return `${name} at ${value.toPrecision(3)} atm`
+      return `p(${name}) ${formatScientific(value)} atm`
+    case 'total':
+      return `total ${name} ${formatScientific(value)} mol/L`
   }
 }
 
 /** The bare number of an end, as the sentence writes it after the first (`to 11.79`). */
 function endText(sweep: Pick<SweepResult, 'variable'>, value: number): string {
-  if (sweep.variable === 'pH') return value.toFixed(2)
-  if (sweep.variable === 'temperature') return `${value.toFixed(1)} °C`
-  return `${value.toPrecision(3)} ${sweep.variable === 'total' ? 'mol/L' : 'atm'}`
+  if (sweep.variable === 'pH') return formatFixed(value, 2)
+  if (sweep.variable === 'temperature') return `${formatFixed(value, 1)} °C`
+  return `${formatScientific(value)} ${sweep.variable === 'total' ? 'mol/L' : 'atm'}`
 }
 
 /** "dissolved Ni ≤ 1 mg/L from pH 9.62 to 11.79", or where it never holds, that it stays above. */

@@ -25,3 +25,12 @@ export function dissolvedLabel(component: string): string {
 export function dissolvedText(component: string): string {
   return `dissolved ${componentCore(component)}`
 }
+
+/**
+ * Whether a component's dissolved total means something to show under its
+ * own name: not for H+, whose "total" is a proton balance (OH- holds −1 of
+ * it), so "dissolved H" would name nothing a chemist measures.
+ */
+export function hasDissolvedTotal(component: string): boolean {
+  return component !== 'H+'
+}

@@ -24,6 +24,10 @@ describe('ResultsComponentsTable', () => {
     const dissolved = copper.get('[data-test="dissolved"]')
     expect(dissolved.attributes('aria-label')).toBe(`dissolved Cu: ${dissolved.text()} mol/L`)
     expect(dissolved.text()).not.toBe(copper.findAll('td')[4]!.text())
+    // H+ has a proton balance, not a dissolved total a chemist reads: no "dissolved H".
+    const proton = wrapper.findAll('[data-test="component-row"]')[0]!
+    expect(proton.find('[data-test="component-names"]').exists()).toBe(false)
+    expect(proton.get('[data-test="dissolved"]').text()).toBe('—')
   })
 
   it('asks for a run when there is nothing to show', () => {

@@ -90,6 +90,7 @@ describe('sweepCsv', () => {
   it('has one column for each component\'s dissolved total, named apart from the free ion', () => {
     const column = rows[0].indexOf('dissolved CO3 (mol/L)')
     expect(column).toBeGreaterThan(rows[0].indexOf('CO3^2- (mol/L)'))
+    expect(rows[0].some((h) => h.startsWith('dissolved H '))).toBe(false)
     sweep.points.forEach((p, k) => {
       if (!p.converged) return
       expect(Number(rows[k + 1][column])).toBe(p.components.find((c) => c.name === 'CO3^2-')!.dissolved)

@@ -38,7 +38,7 @@ describe('limit sentences', () => {
   it('join several ranges and name other swept variables with their units', () => {
     const window = { quantity: 'dissolved Cu', value: 0.5, unit: 'mg/L', ranges: [[6.1, 7.25], [9.5, 10.0]] as [number, number][] }
     expect(limitSentence({ variable: 'pH', component: null, values: [4, 12] }, window)).toBe('dissolved Cu ≤ 0.5 mg/L from pH 6.10 to 7.25 and from pH 9.50 to 10.00')
-    expect(sweptValueText({ variable: 'total', component: 'NH3' }, 0.0123)).toBe('total NH₃ 0.0123 mol/L')
+    expect(sweptValueText({ variable: 'total', component: 'NH3' }, 0.0123)).toBe('total NH₃ 1.23e-2 mol/L')
     expect(sweptValueText({ variable: 'temperature', component: null }, 35)).toBe('35.0 °C')
   })
 })
