@@ -186,8 +186,9 @@ describe('no diagnostic, model or answer ever holds NaN or Infinity', { timeout:
       if (points > 12) return
       expectFinite(points ? sweep(r.model) : solve(r.model), `answer to\n${source}\n`)
       solved++
-    }), { numRuns: 250 })
-    // The property is only worth something when many files got as far as the solver.
+    }), { numRuns: 250, seed: 20261205 })
+    // Seeded so that the count below is the same on every run. The property is
+    // only worth something when many files got as far as the solver.
     expect(solved).toBeGreaterThan(40)
   })
 })
