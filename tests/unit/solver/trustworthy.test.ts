@@ -10,7 +10,7 @@
  * hundreds.
  */
 import fc from 'fast-check'
-import { describe, expect, it } from 'vitest'
+import { describe, expect, it, vi } from 'vitest'
 import { MAX_ATTEMPTS, solve, sweep } from '../../../server/solver/index'
 import { PHASE_BUDGET_FACTOR } from '../../../server/solver/phases'
 import type { Model } from '../../../shared/poise/model'
@@ -133,6 +133,8 @@ describe('a solid whose stoichiometry is the sum of two others', () => {
   // saturation equations are dependent and one must leave: the one that a
   // growing amount of the newcomer uses up first. Constants invented (demo).
   it('keeps a set whose amounts are all non-negative, for either sign of d, pH held or balanced', () => {
+    // The dependence test of the solids runs here; it used to print a warning on every call.
+    const warn = vi.spyOn(console, 'warn').mockImplementation(() => {})
     let checked = 0
     for (const d of [0.5, 0.2, 0.05, 0, -0.05, -0.2]) {
       for (const L of [3e-3, 1e-2, 3e-2]) {
@@ -160,6 +162,8 @@ describe('a solid whose stoichiometry is the sum of two others', () => {
       }
     }
     expect(checked).toBe(108)
+    expect(warn).not.toHaveBeenCalled()
+    warn.mockRestore()
   }, HEAVY)
 })
 
@@ -315,6 +319,17 @@ describe('honest failures and no stand-in numbers', () => {
     expect(a.reason).toMatch(/(mass balance of|saturation of|charge balance).* did not close/)
     expect(a.reason).toMatch(ADVICE)
     expect(JSON.stringify(a)).toBe(JSON.stringify(b))
+  }, HEAVY)
+
+  it('a sweep stopped by the time guard says so at every point it did not solve, and what to change', () => {
+    const values = [6, 7, 8]
+    const out = sweep(leadModel({ sweep: { variable: 'pH', component: null, values } }), { timeBudgetMs: 0 })
+    expect(out.points).toHaveLength(3)
+    for (const p of out.points) {
+      expect(p.converged).toBe(false)
+      expect(p.reason).toMatch(/time guard .* safety limit .* Use fewer sweep points or a smaller system/)
+      expect(hasNonFinite(p)).toBe(false)
+    }
   }, HEAVY)
 
   it('the same sweep gives the same answer twice (budgets are counted, not timed)', () => {
