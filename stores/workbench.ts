@@ -166,6 +166,8 @@ export const useWorkbenchStore = defineStore('workbench', () => {
   const conflict = shallowRef<SaveConflict | null>(null)
   /** How the browser's compiler finds the lab libraries the text `use`s; undefined until they are loaded. */
   const resolveLibrary = shallowRef<ResolveLibrary | undefined>(undefined)
+  /** True while the texts of the `use`d libraries are being fetched for the editor's checker. */
+  const librariesLoading = ref(false)
   /** For a stored run: its libraries at the revisions it was solved with, so its constants are the ones it used. */
   const shownLibraries = shallowRef<ResolveLibrary | undefined>(undefined)
   let runTicket = 0
@@ -310,11 +312,14 @@ export const useWorkbenchStore = defineStore('workbench', () => {
     const lab = answer.value?.lab.slug
     if (!lab) return
     const ticket = ++preloadTicket
+    librariesLoading.value = true
     try {
       const texts = await libraryPreloader(lab)(source.value)
       if (ticket === preloadTicket) resolveLibrary.value = resolverFrom(texts)
     } catch {
       // Keep what we had: the server still resolves libraries on run and save.
+    } finally {
+      if (ticket === preloadTicket) librariesLoading.value = false
     }
   }
 
@@ -371,7 +376,7 @@ export const useWorkbenchStore = defineStore('workbench', () => {
   }
 
   return {
-    answer, source, diagnostics, shown, olderRun, pointIndex, running, saving, runProblem, saveProblem, conflict, resolveLibrary,
+    answer, source, diagnostics, shown, olderRun, pointIndex, running, saving, runProblem, saveProblem, conflict, resolveLibrary, librariesLoading,
     latest, canEdit, dirty, plan, errorCount, shownModel, shownIsStale, sweep, pointResult,
     open, loadLastRun, loadLibraries, run, save, keepMine, takeTheirs,
   }

@@ -32,6 +32,15 @@ describe('EditorStatusLine', () => {
     expect(wrapper.emitted('reveal')).toBeUndefined()
   })
 
+  it('holds back the counts while the libraries are being checked', async () => {
+    const wrapper = mount(EditorStatusLine, { props: { diagnostics: [diagnostic('error', 2, 'no library "acids"')], checking: true } })
+    expect(wrapper.get('[data-testid="status-checking"]').text()).toBe('checking…')
+    expect(wrapper.find('[data-testid="status-errors"]').exists()).toBe(false)
+    await wrapper.setProps({ diagnostics: [], checking: false })
+    expect(wrapper.find('[data-testid="status-checking"]').exists()).toBe(false)
+    expect(wrapper.get('[data-testid="status-errors"]').text()).toBe('0 errors')
+  })
+
   it('shows the run key, and the last run and solver time when given', () => {
     const wrapper = mount(EditorStatusLine, { props: { diagnostics: [], lastRun: '2026-12-01T10:15:30Z', solverMs: 1840 } })
     expect(wrapper.text()).toMatch(/Run: (Ctrl\+Enter|⌘ Enter)/)
