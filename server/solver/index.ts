@@ -13,6 +13,14 @@ import { computeSpecies } from './equations'
 import { MIN_NONZERO_TOTAL, MODE_BALANCE, MODE_TOTAL, buildProblem, setComponent, setTemperature, type Problem } from './problem'
 import { buildResult } from './report'
 import { limitWindows } from './limits'
+import { shortcutOf } from '../../shared/results/shortcut'
+
+/** The hand method's estimate beside a converged answer (shared/results/shortcut.ts); the answer itself is untouched. */
+function withShortcut(model: Model, result: Result): Result {
+  if (!result.converged) return result
+  const shortcut = shortcutOf(model, result)
+  return shortcut ? { ...result, shortcut } : result
+}
 
 /** Stored with every run, so a result can be traced to the solver that made it. */
 export const SOLVER_VERSION = '1.1.0'
@@ -331,7 +339,7 @@ export function solve(model: Model, options?: SolveOptions): Result {
     if ('error' in built) return unsolvable(model, built.error)
     const ws = new Workspace(built.problem)
     const limits = { maxIterations: iterationsOf(options), ...guardOf(options) }
-    return solveProblem(ws, newState(built.problem), limits, []).result
+    return withShortcut(model, solveProblem(ws, newState(built.problem), limits, []).result)
   } catch (error) {
     return internalFailure(model, error)
   }
@@ -475,7 +483,7 @@ export function sweep(model: Model, options?: SolveOptions): SweepResult {
         copyState(slot, state)
         recent.unshift({ state: slot, at: position(v) })
       }
-      base.points.push(out.result)
+      base.points.push(withShortcut(model, out.result))
     }
     // Limit windows: their ends located by exact solves between the grid points.
     if (model.limits?.length) base.limits = limitWindows(model, base, (v) => solveAtSweepValue(model, v, options))

@@ -69,6 +69,17 @@ export interface ComponentResult {
   dissolved?: number
 }
 
+/**
+ * The hand method beside the exact answer (definitions in
+ * shared/results/shortcut.ts): fractions of species at the answer's pH,
+ * activities taken as concentrations, ligands in excess; factor = estimate / exact.
+ */
+export interface Shortcut {
+  pH: number
+  components: { name: string; alphaFree: number; freeEstimate: number; freeExact: number; factor: number }[]
+  solids: { name: string; solubilityEstimate: number; solubilityExact: number; factor: number }[]
+}
+
 export interface Result {
   converged: boolean
   iterations: number
@@ -84,6 +95,8 @@ export interface Result {
   reason?: string
   /** Notes the solver adds (e.g. ionic strength beyond the activity model's range). */
   warnings?: string[]
+  /** The hand method's estimate beside this answer; absent when the answer did not converge. */
+  shortcut?: Shortcut
 }
 
 /**

@@ -2,7 +2,8 @@
 // workbench states the pH window where dissolved nickel is at or below the
 // 1 mg/L limit, the answer is switched to mg/L (nickel as Ni) and the
 // dissolved total read from the Totals tab, and the diagram shades the
-// window. Expected numbers come from the solver run here on the same file.
+// window; the Shortcut tab sets the hand method beside the exact answer.
+// Expected numbers come from the solver run here on the same file.
 import { readFileSync } from 'node:fs'
 import { join } from 'node:path'
 import { describe, expect, it } from 'vitest'
@@ -49,6 +50,13 @@ describe('results in the chemist\'s terms', () => {
     await expect(nickel.locator('[data-test=dissolved]').getAttribute('aria-label')).resolves.toBe(`dissolved Ni: ${shown} mg/L as Ni`)
     expect(dissolved * 58.693e3).toBeLessThan(1)
     await screenshot(page, 'units-totals-mg')
+
+    // The hand method beside the exact answer at the same point.
+    await page.getByRole('tab', { name: 'Shortcut' }).click()
+    const byHand = expected.points[30]!.shortcut!.components.find((c) => c.name === 'Ni^2+')!
+    const row = page.locator('[data-test=shortcut-row]', { hasText: 'Ni²⁺' })
+    await expect(row.locator('[data-test=shortcut-factor]').textContent()).resolves.toBe(byHand.factor.toFixed(2))
+    await screenshot(page, 'units-shortcut')
 
     // The choice is remembered for this system.
     await page.reload()
