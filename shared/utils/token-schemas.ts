@@ -31,17 +31,19 @@ export const ApiTokenParams = z.object({
 
 export type CreateApiTokenInput = z.infer<typeof CreateApiTokenBody>
 
-/** One token as listed (never its secret). */
-export interface ApiTokenSummary {
-  id: number
-  name: string
-  scope: ApiTokenScope
-  createdAt: string
-  lastUsedAt: string | null
-  expiresAt: string | null
-}
+/** One token as listed (never its secret): the answer's shape, also used by the API description. */
+export const ApiTokenSummarySchema = z.object({
+  id: z.int(),
+  name: z.string(),
+  scope: z.enum(API_TOKEN_SCOPES),
+  createdAt: z.iso.datetime(),
+  lastUsedAt: z.iso.datetime().nullable(),
+  expiresAt: z.iso.datetime().nullable(),
+})
+export type ApiTokenSummary = z.infer<typeof ApiTokenSummarySchema>
 
 /** The answer of `POST /api/me/tokens`: the summary and, this once, the secret. */
-export interface CreatedApiToken extends ApiTokenSummary {
-  token: string
-}
+export const CreatedApiTokenSchema = ApiTokenSummarySchema.extend({
+  token: z.string().startsWith(API_TOKEN_PREFIX).meta({ description: 'The secret, returned only in this answer; send it as Authorization: Bearer' }),
+})
+export type CreatedApiToken = z.infer<typeof CreatedApiTokenSchema>

@@ -112,6 +112,17 @@ describe('Bearer authentication', () => {
     expect(withCookie.body.message).toMatch(/elsewhere\.example/)
   })
 
+  it('gets the signed-in body limit, not the anonymous one', async () => {
+    const me = await signUp('tok-body')
+    const token = await makeToken(me, 'read')
+    // 40 KB of comments: over the 16 KiB allowed without a session, far under the signed-in limit.
+    const source = `system "Long"\n${'# a comment line that makes the text long enough\n'.repeat(800)}`
+    const checked = await api('/api/check', { method: 'POST', body: { source }, headers: { authorization: `Bearer ${(await makeToken(me, 'write')).token}` } })
+    expect(checked.status).toBe(200)
+    const readOnly = await api('/api/check', { method: 'POST', body: { source }, headers: { authorization: `Bearer ${token.token}` } })
+    expect(readOnly.status).toBe(403)
+  })
+
   it('answers 404 for a lab the token\'s account is not a member of', async () => {
     const owner = await signUp('tok-lab')
     const lab = await makeLab(owner)

@@ -13,7 +13,7 @@ export interface ExampleView {
   source: string
 }
 
-const Params = z.object({ example: z.string().regex(/^[a-z0-9-]+$/, { error: 'Name an example by its address, e.g. copper-rinse-tank' }) })
+export const Params = z.object({ example: z.string().regex(/^[a-z0-9-]+$/, { error: 'Name an example by its address, e.g. copper-rinse-tank' }) })
 
 function asText(raw: unknown): string {
   if (typeof raw === 'string') return raw

@@ -7,7 +7,7 @@
 import { z } from 'zod'
 import { LinkTokenSchema } from '#shared/utils/invitation-schemas'
 
-const Params = z.object({ token: LinkTokenSchema })
+export const Params = z.object({ token: LinkTokenSchema })
 
 export default defineEventHandler(async (event) => {
   const { token } = validateParams(event, Params)

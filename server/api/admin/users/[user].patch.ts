@@ -3,10 +3,10 @@ import { z } from 'zod'
 
 const LAST_ADMIN_MESSAGE = 'This is the only site administrator. Make someone else an administrator first.'
 
-const Params = z.object({
+export const Params = z.object({
   user: z.coerce.number({ error: 'User must be a number' }).int().positive({ error: 'User must be a positive number' }),
 })
-const Body = z.object({ isAdmin: z.boolean({ error: 'isAdmin must be true or false' }) })
+export const Body = z.object({ isAdmin: z.boolean({ error: 'isAdmin must be true or false' }) })
 
 /**
  * Sets or clears an account's administrator flag. Clearing it on the last

@@ -3,7 +3,7 @@ import { and, eq, isNull } from 'drizzle-orm'
 import { z } from 'zod'
 import { SlugSchema } from '#shared/utils/lab-schemas'
 
-const Params = z.object({
+export const Params = z.object({
   lab: SlugSchema,
   id: z.coerce.number({ error: 'Invitation must be a number' }).int().positive({ error: 'Invitation must be a positive number' }),
 })

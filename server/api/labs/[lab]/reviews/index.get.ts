@@ -4,7 +4,7 @@ import { and, eq } from 'drizzle-orm'
 import { LabParams, SlugSchema } from '#shared/utils/lab-schemas'
 import { REVIEW_STATES } from '../../../../database/schema'
 
-const Query = z.object({
+export const Query = z.object({
   system: SlugSchema.optional(),
   state: z.enum(REVIEW_STATES, { error: `state is one of ${REVIEW_STATES.join(', ')}` }).optional(),
 })

@@ -9,7 +9,7 @@ import { LabParams, SlugSchema } from '#shared/utils/lab-schemas'
 import { labRoleAtLeast } from '#shared/utils/roles'
 
 const Revision = z.number({ error: 'Give a revision number' }).int().positive({ error: 'Revision numbers start at 1' })
-const Body = z.object({
+export const Body = z.object({
   system: SlugSchema,
   from: Revision,
   to: Revision,

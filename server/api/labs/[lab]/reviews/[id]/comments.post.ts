@@ -6,7 +6,7 @@
 import { z } from 'zod'
 import { eq } from 'drizzle-orm'
 
-const Body = z.object({
+export const Body = z.object({
   side: z.enum(['from', 'to'], { error: 'side is "from" (the older revision) or "to" (the newer)' }),
   line: z.number({ error: 'Give the line number the comment is about' }).int().positive({ error: 'Lines are numbered from 1' }),
   body: z.string().trim().min(1, { error: 'Write a comment' }).max(5000, { error: 'Use at most 5000 characters' }),

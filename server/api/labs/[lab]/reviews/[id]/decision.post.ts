@@ -7,7 +7,7 @@
 import { z } from 'zod'
 import { eq } from 'drizzle-orm'
 
-const Body = z.object({
+export const Body = z.object({
   decision: z.enum(['approved', 'changes_requested'], { error: 'decision is "approved" or "changes_requested"' }),
   note: z.string().trim().max(2000, { error: 'Use at most 2000 characters' }).optional(),
 })

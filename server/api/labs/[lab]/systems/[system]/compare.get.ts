@@ -14,7 +14,7 @@ import type { Model } from '#shared/poise/model'
 const RevisionNumber = z.coerce.number({ error: 'Give revision numbers, e.g. ?from=3&to=5' })
   .int({ error: 'A revision number is a whole number' })
   .positive({ error: 'Revision numbers start at 1' })
-const Query = z.object({ from: RevisionNumber, to: RevisionNumber })
+export const Query = z.object({ from: RevisionNumber, to: RevisionNumber })
 
 /** The compiled model of a revision, with the lab's libraries it uses, or null with the reason in `problems`. */
 async function compiledOrProblem(labId: number, source: string, number: number, problems: string[]): Promise<Model | null> {

@@ -6,8 +6,8 @@
  */
 import { z } from 'zod'
 
-const Params = z.object({ lab: z.string().min(1), system: z.string().min(1) })
-const Body = z.object({ revision: z.number().int().positive().optional() })
+export const Params = z.object({ lab: z.string().min(1), system: z.string().min(1) })
+export const Body = z.object({ revision: z.number().int().positive().optional() })
 
 export default defineEventHandler(async (event) => {
   const { lab, system } = validateParams(event, Params)

@@ -6,7 +6,7 @@
  */
 import { z } from 'zod'
 
-const Body = z.object({
+export const Body = z.object({
   baseRevision: z.number().int().positive().optional(),
   message: z.string().trim().max(500, { error: 'Use at most 500 characters' }).optional(),
 })
