@@ -4,7 +4,6 @@
  * TypeScript. Run by `npm run build:cli`, postinstall, `npm start`, `npm
  * test` and the CLI tests; bin/equipoise.mjs runs the bundle.
  */
-import { build } from 'esbuild'
 import { fileURLToPath } from 'node:url'
 
 const root = fileURLToPath(new URL('..', import.meta.url))
@@ -12,6 +11,7 @@ const root = fileURLToPath(new URL('..', import.meta.url))
 export const CLI_BUNDLE = `${root}dist/equipoise.mjs`
 
 export async function buildCli() {
+  const { build } = await import('esbuild')
   await build({
     entryPoints: [`${root}cli/main.ts`],
     outfile: CLI_BUNDLE,
@@ -29,5 +29,14 @@ export async function buildCli() {
 }
 
 if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
-  await buildCli()
+  try {
+    await buildCli()
+  } catch (error) {
+    // An install without dev dependencies has no esbuild: the app still installs, and `equipoise` says how to build it.
+    if (process.env.npm_lifecycle_event === 'postinstall' && error?.code === 'ERR_MODULE_NOT_FOUND') {
+      console.warn('equipoise: esbuild is not installed, so the command line was not built; install the dev dependencies and run `npm run build:cli`.')
+    } else {
+      throw error
+    }
+  }
 }
