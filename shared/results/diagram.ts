@@ -16,13 +16,14 @@ import { typesetFormula } from './typeset'
 import { dissolvedLabel } from './names'
 import { MOLAR_SCALE, type UnitScale } from './units'
 
-export type DiagramKind = 'distribution' | 'logConcentration' | 'solubility'
+export type DiagramKind = 'distribution' | 'logConcentration' | 'solubility' | 'shortcut'
 
 /** The kinds in the order the segmented control shows them, with their words. */
 export const DIAGRAM_KINDS: { kind: DiagramKind; label: string }[] = [
   { kind: 'distribution', label: 'Distribution' },
   { kind: 'logConcentration', label: 'Log concentration' },
   { kind: 'solubility', label: 'Solubility' },
+  { kind: 'shortcut', label: 'Shortcut factor' },
 ]
 
 export function isDiagramKind(value: unknown): value is DiagramKind {
@@ -32,17 +33,19 @@ export function isDiagramKind(value: unknown): value is DiagramKind {
 /**
  * The colour-blind-safe palette of Okabe & Ito (2008), "Color Universal
  * Design (CUD): how to make figures and presentations that are friendly to
- * colorblind people", in its published order.
+ * colorblind people", in its published order; the four hues that fall below
+ * a 3:1 contrast on white (WCAG 2.1, non-text contrast) are darkened, hue
+ * kept, until they reach it. The original colour is in each comment.
  */
 export const OKABE_ITO = [
   '#000000', // black
-  '#E69F00', // orange
-  '#56B4E9', // sky blue
+  '#BF8400', // orange (#E69F00)
+  '#4897C4', // sky blue (#56B4E9)
   '#009E73', // bluish green
-  '#F0E442', // yellow
+  '#9A922A', // yellow (#F0E442)
   '#0072B2', // blue
   '#D55E00', // vermillion
-  '#CC79A7', // reddish purple
+  '#C675A2', // reddish purple (#CC79A7)
 ] as const
 
 /** Past eight species the colours repeat with a different dash, so no two series look alike. */
@@ -218,6 +221,22 @@ function solubility(sweep: SweepResult, model: StoichiometryModel, component: st
 }
 
 /**
+ * The hand method along the sweep: log10 of each component's factor
+ * (estimate / exact free concentration, Result.shortcut); 0 is where the
+ * shortcut holds exactly, ±0.3 a factor of two.
+ */
+function shortcutFactors(sweep: SweepResult, model: StoichiometryModel): DiagramSeries[] {
+  const names = model.components.map((c) => c.name).filter((name) => sweep.points.some((p) => p.shortcut?.components.some((c) => c.name === name)))
+  return names.map((name) => ({
+    key: name,
+    label: typesetFormula(name),
+    ...styleForIndex(speciesIndex(model, name)),
+    labelAt: 'peak' as const,
+    values: sweep.points.map((p) => valueAt(p, (r) => Math.log10(r.shortcut?.components.find((c) => c.name === name)?.factor ?? Number.NaN))),
+  }))
+}
+
+/**
  * A log axis over a near-constant quantity (a total that does not move)
  * would stretch rounding noise across the plot; give it two decades around
  * the value instead. Null lets the plot fit the data.
@@ -262,11 +281,15 @@ export function diagramData(sweep: SweepResult, model: StoichiometryModel, optio
       series = solubility(sweep, model, component)
       yLabel = `log₁₀ of ${componentName} in ${scale.componentUnit(component)}`
       break
+    case 'shortcut':
+      series = shortcutFactors(sweep, model)
+      yLabel = 'log₁₀ of the factor, by hand ÷ exact (0: the shortcut holds)'
+      break
   }
   const below = series.filter((s) => !(maxFinite(s.values) >= floor))
   let shown = options.showAll ? series : series.filter((s) => !below.includes(s))
   // Another unit moves each log curve by the log of its factor (a gap where a mass unit has no molar mass).
-  if (options.kind !== 'distribution' && scale !== MOLAR_SCALE) {
+  if ((options.kind === 'logConcentration' || options.kind === 'solubility') && scale !== MOLAR_SCALE) {
     shown = shown.map((s) => {
       const factor = (options.kind === 'solubility' ? scale.component(component) : scale.species(s.key)) ?? Number.NaN
       return { ...s, values: s.values.map((v) => v + Math.log10(factor)) }

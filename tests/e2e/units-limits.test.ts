@@ -70,5 +70,17 @@ describe('results in the chemist\'s terms', () => {
     await expect(page.locator('[data-test=diagram-limits]').textContent()).resolves.toMatch(/Shaded: where dissolved Ni ≤ 1 mg\/L\.\s*Dashed line: the limit\./)
     await expect(page.locator('[data-test=diagram-plot] svg').textContent()).resolves.toContain('dissolved Ni ≤ 1 mg/L')
     await screenshot(page, 'units-limit-diagram')
+
+    // A click on the plot picks the nearest sweep point for the tables: near the right end, pH 13.
+    const plot = page.locator('[data-test=diagram-plot] svg')
+    const box = (await plot.boundingBox())!
+    await plot.click({ position: { x: box.width - 50, y: box.height / 2 } })
+    await expect(page.locator('[data-test=sweep-point-value]').textContent()).resolves.toMatch(/^pH 1[23]\.\d0$/)
+
+    // The shortcut factor along the sweep: one line a component, around 0 where the hand method holds.
+    await page.locator('[data-test=kind-shortcut]').click()
+    await page.locator('[data-test=diagram-plot] svg').waitFor()
+    await expect(page.locator('[data-test=diagram-plot] svg').textContent()).resolves.toContain('factor')
+    await screenshot(page, 'units-shortcut-diagram')
   })
 })

@@ -31,7 +31,7 @@ describe('ResultsDiagram', () => {
     expect(wrapper.find('[data-test="diagram-gaps"]').text()).toContain('1 of 17 points did not converge')
     // Each line is one path in the Okabe–Ito colour of its species' index in the model; the failed point splits it into two runs (two moveto's).
     const lines = svg.findAll('g[aria-label="line"] path')
-    expect(lines.map((p) => p.attributes('stroke'))).toEqual(['#56B4E9', '#009E73', '#F0E442']) // model indices 2, 3, 4
+    expect(lines.map((p) => p.attributes('stroke'))).toEqual(['#4897C4', '#009E73', '#9A922A']) // model indices 2, 3, 4
     for (const line of lines) expect(line.attributes('d')!.match(/M/g)).toHaveLength(2)
     wrapper.unmount()
   })

@@ -108,9 +108,19 @@ describe('solubility diagram', () => {
 
 describe('colours and axes', () => {
   it('uses the Okabe–Ito palette in its published order, by species index in the model', () => {
-    expect(OKABE_ITO.slice(0, 3)).toEqual(['#000000', '#E69F00', '#56B4E9'])
+    expect(OKABE_ITO.slice(0, 3)).toEqual(['#000000', '#BF8400', '#4897C4'])
     const data = diagramData(carbonateSweep(), model, { kind: 'logConcentration', component: null, showAll: true })
     expect(data.series.map((s) => s.color)).toEqual(OKABE_ITO.slice(0, 5))
+  })
+
+  it('draws every line at 3:1 contrast or more on the white plot', () => {
+    // WCAG 2.1: relative luminance of sRGB and contrast ratio (L1 + 0.05) / (L2 + 0.05); 3:1 for graphics.
+    const channel = (c: number) => (c <= 0.04045 ? c / 12.92 : ((c + 0.055) / 1.055) ** 2.4)
+    const luminance = (hex: string) => {
+      const [r, g, b] = [1, 3, 5].map((i) => channel(parseInt(hex.slice(i, i + 2), 16) / 255))
+      return 0.2126 * r! + 0.7152 * g! + 0.0722 * b!
+    }
+    for (const colour of OKABE_ITO) expect((1 + 0.05) / (luminance(colour) + 0.05), colour).toBeGreaterThanOrEqual(3)
   })
 
   it('keeps a species colour when other species are hidden', () => {

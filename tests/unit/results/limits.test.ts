@@ -42,3 +42,16 @@ describe('limit sentences', () => {
     expect(sweptValueText({ variable: 'temperature', component: null }, 35)).toBe('35.0 °C')
   })
 })
+
+describe('shortcut factor along the sweep', () => {
+  it('plots log10 of each component\'s factor at every converged point, 0 where the hand method holds', () => {
+    const data = diagramData(answer, model, { kind: 'shortcut', component: null })
+    const nickel = data.series.find((s) => s.key === 'Ni^2+')!
+    answer.points.forEach((p, k) => {
+      expect(nickel.values[k]).toBeCloseTo(Math.log10(p.shortcut!.components.find((c) => c.name === 'Ni^2+')!.factor), 12)
+    })
+    // Sulfate forms only HSO4- here: far from its pKa the hand method is exact (factor 1, log 0).
+    const sulfate = data.series.find((s) => s.key === 'SO4^2-')!
+    expect(Math.max(...sulfate.values.map(Math.abs))).toBeLessThan(0.05)
+  })
+})
