@@ -1,10 +1,9 @@
 /** POST /api/check — diagnostics and a size summary for a Poise text (no solve). */
-import { compile } from '../../shared/poise/index'
 
 export default defineEventHandler(async (event) => {
   await requireUser(event)
   const source = await readSourceBody(event)
-  const { model, diagnostics } = compile(source)
+  const { model, diagnostics } = compileCached(source)
   return {
     ok: !diagnostics.some(d => d.severity === 'error'),
     diagnostics,

@@ -3,10 +3,11 @@
  * errors and limits both answer 422 with the diagnostics, so the caller can
  * show them under the lines they belong to.
  */
-import { compile, type CompileOptions } from '../../shared/poise/index'
+import type { CompileOptions } from '../../shared/poise/index'
 import type { Model } from '../../shared/poise/model'
 import type { Diagnostic } from '../../shared/poise/diagnostics'
 import { modelLimitProblem } from './solve-limits'
+import { compileCached } from './compile-cache'
 
 export interface CompiledForSolve {
   model: Model
@@ -14,7 +15,7 @@ export interface CompiledForSolve {
 }
 
 export function compileForSolve(source: string, options: CompileOptions = {}): CompiledForSolve {
-  const { model, diagnostics } = compile(source, options)
+  const { model, diagnostics } = compileCached(source, options)
   const errors = diagnostics.filter(d => d.severity === 'error')
   if (!model || errors.length) {
     const first = errors[0]

@@ -3,14 +3,13 @@
  * `use "name"` or `use "name" @ N` resolves to that library of this lab, and
  * a missing one is reported under its line.
  */
-import { compile } from '#shared/poise/index'
 import { LabParams } from '#shared/utils/lab-schemas'
 
 export default defineEventHandler(async (event) => {
   const params = validateParams(event, LabParams)
   const { lab } = await requireLabRole(event, params.lab, 'viewer')
   const source = await readSourceBody(event)
-  const { model, diagnostics } = compile(source, { resolveLibrary: await libraryResolverFor(lab.id, source) })
+  const { model, diagnostics } = compileCached(source, { resolveLibrary: await libraryResolverFor(lab.id, source) })
   return {
     ok: !diagnostics.some((d) => d.severity === 'error'),
     diagnostics,
