@@ -94,6 +94,8 @@ export default defineNuxtConfig({
     },
   },
   nitro: {
+    // Static assets also stored as .gz and .br, served to browsers that accept them (API JSON: server/plugins/compress-json.ts).
+    compressPublicAssets: { gzip: true, brotli: true },
     serverAssets: [{ baseName: 'examples', dir: '../examples' }],
     typescript: { tsConfig: { compilerOptions: { noUncheckedIndexedAccess: false } } },
   },

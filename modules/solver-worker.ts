@@ -27,6 +27,8 @@ export default defineNuxtModule({
       target: 'node20',
       logLevel: 'warning',
       legalComments: 'none',
+      // The pool's own piscina (Piscina.move marks the answer with its symbol).
+      external: ['piscina'],
     })
 
     if (nuxt.options.dev) {

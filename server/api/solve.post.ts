@@ -12,5 +12,5 @@ export default defineEventHandler(async (event) => {
     solverVersion: output.solverVersion,
     elapsedMs: Math.round(output.elapsedMs * 10) / 10,
     diagnostics,
-  }, 'result', output.resultJson)
+  }, 'result', output.resultBytes)
 })

@@ -10,7 +10,7 @@ import { dirname, join } from 'node:path'
 import { pathToFileURL } from 'node:url'
 import Piscina from 'piscina'
 import type { Model } from '../../shared/poise/model'
-import type { SolveTask, SolveTaskOutput } from '../workers/solve.worker'
+import type { SolveTask, SolveTaskAnswer, SolveTaskOutput } from '../workers/solve.worker'
 import { SOLVE_LIMITS } from './solve-limits'
 
 let pool: Piscina | null = null
@@ -49,7 +49,7 @@ export async function solveInPool(model: Model): Promise<SolveTaskOutput> {
   const task: SolveTask = { model, timeBudgetMs: SOLVE_LIMITS.timeBudgetMs }
   const signal = AbortSignal.timeout(SOLVE_LIMITS.timeBudgetMs + SOLVE_LIMITS.graceMs)
   try {
-    return await getPool().run(task, { signal }) as SolveTaskOutput
+    return withResultText(await getPool().run(task, { signal }) as SolveTaskAnswer)
   } catch (error) {
     const name = (error as { name?: string } | null)?.name
     const message = error instanceof Error ? error.message : String(error)
@@ -63,4 +63,13 @@ export async function solveInPool(model: Model): Promise<SolveTaskOutput> {
     console.error('[solver-pool]', error)
     throw createError({ statusCode: 500, message: 'The solver failed unexpectedly on this system. The text was not changed; please report it with the file.' })
   }
+}
+
+/** The main thread's view of an answer: `resultJson` decodes the bytes on first use. */
+function withResultText(answer: SolveTaskAnswer): SolveTaskOutput {
+  let text: string | undefined
+  return Object.defineProperty({ ...answer }, 'resultJson', {
+    enumerable: false,
+    get: () => (text ??= Buffer.from(answer.resultBytes.buffer, answer.resultBytes.byteOffset, answer.resultBytes.byteLength).toString('utf8')),
+  }) as SolveTaskOutput
 }

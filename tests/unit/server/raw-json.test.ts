@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { jsonWithRaw } from '../../../server/utils/raw-json'
+import { jsonBytesWithRaw, jsonWithRaw } from '../../../server/utils/raw-json'
 
 describe('jsonWithRaw', () => {
   it('gives the same JSON as stringifying the parsed value in place', () => {
@@ -12,5 +12,15 @@ describe('jsonWithRaw', () => {
   it('works with an empty head and escapes the key', () => {
     expect(JSON.parse(jsonWithRaw({}, 'a"b', '[1]'))).toEqual({ 'a"b': [1] })
     expect(jsonWithRaw({}, 'result', 'null')).toBe('{"result":null}')
+  })
+})
+
+describe('jsonBytesWithRaw', () => {
+  it('gives the bytes of the same JSON around raw bytes, non-ASCII text intact', () => {
+    const head = { kind: 'sweep', diagnostics: [{ message: 'log₁₀ γ of Cu²⁺ — "a note"' }] }
+    const raw = JSON.stringify({ species: [{ name: 'Cu²⁺', log10: -3.5 }] })
+    const bytes = jsonBytesWithRaw(head, 'result', new TextEncoder().encode(raw))
+    expect(bytes.toString('utf8')).toBe(jsonWithRaw(head, 'result', raw))
+    expect(JSON.parse(bytes.toString('utf8'))).toEqual({ ...head, result: JSON.parse(raw) })
   })
 })

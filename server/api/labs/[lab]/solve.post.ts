@@ -17,5 +17,5 @@ export default defineEventHandler(async (event) => {
     elapsedMs: Math.round(output.elapsedMs * 10) / 10,
     diagnostics,
     libraries: model.libraries,
-  }, 'result', output.resultJson)
+  }, 'result', output.resultBytes)
 })
