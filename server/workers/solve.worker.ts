@@ -16,6 +16,7 @@
 import Piscina from 'piscina'
 import type { Model } from '../../shared/poise/model'
 import { solve, sweep, SOLVER_VERSION } from '../solver/index'
+import type { Result, SweepResult } from '../../shared/types/result'
 
 export interface SolveTask {
   model: Model
@@ -38,7 +39,50 @@ export interface SolveTaskOutput extends SolveTaskAnswer {
   readonly resultJson: string
 }
 
+// TextEncoder gives the bytes a buffer of their own, safe to transfer (Buffer.from may use a shared pool).
 const encoder = new TextEncoder()
+
+/**
+ * The bytes of `JSON.stringify(sweep)`, written point by point into one
+ * growing buffer: the whole answer never exists as one string beside its
+ * bytes, and each point's objects are let go once written (the sweep is
+ * consumed). Keys keep their order; a key whose value is undefined is left
+ * out, as JSON.stringify does.
+ */
+export function encodeSweep(answer: SweepResult): Uint8Array {
+  const points = answer.points as (Result | undefined)[]
+  // Sized from the first point (points of one sweep are alike), so it seldom grows: growing holds two buffers at once.
+  const perPoint = points.length ? Buffer.byteLength(JSON.stringify(points[0])) + 64 : 0
+  let bytes = new Uint8Array(Math.max(4096, Math.ceil(perPoint * points.length * 1.05) + Buffer.byteLength(JSON.stringify(answer.values)) + 4096))
+  let length = 0
+  const write = (text: string) => {
+    for (;;) {
+      const { read, written } = encoder.encodeInto(text, bytes.subarray(length))
+      length += written
+      if (read === text.length) return
+      text = text.slice(read)
+      const grown = new Uint8Array(Math.max(bytes.length * 2, length + text.length * 3))
+      grown.set(bytes.subarray(0, length))
+      bytes = grown
+    }
+  }
+  write('{')
+  let first = true
+  for (const [key, value] of Object.entries(answer)) {
+    if (value === undefined || typeof value === 'function') continue
+    write(`${first ? '' : ','}${JSON.stringify(key)}:`)
+    first = false
+    if (key !== 'points') { write(JSON.stringify(value)); continue }
+    write('[')
+    for (let i = 0; i < points.length; i++) {
+      write(i === 0 ? JSON.stringify(points[i] ?? null) : `,${JSON.stringify(points[i] ?? null)}`)
+      points[i] = undefined
+    }
+    write(']')
+  }
+  write('}')
+  return bytes.subarray(0, length)
+}
 
 /** Solves the task's model: the answer, its bytes not yet transferred. */
 export function solveTask(task: SolveTask): SolveTaskAnswer {
@@ -46,11 +90,11 @@ export function solveTask(task: SolveTask): SolveTaskAnswer {
   const options = { timeBudgetMs: task.timeBudgetMs }
   if (task.model.sweep) {
     const result = sweep(task.model, options)
+    const failedPoints = result.points.filter(p => !p.converged).length
     return {
       kind: 'sweep',
-      // TextEncoder gives the bytes a buffer of their own, safe to transfer (Buffer.from may use a shared pool).
-      resultBytes: encoder.encode(JSON.stringify(result)),
-      failedPoints: result.points.filter(p => !p.converged).length,
+      resultBytes: encodeSweep(result),
+      failedPoints,
       solverVersion: SOLVER_VERSION,
       elapsedMs: performance.now() - started,
     }
