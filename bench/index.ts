@@ -12,8 +12,13 @@ import { buildProblem } from '../server/solver/problem'
 import { PlainNewtonStep } from './plainStep'
 import { benchSystemSource, twoHundredLineSource } from './systems'
 import { spawnSync } from 'node:child_process'
+import { availableParallelism, loadavg } from 'node:os'
 import { fileURLToPath } from 'node:url'
+import { compileCached } from '../server/utils/compile-cache'
 import { buildCli } from '../scripts/build-cli.mjs'
+import { scalingExponent, scalingSystemSource } from './scaling'
+import { hasBuiltServer, startBuiltServer } from './builtServer'
+import { httpSweepMs, workbenchMs } from './served'
 
 const median = (xs: number[]) => {
   const s = [...xs].sort((a, b) => a - b)
@@ -83,8 +88,11 @@ async function main(json: boolean): Promise<void> {
 
   const sweepModel = compiled(benchSystemSource('sweep pH from 4 to 12 points 1000'))
   let failedPoints = 0
+  let sweepIterations = 0
   const sweep1000Ms = timeMs(() => {
-    failedPoints = sweep(sweepModel).points.filter((p) => !p.converged).length
+    const points = sweep(sweepModel).points
+    failedPoints = points.filter((p) => !p.converged).length
+    sweepIterations = points.reduce((a, p) => a + p.iterations, 0)
   }, 9, 2)
   const sweepPointUs = (sweep1000Ms / 1000) * 1000
 
@@ -115,8 +123,54 @@ async function main(json: boolean): Promise<void> {
   let agree = 0
   for (let j = 0; j < p.nc; j++) agree = Math.max(agree, Math.abs(ours[j] - work.y[j]))
   const ratioToPlain = ourStepUs / plainStepUs
+  // A sweep point against the Newton iterations it does (each timed as above).
+  const newtonPerPointUs = (sweepIterations / 1000) * ourStepUs
+  const sweepPointToNewton = sweepPointUs / newtonPerPointUs
 
-  const figures = { compileMs, solveColdUs, sweepPointUs, sweep1000Ms, ratioToPlain, cliCheckMs, nodeBareMs, cliRatio }
+  // Peak RSS of a 20,000-point sweep, solved and encoded as the worker does, in a process of its own.
+  const rss = spawnSync(process.execPath, ['--import', 'tsx', 'bench/sweepRss.ts'], { cwd: root, encoding: 'utf8' })
+  if (rss.status !== 0) throw new Error(`the 20,000-point sweep failed: ${rss.stderr}`)
+  const sweep20kPeakRssMB = JSON.parse(rss.stdout.trim().split('\n').pop()!).peakRssMB as number
+
+  // Cost of a sweep point against the number of components, 16 → 256 (4 and 8 shown, not fitted).
+  const scaling = [4, 8, 16, 32, 64, 128, 256].map((components) => {
+    const points = components >= 128 ? 6 : 20
+    const m = compiled(scalingSystemSource(components, points))
+    let failed = 0
+    const ms = timeMs(() => { failed = sweep(m).points.filter((q) => !q.converged).length }, components >= 128 ? 3 : 5, 1)
+    return { components, species: m.species.length, pointUs: (ms / points) * 1000, failed }
+  })
+  const sweepScalingExponent = scalingExponent(scaling.filter((r) => r.components >= 16))
+
+  // Compile of the unchanged 200-line file on a warm server: what a request pays.
+  const compileCachedMs = timeMs(() => { compileCached(longSource) }, 40)
+
+  // Through the built server and the browser, when one is built.
+  let httpSweep1000Ms: number | null = null
+  let httpToInProcess: number | null = null
+  let sweepWireBytes: number | null = null
+  let sweepJsonBytes: number | null = null
+  let workbench: Awaited<ReturnType<typeof workbenchMs>> | null = null
+  if (hasBuiltServer() && !process.argv.includes('--no-server')) {
+    const server = await startBuiltServer('equipoise_test_bench', json)
+    try {
+      const http = await httpSweepMs(server)
+      httpSweep1000Ms = http.ms
+      httpToInProcess = http.ms / sweep1000Ms
+      sweepWireBytes = http.wireBytes
+      sweepJsonBytes = http.jsonBytes
+      workbench = await workbenchMs(server)
+    } finally {
+      server.stop()
+    }
+  }
+  const workbenchUsableMs = workbench?.usableMs ?? null
+  const workbenchFirstResultMs = workbench?.firstResultMs ?? null
+
+  const figures = {
+    compileMs, solveColdUs, sweepPointUs, sweep1000Ms, ratioToPlain, cliCheckMs, nodeBareMs, cliRatio,
+    sweepPointToNewton, httpToInProcess, sweep20kPeakRssMB, sweepScalingExponent, compileCachedMs, workbenchUsableMs, workbenchFirstResultMs,
+  }
   if (json) {
     console.log(JSON.stringify(figures))
     return
@@ -124,6 +178,7 @@ async function main(json: boolean): Promise<void> {
   const row = (name: string, value: string, target: string, ok: boolean) =>
     `${name.padEnd(44)} ${value.padStart(12)}   target ${target.padEnd(9)} ${ok ? 'met' : 'MISSED'}`
   console.log(`Equipoise solver ${SOLVER_VERSION} benchmark (medians; Node ${process.version})`)
+  console.log(`load average ${loadavg().map((x) => x.toFixed(2)).join(' ')} on ${availableParallelism()} cores`)
   console.log(`machine check: ${machineCheckNs().toFixed(1)} ns per Math.exp in a tight loop (lower is a quieter machine)`)
   console.log(`system: ${model.components.length} components, ${model.species.length} species, ${model.solids.length} solids (${cold.solids.filter((s) => s.present).length} present), cold solve ${cold.iterations} iterations`)
   console.log(row('compile a 200-line file', `${compileMs.toFixed(2)} ms`, '< 5 ms', compileMs < 5))
@@ -135,6 +190,21 @@ async function main(json: boolean): Promise<void> {
   console.log(row('equipoise check of an example, new process', `${cliCheckMs.toFixed(0)} ms`, '< 300 ms', cliCheckMs < 300))
   console.log(row('  the same / a bare `node -e 0`', `${cliRatio.toFixed(2)}×`, '≤ 4×', cliRatio <= 4))
   console.log(`  (node -e 0: ${nodeBareMs.toFixed(0)} ms)`)
+  console.log(row('sweep point / its Newton iterations', `${sweepPointToNewton.toFixed(2)}×`, '≤ 2×', sweepPointToNewton <= 2))
+  console.log(`  (${(sweepIterations / 1000).toFixed(2)} iterations per point, ${newtonPerPointUs.toFixed(1)} µs of Newton per point)`)
+  console.log(row('peak RSS of a 20,000-point sweep', `${sweep20kPeakRssMB.toFixed(0)} MB`, '< 200 MB', sweep20kPeakRssMB < 200))
+  console.log(row('sweep point cost ~ components^k, 16 → 256', `k = ${sweepScalingExponent.toFixed(2)}`, '< 2', sweepScalingExponent < 2))
+  for (const r of scaling) console.log(`  ${String(r.components).padStart(4)} components, ${String(r.species).padStart(4)} species: ${r.pointUs.toFixed(0).padStart(8)} µs per point${r.failed ? ` (${r.failed} failed)` : ''}`)
+  console.log(row('compile the unchanged 200-line file, warm', `${compileCachedMs.toFixed(3)} ms`, '< 0.5 ms', compileCachedMs < 0.5))
+  if (httpToInProcess === null || workbench === null) {
+    console.log('  (no built server in .output/: run `npm run build` for the HTTP and browser figures)')
+  } else {
+    console.log(row('1,000-point sweep, HTTP / in process', `${httpToInProcess.toFixed(2)}×`, '≤ 1.5×', httpToInProcess <= 1.5))
+    console.log(`  (HTTP ${httpSweep1000Ms!.toFixed(0)} ms; answer ${(sweepJsonBytes! / 1e6).toFixed(2)} MB of JSON, ${(sweepWireBytes! / 1e6).toFixed(2)} MB on the wire)`)
+    console.log(`workbench usable, cold browser (no target)       ${workbench.usableMs.toFixed(0).padStart(8)} ms`)
+    console.log(`workbench first result, cold browser (no target) ${workbench.firstResultMs.toFixed(0).padStart(8)} ms`)
+    console.log(`  (${(workbench.transferredBytes / 1e6).toFixed(2)} MB transferred, ${(workbench.decodedBytes / 1e6).toFixed(2)} MB decoded)`)
+  }
 }
 
 await main(process.argv.includes('--json'))

@@ -1,0 +1,87 @@
+/**
+ * The figures that need the built server: a 1,000-point sweep through
+ * POST /api/solve (answer decoded, as a client would), and the workbench
+ * opened cold in Debian's Chromium (time to a usable editor, time to the
+ * first result, bytes transferred).
+ */
+import { chromium } from 'playwright-core'
+import { DEMO_LAB } from '../server/database/seed'
+import { benchSystemSource } from './systems'
+import type { BuiltServer } from './builtServer'
+
+const median = (xs: number[]) => {
+  const s = [...xs].sort((a, b) => a - b)
+  const m = s.length >> 1
+  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2
+}
+
+/** Median ms of a 1,000-point sweep through HTTP, and the bytes of its answer on the wire. */
+export async function httpSweepMs(server: BuiltServer, reps = 7): Promise<{ ms: number, wireBytes: number, jsonBytes: number }> {
+  const body = JSON.stringify({ source: benchSystemSource('sweep pH from 4 to 12 points 1000') })
+  const once = async () => {
+    const t0 = performance.now()
+    const answer = await fetch(`${server.base}/api/solve`, { method: 'POST', headers: { 'content-type': 'application/json', 'accept-encoding': 'br, gzip', cookie: server.cookie }, body })
+    const text = await answer.text()
+    const ms = performance.now() - t0
+    if (!answer.ok) throw new Error(`the sweep answered ${answer.status}: ${text.slice(0, 200)}`)
+    JSON.parse(text)
+    return { ms, jsonBytes: Buffer.byteLength(text), encoding: answer.headers.get('content-encoding') }
+  }
+  await once()
+  const times: number[] = []
+  let jsonBytes = 0
+  for (let k = 0; k < reps; k++) { const r = await once(); times.push(r.ms); jsonBytes = r.jsonBytes }
+  // Bytes on the wire: the same request without letting fetch decode it.
+  const { request } = await import('node:http')
+  const wireBytes = await new Promise<number>((resolveBytes, reject) => {
+    const req = request(`${server.base}/api/solve`, { method: 'POST', headers: { 'content-type': 'application/json', 'accept-encoding': 'br, gzip', cookie: server.cookie } }, (res) => {
+      let n = 0
+      res.on('data', (chunk: Buffer) => { n += chunk.length })
+      res.on('end', () => resolveBytes(n))
+    })
+    req.on('error', reject)
+    req.end(body)
+  })
+  return { ms: median(times), wireBytes, jsonBytes }
+}
+
+export interface WorkbenchFigures { usableMs: number, firstResultMs: number, transferredBytes: number, decodedBytes: number }
+
+/** The workbench of a seeded example, each time in a fresh browser context (cold cache). Medians over `reps`. */
+export async function workbenchMs(server: BuiltServer, reps = 3): Promise<WorkbenchFigures> {
+  const browser = await chromium.launch({
+    executablePath: '/usr/bin/chromium',
+    args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
+  })
+  const rows: WorkbenchFigures[] = []
+  try {
+    for (let k = 0; k < reps + 1; k++) {
+      const context = await browser.newContext()
+      await context.addCookies([{ name: server.cookie.split('=')[0], value: server.cookie.slice(server.cookie.indexOf('=') + 1), url: server.base }])
+      const page = await context.newPage()
+      const t0 = performance.now()
+      await page.goto(`${server.base}/labs/${DEMO_LAB.slug}/systems/copper-rinse-tank`, { waitUntil: 'commit' })
+      await page.locator('.cm-content').waitFor()
+      await page.waitForFunction(() => (window as unknown as { useNuxtApp?: () => { isHydrating: boolean } }).useNuxtApp?.().isHydrating === false)
+      const usableMs = performance.now() - t0
+      await page.locator('.cm-content').click()
+      await page.keyboard.press('Control+Enter')
+      await page.locator('[data-test=summary-ph]').waitFor()
+      const firstResultMs = performance.now() - t0
+      const bytes = await page.evaluate(() => {
+        const entries = [...performance.getEntriesByType('navigation'), ...performance.getEntriesByType('resource')] as PerformanceResourceTiming[]
+        return { transferred: entries.reduce((a, e) => a + e.transferSize, 0), decoded: entries.reduce((a, e) => a + e.decodedBodySize, 0) }
+      })
+      if (k > 0) rows.push({ usableMs, firstResultMs, transferredBytes: bytes.transferred, decodedBytes: bytes.decoded })
+      await context.close()
+    }
+  } finally {
+    await browser.close()
+  }
+  return {
+    usableMs: median(rows.map(r => r.usableMs)),
+    firstResultMs: median(rows.map(r => r.firstResultMs)),
+    transferredBytes: median(rows.map(r => r.transferredBytes)),
+    decodedBytes: median(rows.map(r => r.decodedBytes)),
+  }
+}
