@@ -82,5 +82,14 @@ describe('results in the chemist\'s terms', () => {
     await page.locator('[data-test=diagram-plot] svg').waitFor()
     await expect(page.locator('[data-test=diagram-plot] svg').textContent()).resolves.toContain('factor')
     await screenshot(page, 'units-shortcut-diagram')
+
+    // The printable report: the window in words and every sweep point, in the units chosen for the system.
+    await page.locator('[data-test=tab-report]').click()
+    await page.locator('[data-test=report-link]').click()
+    await page.waitForURL(/\/report\?run=\d+/)
+    await expect(page.locator('[data-test=limit-sentence]').textContent()).resolves.toContain(words)
+    await page.locator('[data-test=sweep-table] th', { hasText: 'dissolved Ni (mg/L as Ni)' }).waitFor()
+    await expect(page.locator('[data-test=sweep-table] tbody tr').count()).resolves.toBe(expected.values.length)
+    await screenshot(page, 'units-report')
   })
 })
