@@ -14,12 +14,13 @@ import { poiseSymbolsField } from './analysis'
 import { lexLine, type LineToken } from './language'
 
 /** Words that open a statement, in the order a file usually has them. */
-const STATEMENT_WORDS = ['system', 'temperature', 'activity', 'ionic-strength', 'ion-size', 'component', 'reaction', 'solid', 'source', 'use', 'sweep', 'limit']
+const STATEMENT_WORDS = ['system', 'temperature', 'activity', 'ionic-strength', 'ion-size', 'component', 'reaction', 'solid', 'source', 'use', 'sweep', 'limit', 'sample', 'titrant', 'titrate']
 const COMPONENT_SPECS = ['total', 'free', 'pH', 'pressure', 'balance', 'excess']
 const ACTIVITY_MODELS = ['ideal', 'davies', 'debye-huckel']
 const REACTION_TAIL = ['dH', 'cite']
 const SWEEP_VARIABLES = ['pH', 'total', 'temperature', 'pressure']
 const SWEEP_WORDS = ['from', 'to', 'step', 'points', 'log']
+const TITRATE_WORDS = ['to', 'step', 'points']
 
 /** The part of a word already typed: formulas, keywords with `-`, units such as `mmol/L`, `°C`. */
 const WORD_BEFORE_CURSOR = /[A-Za-z°µ][\w°µ/()^·:+-]*$/
@@ -100,6 +101,22 @@ export function planCompletion(before: LineToken[], symbols: readonly PoiseSymbo
       if (before.length === 1) return { kind: 'keyword', words: known(['dissolved'], KEYWORDS) }
       if (before.length === 2) return { kind: 'symbol', words: limitTargets(symbols) }
       return before.length === 4 && last.role === 'number' ? unitsOf(AMOUNT) : null
+    }
+    case 'sample':
+      // `sample volume N UNIT`
+      if (before.length === 1) return { kind: 'keyword', words: known(['volume'], KEYWORDS) }
+      return before.length === 3 && last.role === 'number' ? unitsOf(['volume']) : null
+    case 'titrant':
+      // `titrant F N UNIT`: a component or a species the reactions define, then a concentration.
+      if (before.length === 1) return { kind: 'symbol', words: symbolNames(symbols, ['component', 'species']) }
+      return before.length === 3 && last.role === 'number' ? unitsOf(AMOUNT) : null
+    case 'titrate': {
+      // `titrate from A to B (step D | points N)` or `titrate to pH X`.
+      if (before.length === 1) return { kind: 'keyword', words: known(['from', 'to'], KEYWORDS) }
+      if (before[1]!.image === 'to') return before.length === 2 ? { kind: 'keyword', words: known(['pH'], KEYWORDS) } : null
+      const countsPoints = before[before.length - 2]?.image === 'points'
+      if (last.role === 'number' && !countsPoints) return unitsOf(['volume'])
+      return { kind: 'keyword', words: known(TITRATE_WORDS, KEYWORDS) }
     }
     default:
       return null

@@ -3,7 +3,7 @@
  * problem becomes a diagnostic; nothing here throws to the caller (index.ts
  * turns even an internal bug into a diagnostic).
  */
-import type { Model, ModelComponent, ModelGas, ModelLimit, ModelReaction, ModelSolid, ModelSpecies, ModelSweep, ActivityModelName, ConstantKind } from './model'
+import type { Model, ModelComponent, ModelGas, ModelLimit, ModelReaction, ModelSolid, ModelSpecies, ModelSweep, ModelTitration, ActivityModelName, ConstantKind } from './model'
 import type { Diagnostic, SourceRange } from './diagnostics'
 import { parseFormula, type ParsedFormula } from './formula'
 import { Reporter } from './report'
@@ -12,6 +12,7 @@ import { checkComponent } from './components'
 import { checkBalance, kindMismatch, logKFromConstant, resolveReactions, type Known, type PreparedReaction, type PreparedTerm, type ReactionStatement } from './reactions'
 import { compileSweep } from './sweep'
 import { compileLimit } from './limitStatement'
+import { compileTitration } from './titration'
 import { convert, unitInfo, UNIT_HINTS } from './units'
 import { REFERENCE_TEMPERATURE_C, vantHoff } from './thermo'
 import { checkRange } from './limits'
@@ -63,8 +64,9 @@ export function compileSource(source: string, options: CompileOptions, stack: st
   if (systems.length === 0 && !parsed.problems.length) report.error('P003', 'a file starts with `system "TITLE"`: add it as the first line', { from: 0, to: 0 })
   if (systems.length > 0 && st[0] !== systems[0]) report.error('P003', '`system` must be the first statement of the file', systems[0]!.keyword)
   for (const dup of systems.slice(1)) report.error('P004', '`system` is given twice: keep one', dup.keyword)
-  for (const kind of ['temperature', 'activity', 'ionicStrength', 'sweep'] as const) {
-    for (const dup of of(kind).slice(1)) report.error('P004', `\`${dup.keyword.image}\` is given twice: keep one (one ${dup.keyword.image} a file)`, dup.keyword)
+  for (const kind of ['temperature', 'activity', 'ionicStrength', 'sweep', 'sampleVolume', 'titrate'] as const) {
+    const word = kind === 'sampleVolume' ? 'sample volume' : null
+    for (const dup of of(kind).slice(1)) report.error('P004', `\`${word ?? dup.keyword.image}\` is given twice: keep one (one ${word ?? dup.keyword.image} a file)`, dup.keyword)
   }
 
   let temperatureC = REFERENCE_TEMPERATURE_C
@@ -244,6 +246,10 @@ export function compileSource(source: string, options: CompileOptions, stack: st
   let sweep: ModelSweep | null = null
   // With a component missing, a sweep check would only add confusing errors.
   if (sweepStmt && !incomplete) sweep = compileSweep(sweepStmt, components, report)
+  let titration: ModelTitration | null = null
+  if (!incomplete) {
+    titration = compileTitration({ sample: of('sampleVolume')[0], titrants: of('titrant'), titrate: of('titrate')[0], sweep: sweepStmt }, components, known, report)
+  }
   const limits: ModelLimit[] = []
   if (!incomplete) {
     for (const l of of('limit')) {
@@ -291,6 +297,7 @@ export function compileSource(source: string, options: CompileOptions, stack: st
       title: of('system')[0]?.title ?? '', temperatureC, refTemperatureC: REFERENCE_TEMPERATURE_C, activity, fixedIonicStrength,
       components, species, solids, gases, reactions, sweep, sources, libraries,
       ...(limits.length ? { limits } : {}),
+      ...(titration ? { titration } : {}),
     }
   }
 

@@ -111,6 +111,14 @@ export const LIMITS = {
     usual: { min: 2, max: 12 },
     usualWhy: 'tabulated ion-size parameters span about 2.5 to 11 Å',
   },
+  // Volumes of a titration: a sample of a few microlitres at the bench up to a
+  // plant's neutralisation tank (1000 m³ = 1e6 L); beyond, a volume is a typo
+  // of its unit (common practice).
+  volume: {
+    label: 'the volume', unit: ' L',
+    hard: { min: 0, max: 1e6 },
+    hardWhy: 'a titrated sample or a dose is at most a large tank (1000 m³): check the unit',
+  },
 } as const satisfies Record<string, QuantityLimit>
 
 export type LimitName = keyof typeof LIMITS
@@ -132,7 +140,7 @@ export const NUMBER_MIN = 2.2250738585072014e-308
  */
 export const MIN_NONZERO_TOTAL = 1e-300
 
-/** At most this many points in one sweep; the compiler and the server's request limits both use it. */
+/** At most this many points in one sweep or titration; the compiler and the server's request limits both use it. */
 export const MAX_SWEEP_POINTS = 5000
 /** At most this many atoms of one element in a formula. */
 export const MAX_ATOM_COUNT = 1000
@@ -219,6 +227,7 @@ export function limitsTable(): string {
     `| a non-zero concentration | ${formatNumber(MIN_NONZERO_TOTAL)} mol/L or more in size (the solver cannot resolve less; write 0 to leave a component out) | — |`,
     `| any number written | 0, or ${formatNumber(NUMBER_MIN)} to ${formatNumber(NUMBER_MAX)} in size | — |`,
     `| sweep points | 2 to ${MAX_SWEEP_POINTS} | — |`,
+    `| titration points | 2 to ${MAX_SWEEP_POINTS} | — |`,
     `| atoms of one element in a formula | 1 to ${MAX_ATOM_COUNT} | — |`,
     `| charge of a species | −${MAX_CHARGE} to +${MAX_CHARGE} | — |`,
   ].join('\n')

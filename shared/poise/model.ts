@@ -149,6 +149,36 @@ export interface ModelLimit {
   line: number
 }
 
+/** One `titrant F N UNIT` line. */
+export interface ModelTitrant {
+  /** Species in caret form (`Na^+`… as results show it). */
+  species: string
+  /** mol/L in the titrant. */
+  concentration: number
+  line: number
+}
+
+/**
+ * `sample volume`, `titrant` and `titrate`: the sample (the model's own
+ * totals, in `sampleVolumeL`) receives the titrant; at an added volume v
+ * every `total` component is (V0·T0 + v·Tt)/(V0 + v).
+ */
+export interface ModelTitration {
+  /** Volume of the sample, L. */
+  sampleVolumeL: number
+  titrant: ModelTitrant[]
+  /** What one litre of titrant brings to each component's total, mol/L, over `model.components` (same order and length). */
+  titrantTotals: number[]
+  /** Added volumes of the curve, mL (as the answer reports them); null for `titrate to pH`. */
+  values: number[] | null
+  /** `titrate to pH X`: the target; null for a curve. */
+  targetPH: number | null
+  /** The volume unit the file wrote (mL, L, uL, µL), for showing a dose in it. */
+  unit: string
+  /** 1-based line of the `titrate` statement. */
+  line: number
+}
+
 export type { IonSizeSource }
 
 export interface Model {
@@ -165,6 +195,8 @@ export interface Model {
   gases: ModelGas[]
   reactions: ModelReaction[]
   sweep: ModelSweep | null
+  /** The titration the file declares; absent when none (and in models stored before titrations existed). */
+  titration?: ModelTitration
   /** `limit` statements of the file; absent when it has none (and in models stored before limits existed). */
   limits?: ModelLimit[]
   /** `source KEY "text"` entries, the file's and its libraries'. */

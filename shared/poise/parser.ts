@@ -23,9 +23,10 @@ function alternatives(paths: TokenType[][][]): string {
 }
 
 const RULE_NAMES: Record<string, string> = {
-  statement: 'a statement (system, temperature, activity, ionic-strength, ion-size, component, reaction, solid, source, use, sweep or limit)',
+  statement: 'a statement (system, temperature, activity, ionic-strength, ion-size, component, reaction, solid, source, use, sweep, limit, sample volume, titrant or titrate)',
   componentSpec: 'a component spec (total, free, pH, pressure, balance or excess)',
   sweepVariable: 'a sweep variable (pH, total F, temperature or pressure F)',
+  titrateStatement: "'from A to B' or 'to pH X' after titrate",
 }
 
 const messages: IParserErrorMessageProvider = {
@@ -57,6 +58,9 @@ class PoiseParser extends CstParser {
     { ALT: () => this.SUBRULE(this.useStatement) },
     { ALT: () => this.SUBRULE(this.sweepStatement) },
     { ALT: () => this.SUBRULE(this.limitStatement) },
+    { ALT: () => this.SUBRULE(this.sampleVolumeStatement) },
+    { ALT: () => this.SUBRULE(this.titrantStatement) },
+    { ALT: () => this.SUBRULE(this.titrateStatement) },
   ]
   private readonly activityAlts = [
     { ALT: () => this.CONSUME(T.IdealKeyword) },
@@ -107,6 +111,22 @@ class PoiseParser extends CstParser {
     { ALT: () => { this.CONSUME(T.PressureKeyword); this.CONSUME2(T.Formula) } },
   ]
   private readonly optionalUnit = () => this.CONSUME(T.Unit)
+  private readonly titrateSpacingAlts = [
+    { ALT: () => { this.CONSUME2(T.StepKeyword); this.SUBRULE6(this.quantity) } },
+    { ALT: () => { this.CONSUME2(T.PointsKeyword); this.CONSUME2(T.NumberLiteral) } },
+  ]
+  private readonly titrateAlts = [
+    {
+      ALT: () => {
+        this.CONSUME(T.FromKeyword)
+        this.SUBRULE4(this.quantity)
+        this.CONSUME1(T.ToKeyword)
+        this.SUBRULE5(this.quantity)
+        this.OR1(this.titrateSpacingAlts)
+      },
+    },
+    { ALT: () => { this.CONSUME2(T.ToKeyword); this.CONSUME(T.PHKeyword); this.CONSUME1(T.NumberLiteral) } },
+  ]
 
   constructor() {
     super(T.allTokens, { recoveryEnabled: true, errorMessageProvider: messages, maxLookahead: 2 })
@@ -222,6 +242,26 @@ class PoiseParser extends CstParser {
     this.CONSUME(T.DissolvedKeyword)
     this.CONSUME(T.Formula)
     this.SUBRULE(this.quantity)
+  })
+
+  /** `sample volume N UNIT`: the volume titrated. */
+  private sampleVolumeStatement = this.RULE('sampleVolumeStatement', () => {
+    this.CONSUME(T.SampleKeyword)
+    this.CONSUME(T.VolumeKeyword)
+    this.SUBRULE(this.quantity)
+  })
+
+  /** `titrant F N UNIT`: one species of the titrant and its concentration. */
+  private titrantStatement = this.RULE('titrantStatement', () => {
+    this.CONSUME(T.TitrantKeyword)
+    this.CONSUME(T.Formula)
+    this.SUBRULE(this.quantity)
+  })
+
+  /** `titrate from A to B (step D | points N)` or `titrate to pH X`. */
+  private titrateStatement = this.RULE('titrateStatement', () => {
+    this.CONSUME(T.TitrateKeyword)
+    this.OR(this.titrateAlts)
   })
 
   private sweepVariable = this.RULE('sweepVariable', () => {

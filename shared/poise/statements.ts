@@ -26,6 +26,9 @@ export type Statement = Base & (
   | { kind: 'source'; key: Tok; text: string }
   | { kind: 'use'; name: string; nameTok: Tok; revision: Quantity | null }
   | { kind: 'limit'; dissolved: Tok; target: Tok; quantity: Quantity }
+  | { kind: 'sampleVolume'; volume: Tok; quantity: Quantity }
+  | { kind: 'titrant'; formula: Tok; quantity: Quantity }
+  | { kind: 'titrate'; start: Quantity | null; end: Quantity | null; step: Quantity | null; points: Quantity | null; targetPH: Quantity | null }
   | { kind: 'sweep'; variable: 'pH' | 'total' | 'temperature' | 'pressure'; variableTok: Tok; target: Tok | null; start: Quantity; end: Quantity; step: Quantity | null; points: Quantity | null; log: boolean }
 )
 
@@ -137,6 +140,22 @@ function toStatement(cst: CstNode, from: number, to: number): Statement {
         kind: 'limit', from, to, keyword: kw('LimitKeyword'), dissolved: kw('DissolvedKeyword'),
         target: tok(token(inner, 'Formula')), quantity: quantity(node(inner, 'quantity')),
       }
+    case 'sampleVolumeStatement':
+      return { kind: 'sampleVolume', from, to, keyword: kw('SampleKeyword'), volume: kw('VolumeKeyword'), quantity: quantity(node(inner, 'quantity')) }
+    case 'titrantStatement':
+      return { kind: 'titrant', from, to, keyword: kw('TitrantKeyword'), formula: tok(token(inner, 'Formula')), quantity: quantity(node(inner, 'quantity')) }
+    case 'titrateStatement': {
+      const keyword = kw('TitrateKeyword')
+      if (maybeToken(inner, 'PHKeyword')) {
+        return { kind: 'titrate', from, to, keyword, start: null, end: null, step: null, points: null, targetPH: numberQuantity(token(inner, 'Number')) }
+      }
+      const qs = nodes(inner, 'quantity')
+      const pts = maybeToken(inner, 'Number')
+      return {
+        kind: 'titrate', from, to, keyword, start: quantity(qs[0]!), end: quantity(qs[1]!),
+        step: qs[2] ? quantity(qs[2]) : null, points: pts ? numberQuantity(pts) : null, targetPH: null,
+      }
+    }
     case 'sweepStatement': {
       const v = node(inner, 'sweepVariable')
       const vKey = Object.keys(v.children).find((k) => k.endsWith('Keyword'))!

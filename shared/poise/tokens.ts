@@ -29,8 +29,8 @@ const lowerUnits = [
   'mmol/L', 'umol/L', 'µmol/L', 'μmol/L', 'nmol/L', 'mol/L', 'mM', 'uM', 'µM', 'μM', 'nM',
   'mg/L', 'ug/L', 'µg/L', 'μg/L', 'g/L', '°C', 'atm', 'bar', 'kPa', 'kJ/mol', 'kcal/mol',
 ]
-/** Units read only directly after a number: the upper-case ones, and lengths that could be words elsewhere. */
-const upperUnits = ['J/mol', 'Pa', 'M', 'C', 'K', 'Å', 'Å', 'pm', 'nm']
+/** Units read only directly after a number: the upper-case ones, and lengths and volumes that could be words elsewhere. */
+const upperUnits = ['J/mol', 'Pa', 'M', 'C', 'K', 'Å', 'Å', 'pm', 'nm', 'mL', 'uL', 'µL', 'μL', 'L']
 const escape = (s: string) => s.replace(/[/^$.*+?()[\]{}|\\]/g, '\\$&')
 const unitAfterNumber = new RegExp(`(?:${[...lowerUnits, ...upperUnits].map(escape).join('|')})(?![A-Za-z0-9_/()^+\\-·:])`, 'y')
 const unitAnywhere = new RegExp(`(?:${lowerUnits.map(escape).join('|')})(?![A-Za-z0-9_/()^+\\-·:])`, 'y')
@@ -53,7 +53,7 @@ export const Unit = createToken({
       lastTokenIs(tokens, NumberLiteral) ? stickyExec(unitAfterNumber, text, offset) : stickyExec(unitAnywhere, text, offset),
   },
   line_breaks: false,
-  start_chars_hint: ['m', 'u', 'µ', 'μ', 'n', 'M', 'g', '°', 'a', 'b', 'k', 'J', 'P', 'C', 'K', 'Å', 'Å', 'p'],
+  start_chars_hint: ['m', 'u', 'µ', 'μ', 'n', 'M', 'g', '°', 'a', 'b', 'k', 'J', 'P', 'C', 'K', 'Å', 'Å', 'p', 'L'],
   label: 'a unit',
 })
 
@@ -112,6 +112,10 @@ export const PointsKeyword = keyword('PointsKeyword', 'points')
 export const LogKeyword = keyword('LogKeyword', 'log')
 export const LimitKeyword = keyword('LimitKeyword', 'limit')
 export const DissolvedKeyword = keyword('DissolvedKeyword', 'dissolved')
+export const SampleKeyword = keyword('SampleKeyword', 'sample')
+export const VolumeKeyword = keyword('VolumeKeyword', 'volume')
+export const TitrantKeyword = keyword('TitrantKeyword', 'titrant')
+export const TitrateKeyword = keyword('TitrateKeyword', 'titrate')
 
 /** A chemical formula: starts with an upper-case letter; its inside is checked by formula.ts. */
 export const Formula = createToken({
@@ -128,6 +132,7 @@ export const KEYWORD_TOKENS: TokenType[] = [
   PHKeyword, PressureKeyword, BalanceKeyword, ExcessKeyword, SuppressedKeyword, IdealKeyword,
   DaviesKeyword, DebyeHuckelKeyword, EnthalpyKeyword, CiteKeyword, FromKeyword, ToKeyword,
   StepKeyword, PointsKeyword, LogKeyword, LimitKeyword, DissolvedKeyword,
+  SampleKeyword, VolumeKeyword, TitrantKeyword, TitrateKeyword,
 ]
 
 /** Order matters: the first pattern that matches wins (keywords before Word, units before Formula). */

@@ -3,7 +3,7 @@
  * degrees Celsius, kJ/mol, ångström. Mass concentrations need the molar mass of the
  * formula and are converted by the caller.
  */
-export type Dimension = 'concentration' | 'mass-concentration' | 'pressure' | 'temperature' | 'enthalpy' | 'length'
+export type Dimension = 'concentration' | 'mass-concentration' | 'pressure' | 'temperature' | 'enthalpy' | 'length' | 'volume'
 
 interface UnitInfo { dimension: Dimension; factor: number; offset: number }
 
@@ -22,8 +22,11 @@ const table: Record<string, UnitInfo> = {
   'kJ/mol': u('enthalpy', 1), 'J/mol': u('enthalpy', 1e-3), 'kcal/mol': u('enthalpy', 4.184),
   // Ion sizes to ångström (1 Å = 100 pm = 0.1 nm; the Å letter and the ångström sign both read).
   'Å': u('length', 1), 'Å': u('length', 1), pm: u('length', 0.01), nm: u('length', 10),
+  // Volumes to litres (1 mL = 1e-3 L, 1 µL = 1e-6 L; SI prefixes).
+  L: u('volume', 1), mL: u('volume', 1e-3),
 }
 for (const m of MICRO) {
+  table[`${m}L`] = u('volume', 1e-6)
   table[`${m}mol/L`] = u('concentration', 1e-6)
   table[`${m}M`] = u('concentration', 1e-6)
   table[`${m}g/L`] = u('mass-concentration', 1e-6)
@@ -47,6 +50,7 @@ export const UNIT_HINTS: Record<Dimension, string> = {
   temperature: 'a temperature unit: C, °C or K',
   enthalpy: 'an enthalpy unit: kJ/mol, J/mol or kcal/mol',
   length: 'a length unit: Å, pm or nm',
+  volume: 'a volume unit: mL, L, uL or µL',
 }
 
 /** Parses a Poise number: decimal, exponent, or `10^x`. */

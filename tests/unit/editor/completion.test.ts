@@ -99,6 +99,34 @@ describe('Poise completion', () => {
   })
 })
 
+describe('Poise completion of a titration', () => {
+  it('offers volume after sample, then volume units only', () => {
+    expect(offered('sample |')).toEqual(['volume'])
+    expect(offered('sample volume 25 |')).toEqual(['mL', 'uL', 'µL', 'μL', 'L'])
+  })
+
+  it('offers components and species after titrant, then concentration units', () => {
+    expect(offered('titrant |')).toEqual(['Cu^2+', 'NH3', 'CuNH3^2+'])
+    const units = offered('titrant NH3 0.1 |')!
+    expect(units).toContain('mol/L')
+    expect(units).toContain('mg/L')
+    expect(units).not.toContain('mL')
+  })
+
+  it('offers from or to after titrate, pH after to, volume units after a volume and the spacing words after it', () => {
+    expect(offered('titrate |')).toEqual(['from', 'to'])
+    expect(offered('titrate to |')).toEqual(['pH'])
+    expect(offered('titrate to pH 7 |')).toBeNull()
+    expect(offered('titrate from 0 to 40 |')).toContain('mL')
+    expect(offered('titrate from 0 to 40 mL |')).toEqual(['to', 'step', 'points'])
+    expect(offered('titrate from 0 to 40 mL points 81 |')).toEqual(['to', 'step', 'points'])
+  })
+
+  it('offers the titration statements at the start of a line', () => {
+    expect(offered('|', true)).toEqual(expect.arrayContaining(['sample', 'titrant', 'titrate']))
+  })
+})
+
 describe('Poise completion with the symbols of a real compile', () => {
   it('offers the species the file declares, components and reaction products alike', () => {
     const doc = `system "Limestone bed"
