@@ -3,15 +3,16 @@
  * called by cli/local.ts. `--units` (mol/L, mmol/L, µmol/L or umol/L,
  * mg/L, µg/L or ug/L) sets the unit of the tables; `--as-element` counts
  * components in a mass unit as their element (Ni as Ni, NH3 as N). The JSON
- * is the Result as the solver wrote it, always in mol/L.
+ * is the Result as the solver wrote it, always in mol/L; for a titration
+ * it is the TitrationResult (volumes in mL).
  * Exit codes: 0 solved, 1 a solve (or a sweep point) did not converge,
  * 2 the file could not be read or compiled (diagnostics on stderr).
  */
 import { existsSync, readFileSync } from 'node:fs'
 import { compile } from '../../shared/poise/index'
 import type { Result, SweepResult } from '../../shared/types/result'
-import { solve, sweep } from './index'
-import { formatResultTable, formatSweepTable } from './table'
+import { solve, sweep, titration } from './index'
+import { formatResultTable, formatSweepTable, formatTitrationTable } from './table'
 import { OUTPUT_UNITS, parseOutputUnit, unitScale } from '../../shared/results/units'
 
 const USAGE = 'usage: npm run -s cli -- solve FILE.poise [--json] [--units UNIT] [--as-element]'
@@ -47,6 +48,11 @@ export async function runSolveCommand(args: string[]): Promise<number> {
   }
   const model = compiled.model
   if (!model || compiled.diagnostics.some((d) => d.severity === 'error')) return 2
+  if (model.titration) {
+    const out = titration(model)
+    console.log(json ? JSON.stringify(out, null, 2) : formatTitrationTable(model, out))
+    return 'points' in out ? (out.points.every((p) => p.converged) ? 0 : 1) : out.volume !== null || out.reason?.includes('not reachable') ? 0 : 1
+  }
   if (model.sweep) {
     const out: SweepResult = sweep(model)
     console.log(json ? JSON.stringify(out, null, 2) : formatSweepTable(model, out, unitScale(model, { unit, asElement })))

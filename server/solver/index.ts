@@ -21,6 +21,7 @@ function withShortcut(model: Model, result: Result): Result {
   const shortcut = shortcutOf(model, result)
   return shortcut ? { ...result, shortcut } : result
 }
+import { bufferCapacity } from './sensitivity'
 
 /** Stored with every run, so a result can be traced to the solver that made it. */
 export const SOLVER_VERSION = '1.1.0'
@@ -56,7 +57,7 @@ const DEFAULT_BUDGET_MS = 10_000
 const PROTON_GUESSES = [-7, -3, -11, -1, -13]
 
 /** The wall-clock guard of a call: its end as a performance.now() value and its length in ms. */
-function guardOf(options: SolveOptions | undefined): { deadline: number; guardMs: number } {
+export function guardOf(options: SolveOptions | undefined): { deadline: number; guardMs: number } {
   const requested = options?.timeBudgetMs ?? DEFAULT_BUDGET_MS
   let guardMs = Math.max(0, Math.min(Number.isFinite(requested) ? requested : DEFAULT_BUDGET_MS, SOLVER_LIMITS.timeBudgetMs))
   if (options?.deadline !== undefined && Number.isFinite(options.deadline)) {
@@ -65,16 +66,16 @@ function guardOf(options: SolveOptions | undefined): { deadline: number; guardMs
   return { deadline: performance.now() + guardMs, guardMs }
 }
 
-function iterationsOf(options: SolveOptions | undefined): number {
+export function iterationsOf(options: SolveOptions | undefined): number {
   const n = Math.floor(options?.maxIterations ?? DEFAULT_ITERATIONS)
   return Math.max(1, Math.min(Number.isFinite(n) ? n : DEFAULT_ITERATIONS, SOLVER_LIMITS.maxIterations))
 }
 
-function newState(p: Problem): SolverState {
+export function newState(p: Problem): SolverState {
   return { y: new Float64Array(p.nc), x: new Float64Array(p.nc), n: new Float64Array(p.nsol), active: new Uint8Array(p.nsol), u: 0 }
 }
 
-function copyState(to: SolverState, from: SolverState): void {
+export function copyState(to: SolverState, from: SolverState): void {
   to.y.set(from.y); to.x.set(from.x); to.n.set(from.n); to.active.set(from.active); to.u = from.u
 }
 
@@ -98,7 +99,7 @@ function coldStart(ws: Workspace, state: SolverState, logH: number): void {
   presolve(ws, state)
 }
 
-interface Attempt { result: Result; ok: boolean }
+export interface Attempt { result: Result; ok: boolean }
 
 /**
  * What keeps the final state from being an answer, checked on that state
@@ -178,7 +179,7 @@ export const MAX_ATTEMPTS = 2 + PROTON_GUESSES.length + HOMOTOPY_STAGES_MAX + BR
  * model) by continuation in A from ideal solution to the full model; keeps
  * the first success, or the last failure.
  */
-function solveProblem(ws: Workspace, state: SolverState, limits: Limits, warm: SolverState[]): Attempt {
+export function solveProblem(ws: Workspace, state: SolverState, limits: Limits, warm: SolverState[]): Attempt {
   const p = ws.p
   let spent = 0
   let last: Attempt | null = null
@@ -318,7 +319,7 @@ function bracketProton(ws: Workspace, state: SolverState, limits: Limits, spentB
 }
 
 /** A Result for a model that could not be set up at all. */
-function unsolvable(model: Model | null | undefined, reason: string): Result {
+export function unsolvable(model: Model | null | undefined, reason: string): Result {
   return {
     converged: false, iterations: 0,
     temperatureC: Number.isFinite(model?.temperatureC) ? (model as Model).temperatureC : 25,
@@ -327,7 +328,7 @@ function unsolvable(model: Model | null | undefined, reason: string): Result {
   }
 }
 
-function internalFailure(model: Model, error: unknown): Result {
+export function internalFailure(model: Model, error: unknown): Result {
   const what = error instanceof Error ? error.message : String(error)
   return unsolvable(model, `The solver stopped on an internal error (${what}); please report this model.`)
 }
@@ -339,7 +340,10 @@ export function solve(model: Model, options?: SolveOptions): Result {
     if ('error' in built) return unsolvable(model, built.error)
     const ws = new Workspace(built.problem)
     const limits = { maxIterations: iterationsOf(options), ...guardOf(options) }
-    return withShortcut(model, solveProblem(ws, newState(built.problem), limits, []).result)
+    const state = newState(built.problem)
+    const out = solveProblem(ws, state, limits, [])
+    if (out.ok) out.result.bufferCapacity = bufferCapacity(ws, state)
+    return withShortcut(model, out.result)
   } catch (error) {
     return internalFailure(model, error)
   }
@@ -442,6 +446,51 @@ export function solveAtSweepValue(model: Model, v: number, options?: SolveOption
 }
 
 /**
+ * Continuation along a path of values: each point starts from a prediction
+ * through the previous converged points, or else from the last one; a
+ * point that fails is marked converged:false with its reason and the path
+ * goes on. `apply` moves the problem to a value (or says why it cannot);
+ * `position` is where a value lies for the prediction (log10 for a log
+ * sweep); `onPoint` sees each converged state (for sensitivities). Used by
+ * sweeps and titrations.
+ */
+export function continueAlong(
+  ws: Workspace, values: number[], position: (v: number) => number, apply: (v: number) => string | null,
+  options: SolveOptions | undefined, noun: 'sweep' | 'titration',
+  onPoint?: (index: number, state: SolverState, result: Result) => void, guard = guardOf(options),
+): Result[] {
+  const p = ws.p
+  const model = p.model
+  const out: Result[] = []
+  const state = newState(p)
+  const predicted = newState(p)
+  // The last three converged points, newest first; their states are reused round robin.
+  const recent: SweepPoint[] = []
+  const spare: SolverState[] = [newState(p), newState(p), newState(p)]
+  const maxIterations = iterationsOf(options)
+  values.forEach((v, index) => {
+    const bad = apply(v)
+    if (bad) { out.push(unsolvable(model, `This ${noun} point cannot be solved: ${bad}.`)); return }
+    if (performance.now() > guard.deadline) {
+      out.push(unsolvable(model, `Not solved: the time guard of the ${noun} (${Math.round(guard.guardMs / 1000)} s, a safety limit of the server) ran out before this point. Use fewer ${noun} points or a smaller system.`))
+      return
+    }
+    const starts: SolverState[] = []
+    if (recent.length >= 2 && predict(predicted, position(v), recent)) starts.push(predicted)
+    if (recent.length >= 1) starts.push(recent[0].state)
+    const solved = solveProblem(ws, state, { maxIterations, ...guard }, starts)
+    if (solved.ok) {
+      const slot = recent.length === 3 ? recent.pop()!.state : spare.pop()!
+      copyState(slot, state)
+      recent.unshift({ state: slot, at: position(v) })
+      onPoint?.(index, state, solved.result)
+    }
+    out.push(solved.result)
+  })
+  return out
+}
+
+/**
  * The model's sweep: each point starts from a prediction through the
  * previous converged points, or else from the last one (continuation);
  * a point that fails is marked converged:false with its reason and the sweep
@@ -459,32 +508,9 @@ export function sweep(model: Model, options?: SolveOptions): SweepResult {
     const target = sweepComponentIndex(model)
     if ('error' in target) return { ...base, points: values.map(() => unsolvable(model, `The sweep cannot run: ${target.error}.`)) }
     const ws = new Workspace(p)
-    const state = newState(p)
-    const predicted = newState(p)
-    // The last three converged points, newest first; their states are reused round robin.
-    const recent: SweepPoint[] = []
-    const spare: SolverState[] = [newState(p), newState(p), newState(p)]
-    const maxIterations = iterationsOf(options)
-    const guard = guardOf(options)
     const position = (v: number) => (sw.log && v > 0 ? Math.log10(v) : v)
-    for (const v of values) {
-      const bad = applySweepValue(p, sw.variable, target.index, v)
-      if (bad) { base.points.push(unsolvable(model, `This sweep point cannot be solved: ${bad}.`)); continue }
-      if (performance.now() > guard.deadline) {
-        base.points.push(unsolvable(model, `Not solved: the time guard of the sweep (${Math.round(guard.guardMs / 1000)} s, a safety limit of the server) ran out before this point. Use fewer sweep points or a smaller system.`))
-        continue
-      }
-      const starts: SolverState[] = []
-      if (recent.length >= 2 && predict(predicted, position(v), recent)) starts.push(predicted)
-      if (recent.length >= 1) starts.push(recent[0].state)
-      const out = solveProblem(ws, state, { maxIterations, ...guard }, starts)
-      if (out.ok) {
-        const slot = recent.length === 3 ? recent.pop()!.state : spare.pop()!
-        copyState(slot, state)
-        recent.unshift({ state: slot, at: position(v) })
-      }
-      base.points.push(withShortcut(model, out.result))
-    }
+    base.points.push(...continueAlong(ws, values, position, (v) => applySweepValue(p, sw.variable, target.index, v), options, 'sweep')
+      .map((r) => withShortcut(model, r)))
     // Limit windows: their ends located by exact solves between the grid points.
     if (model.limits?.length) base.limits = limitWindows(model, base, (v) => solveAtSweepValue(model, v, options))
     return base
@@ -493,4 +519,5 @@ export function sweep(model: Model, options?: SolveOptions): SweepResult {
   }
 }
 
+export { titration } from './titration'
 export type { Result, SweepResult }

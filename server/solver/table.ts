@@ -3,7 +3,8 @@
  * numbers in engineering-friendly exponent form.
  */
 import type { Model } from '../../shared/poise/model'
-import type { Result, SweepResult } from '../../shared/types/result'
+import type { Result, SweepResult, TitrationResult } from '../../shared/types/result'
+import { doseSentence, endPointSentences, formatVolume, volumeInUnit } from '../../shared/results/titration'
 import { dissolvedText } from '../../shared/results/names'
 import { MOLAR_SCALE, type UnitScale } from '../../shared/results/units'
 import { limitSentence } from '../../shared/results/limits'
@@ -75,4 +76,27 @@ export function formatSweepTable(model: Model, s: SweepResult, scale: UnitScale 
   })
   const limits = (s.limits ?? []).flatMap((w) => [`limit: ${limitSentence(s, w)}`, ...(w.note ? [`  (${w.note})`] : [])])
   return [model.title, '', align(rows), ...(limits.length ? ['', ...limits] : [])].join('\n')
+}
+
+/** A titration: the curve (volume in the file's unit, pH, dpH/dV, β, solids present) and its end points, or the dose. */
+export function formatTitrationTable(model: Model, t: TitrationResult): string {
+  const head = [model.title, `sample ${formatVolume(t.sampleVolumeL * 1000, t.unit)}`, '']
+  if (!('points' in t)) {
+    const lines = [...head, doseSentence(t)]
+    if (t.point) lines.push('', formatResultTable(model, t.point))
+    return lines.join('\n')
+  }
+  const solidNames = model.solids.map((x) => x.name)
+  const unit = volumeInUnit(1, t.unit).unit
+  const rows = [[`added ${unit}`, 'pH', 'dpH/dV per mL', 'beta mol/L/pH', 'solids present', 'status']]
+  t.points.forEach((p, k) => {
+    const present = p.solids.filter((x) => x.present && solidNames.includes(x.name)).map((x) => x.name).join(' ') || '-'
+    const slope = t.derivative[k]
+    rows.push([
+      String(Number(volumeInUnit(t.values[k], t.unit).value.toPrecision(10))), fixed(p.pH, 3),
+      slope === null || slope === undefined ? '-' : exp(slope), p.bufferCapacity == null ? '-' : exp(p.bufferCapacity),
+      present, p.converged ? 'ok' : `failed: ${p.reason ?? ''}`,
+    ])
+  })
+  return [...head, align(rows), '', ...endPointSentences(t)].join('\n')
 }

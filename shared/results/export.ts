@@ -6,7 +6,7 @@
  * display.
  */
 
-import type { Result, SweepResult } from '../types/result'
+import type { Result, SweepResult, TitrationCurveResult, TitrationResult } from '../types/result'
 import { dissolvedText, hasDissolvedTotal } from './names'
 import { MOLAR_SCALE, type UnitScale } from './units'
 
@@ -116,27 +116,46 @@ function sweepVariableHeader(sweep: SweepResult): string {
  * reason, so row k is always point k.
  */
 export function sweepCsv(sweep: SweepResult, scale: UnitScale = MOLAR_SCALE): string {
+  return curveCsv(sweepVariableHeader(sweep), sweep.values, sweep.points, { headers: [], cells: () => [] }, scale)
+}
+
+/**
+ * A titration curve as CSV: the added volume (mL), whether it converged,
+ * pH, dpH/dV, the buffer capacity β, then the columns of a sweep's CSV
+ * (ionic strength, every species, dissolved totals, solids).
+ */
+export function titrationCsv(t: TitrationCurveResult, scale: UnitScale = MOLAR_SCALE): string {
+  return curveCsv('added volume (mL)', t.values, t.points, {
+    headers: ['dpH/dV (per mL)', 'buffer capacity (mol/L per pH)'],
+    cells: (k, point) => [csvNumber(t.derivative[k]), csvNumber(point.bufferCapacity)],
+  }, scale)
+}
+
+interface ExtraColumns { headers: string[]; cells: (k: number, point: Result) => string[] }
+
+function curveCsv(variableHeader: string, values: number[], points: Result[], extra: ExtraColumns, scale: UnitScale): string {
   const names: string[] = []
   const solids: string[] = []
   const components: string[] = []
-  for (const point of sweep.points) {
+  for (const point of points) {
     for (const s of point.species) if (!names.includes(s.name)) names.push(s.name)
     for (const s of point.solids) if (!solids.includes(s.name)) solids.push(s.name)
     for (const c of point.components) if (c.dissolved !== undefined && hasDissolvedTotal(c.name) && !components.includes(c.name)) components.push(c.name)
   }
   const header = [
-    sweepVariableHeader(sweep),
+    variableHeader,
     'converged',
     'pH',
+    ...extra.headers,
     'ionic strength (mol/L)',
     ...names.map((n) => `${n} (${scale.unit})`),
     ...components.map((n) => `${dissolvedText(n)} (${scale.componentUnit(n)})`),
     ...solids.flatMap((n) => [`${n} amount (mol/L)`, `${n} saturation index`]),
     'reason',
   ]
-  const blanks = names.length + components.length + 2 * solids.length
-  const rows = sweep.values.map((x, k) => {
-    const point = sweep.points[k]
+  const blanks = extra.headers.length + names.length + components.length + 2 * solids.length
+  const rows = values.map((x, k) => {
+    const point = points[k]
     if (!point || !point.converged) {
       return [csvNumber(x), 'false', '', '', ...Array<string>(blanks).fill(''), point?.reason ?? 'no result for this point']
     }
@@ -147,6 +166,7 @@ export function sweepCsv(sweep: SweepResult, scale: UnitScale = MOLAR_SCALE): st
       csvNumber(x),
       'true',
       csvNumber(point.pH),
+      ...extra.cells(k, point),
       csvNumber(point.ionicStrength),
       ...names.map((n) => scaled(byName.get(n), scale.species(n))),
       ...components.map((n) => scaled(dissolvedByName.get(n), scale.component(n))),
@@ -158,7 +178,7 @@ export function sweepCsv(sweep: SweepResult, scale: UnitScale = MOLAR_SCALE): st
 }
 
 /** The JSON export: the object as the solver produced it, indented for reading. */
-export function jsonExport(value: Result | SweepResult): string {
+export function jsonExport(value: Result | SweepResult | TitrationResult): string {
   return JSON.stringify(value, null, 2) + '\n'
 }
 

@@ -97,6 +97,14 @@ export interface Result {
   warnings?: string[]
   /** The hand method's estimate beside this answer; absent when the answer did not converge. */
   shortcut?: Shortcut
+  /**
+   * Buffer capacity β = dC(base)/dpH, mol/L per pH unit: the strong
+   * monovalent base (added without dilution) that raises the pH by one unit
+   * at this composition, from the model's own equations (their sensitivity
+   * at the answer). Set on single solves and titration points; null when H+
+   * is held or the pH does not move with the base (a solid fixes it).
+   */
+  bufferCapacity?: number | null
 }
 
 /**
@@ -125,4 +133,56 @@ export interface SweepResult {
   points: Result[]
   /** One entry per `limit` statement of the model, in file order; absent when it has none. */
   limits?: LimitWindow[]
+}
+
+/** An end point of a titration curve: where |dpH/dv| peaks, located by exact solves. */
+export interface EquivalencePoint {
+  /** Added volume, mL. */
+  volume: number
+  pH: number
+}
+
+/** `titrate from A to B …`: the curve. */
+export interface TitrationCurveResult {
+  kind: 'titration'
+  /** Volume of the sample, L. */
+  sampleVolumeL: number
+  /** The volume unit the file wrote, for showing volumes in it (values stay in mL). */
+  unit: string
+  /** Added volumes, mL. */
+  values: number[]
+  /** One Result per added volume, each with its bufferCapacity. */
+  points: Result[]
+  /** dpH/dv at each point, pH units per mL, from the model's sensitivity; null where the point did not converge. */
+  derivative: (number | null)[]
+  equivalencePoints: EquivalencePoint[]
+}
+
+/** `titrate to pH X`: the dose. */
+export interface TitrationDoseResult {
+  kind: 'titration'
+  sampleVolumeL: number
+  unit: string
+  target: { pH: number }
+  /** Added volume that reaches the target, mL; null when it cannot be reached (see reason). */
+  volume: number | null
+  /** The solution at that volume; null when the target cannot be reached. */
+  point: Result | null
+  /** Why there is no volume: "not reachable with this titrant: …", or a solve that failed. */
+  reason?: string
+}
+
+export type TitrationResult = TitrationCurveResult | TitrationDoseResult
+
+/** What a run answers: one solve, a sweep or a titration (stored with each run). */
+export type AnswerKind = 'single' | 'sweep' | 'titration'
+
+/** Points of a titration answer that did not converge; a dose that is "not reachable" is an answer, not a failure. */
+export function failedTitrationPoints(t: TitrationResult): number {
+  if ('points' in t) return t.points.filter((p) => !p.converged).length
+  return t.volume === null && !/not reachable with this titrant/.test(t.reason ?? '') ? 1 : 0
+}
+
+export function isTitrationResult(r: unknown): r is TitrationResult {
+  return typeof r === 'object' && r !== null && (r as { kind?: unknown }).kind === 'titration'
 }

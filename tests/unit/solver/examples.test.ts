@@ -63,7 +63,10 @@ describe('examples', () => {
 
 describe('solve command', () => {
   it('prints the Result JSON of a file without a sweep', async () => {
-    const file = files.map((f) => join(dir, f)).find((f) => !compile(readFileSync(f, 'utf8')).model?.sweep)!
+    const file = files.map((f) => join(dir, f)).find((f) => {
+      const model = compile(readFileSync(f, 'utf8')).model
+      return model && !model.sweep && !model.titration
+    })!
     const lines: string[] = []
     const log = vi.spyOn(console, 'log').mockImplementation((s: string) => { lines.push(s) })
     const err = vi.spyOn(console, 'error').mockImplementation(() => {})
