@@ -6,7 +6,7 @@
 import type { H3Event } from 'h3'
 import { desc, eq, and } from 'drizzle-orm'
 import type { Revision, Run } from '../database/schema'
-import type { Result, SweepResult } from '../../shared/types/result'
+import type { AnswerKind, Result, SweepResult, TitrationResult } from '../../shared/types/result'
 import type { SolveTaskOutput } from '../workers/solve.worker'
 
 export type RunStatus = 'ok' | 'failed' | 'diverged'
@@ -19,18 +19,18 @@ export interface RunView {
   id: number
   revision: number
   status: RunStatus
-  kind: 'single' | 'sweep'
+  kind: AnswerKind
   solverVersion: string
   timingMs: number
   createdAt: string
   createdBy: string | null
   failedPoints: number
   libraries: { name: string; revision: number }[]
-  result?: Result | SweepResult
+  result?: Result | SweepResult | TitrationResult
 }
 
 interface StoredOptions {
-  kind?: 'single' | 'sweep'
+  kind?: AnswerKind
   libraries?: { name: string; revision: number }[]
   failedPoints?: number
 }

@@ -25,6 +25,10 @@ export function modelLimitProblem(model: Model): string | null {
   if (points > SOLVE_LIMITS.maxSweepPoints) {
     return `The sweep has ${points} points; at most ${SOLVE_LIMITS.maxSweepPoints} are allowed. Use a larger step or fewer points.`
   }
+  const titrationPoints = model.titration?.values?.length ?? 0
+  if (titrationPoints > SOLVE_LIMITS.maxSweepPoints) {
+    return `The titration has ${titrationPoints} points; at most ${SOLVE_LIMITS.maxSweepPoints} are allowed. Use a larger step or fewer points.`
+  }
   if (model.species.length > SOLVE_LIMITS.maxSpecies) {
     return `The system has ${model.species.length} species; at most ${SOLVE_LIMITS.maxSpecies} are allowed. Split it into smaller systems.`
   }

@@ -1,6 +1,7 @@
 /**
  * Worker-thread entry for the solver pool (see server/utils/solver-pool.ts).
- * It receives a compiled model and returns a single Result or a sweep; it is
+ * It receives a compiled model and returns a single Result, a sweep or a
+ * titration; it is
  * bundled on its own by modules/solver-worker.ts.
  *
  * The answer leaves the worker already serialised, as UTF-8 bytes whose
@@ -15,8 +16,8 @@
  */
 import Piscina from 'piscina'
 import type { Model } from '../../shared/poise/model'
-import { solve, sweep, SOLVER_VERSION } from '../solver/index'
-import type { Result, SweepResult } from '../../shared/types/result'
+import { solve, sweep, titration, SOLVER_VERSION } from '../solver/index'
+import { failedTitrationPoints, type AnswerKind, type Result, type SweepResult } from '../../shared/types/result'
 
 export interface SolveTask {
   model: Model
@@ -25,8 +26,8 @@ export interface SolveTask {
 
 /** What the worker posts back. */
 export interface SolveTaskAnswer {
-  kind: 'single' | 'sweep'
-  /** The Result (single) or SweepResult (sweep) as UTF-8 JSON. */
+  kind: AnswerKind
+  /** The Result (single), SweepResult (sweep) or TitrationResult (titration) as UTF-8 JSON. */
   resultBytes: Uint8Array
   /** Points that did not converge (0 or 1 for a single solve). */
   failedPoints: number
@@ -88,6 +89,16 @@ export function encodeSweep(answer: SweepResult): Uint8Array {
 export function solveTask(task: SolveTask): SolveTaskAnswer {
   const started = performance.now()
   const options = { timeBudgetMs: task.timeBudgetMs }
+  if (task.model.titration) {
+    const result = titration(task.model, options)
+    return {
+      kind: 'titration',
+      resultBytes: encoder.encode(JSON.stringify(result)),
+      failedPoints: failedTitrationPoints(result),
+      solverVersion: SOLVER_VERSION,
+      elapsedMs: performance.now() - started,
+    }
+  }
   if (task.model.sweep) {
     const result = sweep(task.model, options)
     const failedPoints = result.points.filter(p => !p.converged).length

@@ -237,3 +237,19 @@ describe('the examples and the command line', () => {
     expect(lines.join('\n')).toMatch(/pH 8.5 is reached after 0\.0055\d+ L of titrant/)
   })
 })
+
+describe('the solver pool task (what the API routes return)', () => {
+  it('answers a titration with kind titration, counting an unreachable dose as an answer', async () => {
+    const { solveTask } = await import('../../../server/workers/solve.worker')
+    const text = (bytes: Uint8Array) => new TextDecoder().decode(bytes)
+    const curveOut = solveTask({ model: model(strongAcid('titrate from 0 to 40 mL step 1')), timeBudgetMs: 10_000 })
+    expect(curveOut.kind).toBe('titration')
+    expect(curveOut.failedPoints).toBe(0)
+    const parsed = JSON.parse(text(curveOut.resultBytes)) as TitrationCurveResult
+    expect(parsed.equivalencePoints.map((e) => e.volume)).toEqual([expect.closeTo(25, 3)])
+    const unreachable = solveTask({ model: model(strongAcid('titrate to pH 0.5')), timeBudgetMs: 10_000 })
+    expect(unreachable.kind).toBe('titration')
+    expect(unreachable.failedPoints).toBe(0)
+    expect((JSON.parse(text(unreachable.resultBytes)) as TitrationDoseResult).reason).toMatch(/not reachable/)
+  })
+})
