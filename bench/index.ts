@@ -203,7 +203,7 @@ async function main(json: boolean): Promise<void> {
     console.log(`  (HTTP ${httpSweep1000Ms!.toFixed(0)} ms; answer ${(sweepJsonBytes! / 1e6).toFixed(2)} MB of JSON, ${(sweepWireBytes! / 1e6).toFixed(2)} MB on the wire)`)
     console.log(`workbench usable, cold browser (no target)       ${workbench.usableMs.toFixed(0).padStart(8)} ms`)
     console.log(`workbench first result, cold browser (no target) ${workbench.firstResultMs.toFixed(0).padStart(8)} ms`)
-    console.log(`  (${(workbench.transferredBytes / 1e6).toFixed(2)} MB transferred, ${(workbench.decodedBytes / 1e6).toFixed(2)} MB decoded)`)
+    console.log(`  (${(workbench.transferredBytes / 1e6).toFixed(2)} MB transferred, ${(workbench.decodedBytes / 1e6).toFixed(2)} MB decoded; the sign-in page ${(workbench.loginTransferredBytes / 1e6).toFixed(2)} MB transferred, ${(workbench.loginDecodedBytes / 1e6).toFixed(2)} MB decoded)`)
   }
 }
 

@@ -45,7 +45,17 @@ export async function httpSweepMs(server: BuiltServer, reps = 7): Promise<{ ms: 
   return { ms: median(times), wireBytes, jsonBytes }
 }
 
-export interface WorkbenchFigures { usableMs: number, firstResultMs: number, transferredBytes: number, decodedBytes: number }
+export interface WorkbenchFigures {
+  usableMs: number, firstResultMs: number, transferredBytes: number, decodedBytes: number
+  /** The sign-in page, cold: what a page without the editor and the plots carries. */
+  loginTransferredBytes: number, loginDecodedBytes: number
+}
+
+/** Bytes over the wire and decoded for everything the page loaded so far. */
+const pageBytes = () => {
+  const entries = [...performance.getEntriesByType('navigation'), ...performance.getEntriesByType('resource')] as PerformanceResourceTiming[]
+  return { transferred: entries.reduce((a, e) => a + e.transferSize, 0), decoded: entries.reduce((a, e) => a + e.decodedBodySize, 0) }
+}
 
 /** The workbench of a seeded example, each time in a fresh browser context (cold cache). Medians over `reps`. */
 export async function workbenchMs(server: BuiltServer, reps = 3): Promise<WorkbenchFigures> {
@@ -68,12 +78,15 @@ export async function workbenchMs(server: BuiltServer, reps = 3): Promise<Workbe
       await page.keyboard.press('Control+Enter')
       await page.locator('[data-test=summary-ph]').waitFor()
       const firstResultMs = performance.now() - t0
-      const bytes = await page.evaluate(() => {
-        const entries = [...performance.getEntriesByType('navigation'), ...performance.getEntriesByType('resource')] as PerformanceResourceTiming[]
-        return { transferred: entries.reduce((a, e) => a + e.transferSize, 0), decoded: entries.reduce((a, e) => a + e.decodedBodySize, 0) }
-      })
-      if (k > 0) rows.push({ usableMs, firstResultMs, transferredBytes: bytes.transferred, decodedBytes: bytes.decoded })
+      const bytes = await page.evaluate(pageBytes)
       await context.close()
+      const signedOut = await browser.newContext()
+      const login = await signedOut.newPage()
+      await login.goto(`${server.base}/login`, { waitUntil: 'load' })
+      await login.waitForFunction(() => (window as unknown as { useNuxtApp?: () => { isHydrating: boolean } }).useNuxtApp?.().isHydrating === false)
+      const loginBytes = await login.evaluate(pageBytes)
+      await signedOut.close()
+      if (k > 0) rows.push({ usableMs, firstResultMs, transferredBytes: bytes.transferred, decodedBytes: bytes.decoded, loginTransferredBytes: loginBytes.transferred, loginDecodedBytes: loginBytes.decoded })
     }
   } finally {
     await browser.close()
@@ -83,5 +96,7 @@ export async function workbenchMs(server: BuiltServer, reps = 3): Promise<Workbe
     firstResultMs: median(rows.map(r => r.firstResultMs)),
     transferredBytes: median(rows.map(r => r.transferredBytes)),
     decodedBytes: median(rows.map(r => r.decodedBytes)),
+    loginTransferredBytes: median(rows.map(r => r.loginTransferredBytes)),
+    loginDecodedBytes: median(rows.map(r => r.loginDecodedBytes)),
   }
 }
