@@ -70,6 +70,9 @@ export function styleForIndex(index: number): SeriesStyle {
 export const DEFAULT_CONCENTRATION_FLOOR = 1e-14
 /** Distribution curves whose fraction stays below this are hidden unless asked for. */
 export const DISTRIBUTION_FLOOR = 1e-3
+/** The floors a reader may choose: shares for the distribution, mol/L for log concentration. */
+export const SHARE_FLOORS = [1e-3, 1e-2, 5e-2] as const
+export const CONCENTRATION_FLOORS = [1e-14, 1e-10, 1e-6] as const
 
 export interface DiagramSeries {
   /** Species name in caret form (or a description for the solubility lines). */
@@ -109,6 +112,8 @@ export interface DiagramOptions {
   component: string | null
   /** mol/L; default 1e-14. */
   floor?: number
+  /** Distribution: a curve whose share stays below this is hidden; default DISTRIBUTION_FLOOR. */
+  shareFloor?: number
   /** Show the series below the floor too. */
   showAll?: boolean
   /** The unit of the log-concentration and solubility axes (default mol/L); the floor stays in mol/L. */
@@ -270,7 +275,7 @@ export function diagramData(sweep: SweepResult, model: StoichiometryModel, optio
       series = distribution(sweep, model, component)
       yLabel = `Fraction of dissolved ${componentName}`
       yDomain = [0, 1]
-      floor = DISTRIBUTION_FLOOR
+      floor = options.shareFloor ?? DISTRIBUTION_FLOOR
       break
     case 'logConcentration':
       series = logConcentration(sweep, model)

@@ -72,4 +72,12 @@ describe('ResultsDiagram', () => {
     expect(wrapper.find('[data-test="diagram-empty"]').text()).toMatch(/Add a sweep/)
     wrapper.unmount()
   })
+
+  it('lets the reader choose the share below which curves hide', async () => {
+    const wrapper = await mountDiagram()
+    expect(wrapper.text()).toContain('Show species below 0.1 %')
+    await wrapper.get('[data-test="diagram-floor"]').setValue('0.05')
+    await flushPromises()
+    expect(wrapper.text()).toContain('Show species below 5.0 %')
+  })
 })

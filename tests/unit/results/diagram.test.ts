@@ -148,3 +148,17 @@ describe('colours and axes', () => {
     expect(diagramData(sweep, stoichiometry(copperAmmonia), { kind: 'distribution', component: 'NH3' }).xLog).toBe(true)
   })
 })
+
+describe('the chosen floor', () => {
+  it('hides more distribution curves as the share chosen rises', () => {
+    const at = (shareFloor: number) => diagramData(carbonateSweep(), model, { kind: 'distribution', component: 'CO3^2-', shareFloor })
+    const low = at(1e-3)
+    const high = at(0.99)
+    expect(high.series.length).toBeLessThan(low.series.length)
+    // Only carbonic acid passes 99 % (at pH 4, two units below its pKa); bicarbonate and carbonate peak near 98 %.
+    expect(high.series.map((s) => s.key)).toEqual(['H2CO3'])
+    // Each curve left reaches the floor somewhere; each hidden one never does.
+    for (const s of high.series) expect(Math.max(...s.values.filter(Number.isFinite))).toBeGreaterThanOrEqual(0.99)
+    for (const key of high.hidden) expect(Math.max(...low.series.find((s) => s.key === key)!.values.filter(Number.isFinite))).toBeLessThan(0.99)
+  })
+})
