@@ -3,6 +3,7 @@
  * run, history. Each takes its parsed options and returns an exit code, or
  * throws a CliError (main.ts prints it).
  */
+import type { AnswerKind } from '../shared/types/result'
 import { existsSync, readFileSync, writeFileSync } from 'node:fs'
 import { Client, normaliseServer, parseTarget } from './client'
 import { currentLogin, pulledRevision, rememberPull, saveLogin } from './config'
@@ -114,7 +115,7 @@ interface RunAnswer {
   id: number
   revision: number
   status: 'ok' | 'failed' | 'diverged'
-  kind: 'single' | 'sweep'
+  kind: AnswerKind
   libraries: { name: string, revision: number }[]
   result: unknown
 }

@@ -4,8 +4,8 @@
  * used) for the names and units; the numbers are the run's own.
  */
 import { compile } from '../shared/poise/index'
-import type { Result, SweepResult } from '../shared/types/result'
-import { formatResultTable, formatSweepTable } from '../server/solver/table'
+import type { AnswerKind, Result, SweepResult, TitrationResult } from '../shared/types/result'
+import { formatResultTable, formatSweepTable, formatTitrationTable } from '../server/solver/table'
 import { OUTPUT_UNITS, parseOutputUnit, unitScale, type OutputUnit } from '../shared/results/units'
 import { CliError, EXIT } from './exit-codes'
 
@@ -19,13 +19,14 @@ export function checkUnit(text: string | undefined): OutputUnit {
 export function formatRun(
   source: string,
   libraries: Map<string, { source: string, revision: number }>,
-  run: { kind: 'single' | 'sweep', result: unknown },
+  run: { kind: AnswerKind, result: unknown },
   choice: { unit: OutputUnit, asElement: boolean },
 ): string {
   const compiled = compile(source, { resolveLibrary: (name) => libraries.get(name) ?? null })
   const model = compiled.model
   if (!model || run.result === null) return JSON.stringify(run.result, null, 2)
   const scale = unitScale(model, choice)
+  if (run.kind === 'titration') return formatTitrationTable(model, run.result as TitrationResult)
   return run.kind === 'sweep'
     ? formatSweepTable(model, run.result as SweepResult, scale)
     : formatResultTable(model, run.result as Result, scale)

@@ -14,7 +14,7 @@ import { computed, ref, shallowRef } from 'vue'
 import { compile } from '../shared/poise/index'
 import type { Diagnostic } from '../shared/poise/diagnostics'
 import type { Model } from '../shared/poise/model'
-import type { Result, SweepResult } from '../shared/types/result'
+import type { AnswerKind, Result, SweepResult, TitrationResult } from '../shared/types/result'
 import { distributableComponents, type StoichiometryModel } from '../shared/results/share'
 import { diagramPrefsKey, parseDiagramPrefs } from '../shared/results/diagramPrefs'
 import { labRoleAtLeast, type LabRole } from '../shared/utils/roles'
@@ -42,7 +42,7 @@ export interface StoredRun {
   id: number
   revision: number
   status: 'ok' | 'failed' | 'diverged'
-  kind: 'single' | 'sweep'
+  kind: AnswerKind
   solverVersion: string
   timingMs: number
   createdAt: string
@@ -50,23 +50,23 @@ export interface StoredRun {
   failedPoints: number
   /** The library revisions the run was solved with. */
   libraries?: { name: string; revision: number }[]
-  result?: Result | SweepResult
+  result?: Result | SweepResult | TitrationResult
 }
 
 /** POST /api/labs/:lab/solve */
 export interface PreviewAnswer {
-  kind: 'single' | 'sweep'
+  kind: AnswerKind
   solverVersion: string
   elapsedMs: number
   diagnostics: Diagnostic[]
-  result: Result | SweepResult
+  result: Result | SweepResult | TitrationResult
 }
 
 interface ShownBase {
-  kind: 'single' | 'sweep'
+  kind: AnswerKind
   /** The text that was solved, so the tables and diagrams use its model. */
   source: string
-  result: Result | SweepResult
+  result: Result | SweepResult | TitrationResult
   solverVersion: string
   solverMs: number
   /** ISO time the answer arrived (stored runs: when the server made it). */
@@ -189,9 +189,16 @@ export const useWorkbenchStore = defineStore('workbench', () => {
   /** The shown answer no longer matches the editor's text. */
   const shownIsStale = computed(() => shown.value !== null && shown.value.source !== source.value)
   const sweep = computed<SweepResult | null>(() => (shown.value?.kind === 'sweep' ? (shown.value.result as SweepResult) : null))
+  /** The titration answer on show: its curve, or the dose to a target pH. */
+  const titration = computed<TitrationResult | null>(() => (shown.value?.kind === 'titration' ? (shown.value.result as TitrationResult) : null))
   /** The single result the tables show: the run's, or the chosen point of a sweep. */
   const pointResult = computed<Result | null>(() => {
     if (!shown.value) return null
+    const t = titration.value
+    if (t) {
+      if (!('points' in t)) return t.point
+      return t.points[Math.min(Math.max(pointIndex.value, 0), t.points.length - 1)] ?? null
+    }
     if (!sweep.value) return shown.value.result as Result
     const points = sweep.value.points
     return points[Math.min(Math.max(pointIndex.value, 0), points.length - 1)] ?? null
@@ -295,7 +302,7 @@ export const useWorkbenchStore = defineStore('workbench', () => {
           }
         }
       }
-      if (ticket === runTicket) pointIndex.value = Math.min(pointIndex.value, (sweep.value?.points.length ?? 1) - 1)
+      if (ticket === runTicket) pointIndex.value = Math.min(pointIndex.value, (sweep.value?.points.length ?? (titration.value && 'points' in titration.value ? titration.value.points.length : 1)) - 1)
     } catch (error) {
       if (ticket === runTicket) runProblem.value = problemFrom(error)
     } finally {
@@ -376,7 +383,7 @@ export const useWorkbenchStore = defineStore('workbench', () => {
   }
 
   return {
-    answer, source, diagnostics, shown, olderRun, pointIndex, running, saving, runProblem, saveProblem, conflict, resolveLibrary, librariesLoading,
+    answer, source, diagnostics, shown, olderRun, titration, pointIndex, running, saving, runProblem, saveProblem, conflict, resolveLibrary, librariesLoading,
     latest, canEdit, dirty, plan, errorCount, shownModel, shownIsStale, sweep, pointResult,
     open, loadLastRun, loadLibraries, run, save, keepMine, takeTheirs,
   }

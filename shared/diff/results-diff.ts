@@ -6,6 +6,7 @@
  * Nitro.
  */
 import type { Result, SweepResult } from '../types/result'
+import { isTitrationResult } from '../types/result'
 import { hasDissolvedTotal } from '../results/names'
 
 /** A concentration below this (mol/L) is treated as absent when computing factors. */
@@ -85,6 +86,7 @@ function sweepLabel(s: SweepResult): string {
 
 /** Why two answers cannot be compared point by point, or null when they can. */
 export function incomparableReason(a: SolvedAnswer, b: SolvedAnswer): string | null {
+  if (isTitrationResult(a) || isTitrationResult(b)) return 'Titration answers are not compared point by point: open each revision\'s run to read its curve and end points.'
   if (isSweep(a) !== isSweep(b)) return 'One revision is a sweep and the other a single solve, so their answers are not compared point by point.'
   if (isSweep(a) && isSweep(b)) {
     if (sweepLabel(a) !== sweepLabel(b)) return `The sweeps differ (${sweepLabel(a)} against ${sweepLabel(b)}), so their answers are not compared point by point.`

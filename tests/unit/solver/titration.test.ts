@@ -253,3 +253,12 @@ describe('the solver pool task (what the API routes return)', () => {
     expect((JSON.parse(text(unreachable.resultBytes)) as TitrationDoseResult).reason).toMatch(/not reachable/)
   })
 })
+
+describe('comparing revisions', () => {
+  it('does not compare titration answers point by point, and says so instead of failing', async () => {
+    const { incomparableReason } = await import('../../../shared/diff/results-diff')
+    const a = titration(model(strongAcid('titrate from 0 to 40 mL step 1')))
+    const b = titration(model(strongAcid('titrate to pH 7')))
+    expect(incomparableReason(a as never, b as never)).toMatch(/^Titration answers are not compared point by point/)
+  })
+})
