@@ -51,6 +51,56 @@ function formulaOf(t: Tok, report: Reporter | null): ParsedFormula | null {
 
 interface LibraryContent { reactions: PreparedReaction[]; sources: Record<string, string>; libraries: { name: string; revision: number }[] }
 
+/**
+ * Libraries compiled once per text: the editor's checker compiles the file
+ * at every keystroke, and its libraries seldom change. An entry is keyed by
+ * the library's text and where it is used from (the chain of `use`, which
+ * its messages name), and it records the library lookups its own `use`
+ * lines made; it is used only while the resolver still answers those the
+ * same way, so a new revision of a library it uses compiles it again.
+ * Entries are shared and read only. Bounded: the least recently used goes.
+ */
+const LIBRARY_MEMO_ENTRIES = 32
+type CompiledLibrary = CompileResult & { library: LibraryContent }
+interface LibraryLookup { name: string; revision: number | null; got: { source: string; revision: number } | null }
+const libraryMemo = new Map<string, { lib: CompiledLibrary; lookups: LibraryLookup[] }>()
+const libraryMemoCounts = { hits: 0, compiles: 0 }
+
+/** How often a library came from the memo and how often it was compiled (for tests and the benchmark). */
+export function libraryMemoStats(): { hits: number; compiles: number } {
+  return { ...libraryMemoCounts }
+}
+
+function compileLibrary(source: string, options: CompileOptions, stack: string[]): CompiledLibrary {
+  const resolve = options.resolveLibrary!
+  const key = `${stack.join('\u0000')}\u0001${source}`
+  const hit = libraryMemo.get(key)
+  if (hit && hit.lookups.every((l) => sameLibrary(resolve(l.name, l.revision), l.got))) {
+    libraryMemo.delete(key)
+    libraryMemo.set(key, hit)
+    libraryMemoCounts.hits++
+    return hit.lib
+  }
+  const lookups: LibraryLookup[] = []
+  const recording: CompileOptions = {
+    ...options,
+    resolveLibrary: (name, revision) => {
+      const found = resolve(name, revision)
+      lookups.push({ name, revision, got: found ? { source: found.source, revision: found.revision } : null })
+      return found
+    },
+  }
+  const lib = compileSource(source, recording, stack)
+  libraryMemoCounts.compiles++
+  libraryMemo.set(key, { lib, lookups })
+  if (libraryMemo.size > LIBRARY_MEMO_ENTRIES) libraryMemo.delete(libraryMemo.keys().next().value!)
+  return lib
+}
+
+function sameLibrary(a: { source: string; revision: number } | null, b: { source: string; revision: number } | null): boolean {
+  return a === b || (a !== null && b !== null && a.revision === b.revision && a.source === b.source)
+}
+
 export function compileSource(source: string, options: CompileOptions, stack: string[] = []): CompileResult & { library: LibraryContent } {
   const report = new Reporter(source)
   const parsed = parseFile(source)
@@ -113,7 +163,7 @@ export function compileSource(source: string, options: CompileOptions, stack: st
       incomplete = true
       continue
     }
-    const lib = compileSource(found.source, options, [...stack, u.name])
+    const lib = compileLibrary(found.source, options, [...stack, u.name])
     const errors = lib.diagnostics.filter((d) => d.severity === 'error')
     if (errors.length) {
       const e = errors[0]!
