@@ -158,3 +158,16 @@ export function unitScale(model: UnitModel | null, choice: UnitPrefs): UnitScale
 
 /** The scale of mol/L: every factor 1. */
 export const MOLAR_SCALE: UnitScale = unitScale(null, { unit: 'mol/L', asElement: false })
+
+/** g/mol of CaCO3 from the same IUPAC weights: the unit hardness is reported in. */
+export const CACO3_GRAMS = molarMassOf({ Ca: 1, C: 1, O: 3 })!
+
+/**
+ * Total hardness of a natural water: the dissolved calcium and magnesium
+ * (components Ca²⁺ and Mg²⁺), mol/L, which the trade reports as CaCO3 (one
+ * CaCO3 for each Ca or Mg). Null when the system has neither.
+ */
+export function hardness(components: { name: string; dissolved?: number }[]): number | null {
+  const held = components.filter((c) => (c.name === 'Ca^2+' || c.name === 'Mg^2+') && c.dissolved !== undefined)
+  return held.length ? held.reduce((sum, c) => sum + c.dissolved!, 0) : null
+}

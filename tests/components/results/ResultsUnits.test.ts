@@ -42,6 +42,19 @@ describe('results in another unit', () => {
     expect(row.get('[data-test="dissolved"]').text()).toBe(expected)
   })
 
+  it('states the hardness of a water as CaCO3, and none where there is no Ca or Mg', () => {
+    const water = [
+      { name: 'Ca^2+', mode: 'total' as const, total: 1e-3, free: 9e-4, dissolved: 1e-3 },
+      { name: 'Mg^2+', mode: 'total' as const, total: 5e-4, free: 4e-4, dissolved: 5e-4 },
+    ]
+    // 1.5 mmol/L × 100.086 g/mol CaCO3 (IUPAC Standard atomic weights 2021) = 150 mg/L.
+    const table = mount(ResultsComponentsTable, { props: { components: water } })
+    expect(table.get('[data-test="hardness"]').text()).toBe('Hardness (dissolved Ca + Mg): 1.50e2 mg/L as CaCO₃')
+    const micro = mount(ResultsComponentsTable, { props: { components: water, scale: unitScale(null, { unit: 'µg/L', asElement: false }) } })
+    expect(micro.get('[data-test="hardness"]').text()).toBe('Hardness (dissolved Ca + Mg): 1.50e5 µg/L as CaCO₃')
+    expect(mount(ResultsComponentsTable, { props: { components: result.components } }).find('[data-test="hardness"]').exists()).toBe(false)
+  })
+
   it('remembers the unit chosen for a system in the browser', async () => {
     window.localStorage.removeItem(unitPrefsKey('demo/rinse'))
     // eslint-disable-next-line prefer-const

@@ -6,6 +6,8 @@
  */
 import { describe, expect, it } from 'vitest'
 import {
+  CACO3_GRAMS,
+  hardness,
   elementBasis,
   formulaBasis,
   fromMolar,
@@ -97,5 +99,16 @@ describe('remembered unit choice', () => {
     expect(parseUnitPrefs('{"unit":"furlongs"}')).toEqual({ unit: 'mol/L', asElement: false })
     expect(parseUnitPrefs('not json')).toEqual({ unit: 'mol/L', asElement: false })
     expect(parseUnitPrefs(null)).toEqual({ unit: 'mol/L', asElement: false })
+  })
+})
+
+describe('hardness as CaCO3', () => {
+  it('counts dissolved Ca and Mg as CaCO3 (40.078 + 12.011 + 3 × 15.999 = 100.086 g/mol, IUPAC Standard atomic weights 2021)', () => {
+    expect(CACO3_GRAMS).toBeCloseTo(100.086, 9)
+    const mol = hardness([{ name: 'Ca^2+', dissolved: 1e-3 }, { name: 'Mg^2+', dissolved: 0.5e-3 }, { name: 'Na+', dissolved: 9 }])!
+    expect(mol).toBeCloseTo(1.5e-3, 15)
+    // 1.5 mmol/L × 100.086 g/mol = 150.129 mg/L as CaCO3.
+    expect(fromMolar(mol, 'mg/L', { grams: CACO3_GRAMS, asElement: null })).toBeCloseTo(150.129, 9)
+    expect(hardness([{ name: 'Na+', dissolved: 1e-3 }])).toBeNull()
   })
 })
