@@ -10,6 +10,8 @@
  * first on an idle server and then while it keeps several long pH sweeps of
  * the benchmark system running through POST /api/solve. Figures are medians
  * and 95th percentiles measured in this one run, and the ratio loaded / idle.
+ * LOAD_ENCODING sets the sweeps' Accept-Encoding (default `gzip, deflate, br`;
+ * `identity` for uncompressed answers).
  */
 import { spawn, spawnSync } from 'node:child_process'
 import { existsSync } from 'node:fs'
@@ -113,7 +115,7 @@ async function main() {
     const runner = async () => {
       while (loading) {
         const started = performance.now()
-        const answer = await fetch(`${base}/api/solve`, { method: 'POST', headers: { 'content-type': 'application/json', cookie }, body: JSON.stringify({ source }) })
+        const answer = await fetch(`${base}/api/solve`, { method: 'POST', headers: { 'content-type': 'application/json', cookie, 'accept-encoding': process.env.LOAD_ENCODING ?? 'gzip, deflate, br' }, body: JSON.stringify({ source }) })
         await answer.arrayBuffer()
         if (!answer.ok) throw new Error(`a sweep answered ${answer.status}`)
         sweepMs.push(performance.now() - started)
