@@ -30,6 +30,9 @@ import { Body as RestoreBody } from '../api/labs/[lab]/systems/[system]/revision
 import { Params as RunParams } from '../api/labs/[lab]/systems/[system]/runs/[run].get'
 import { Params as RunsParams } from '../api/labs/[lab]/systems/[system]/runs/index.get'
 import { Body as RunCreateBody } from '../api/labs/[lab]/systems/[system]/runs/index.post'
+import {
+  LabListAnswer, MeAnswer, RevisionAnswer, RevisionAnswerWithLatest, RevisionListAnswer, RunAnswer, RunWithResultAnswer, SystemAnswer, SystemListAnswer,
+} from './answers'
 
 /**
  * Who may call a route: `anyone`; `signed-in` (cookie or API token);
@@ -69,7 +72,7 @@ export const ROUTES: RouteDoc[] = [
   { method: 'post', path: '/api/auth/password', tag: 'Accounts', access: 'browser', body: PasswordChangeBody, summary: "Change one's password; ends the account's other sessions", ok: { status: 200, description: '`{ changed, otherSessionsEnded }`' }, errors: { 400: 'The current password is wrong, or the new one too short' } },
   { method: 'post', path: '/api/auth/password/forgot', tag: 'Accounts', access: 'anyone', body: PasswordForgotBody, summary: 'Ask for a password reset link by mail', ok: { status: 202, description: '`{ message }`, the same for every address' } },
   { method: 'post', path: '/api/auth/password/reset', tag: 'Accounts', access: 'anyone', body: PasswordResetBody, summary: 'Set a new password with the mailed token; signs the account out everywhere', ok: { status: 200, description: '`{ changed: true }`' }, errors: { 404: 'The link is unknown, used or expired' } },
-  { method: 'get', path: '/api/me', tag: 'Accounts', access: 'signed-in', summary: 'Who is signed in', ok: { status: 200, description: '`{ user: { id, email, name, isAdmin } }`' } },
+  { method: 'get', path: '/api/me', tag: 'Accounts', access: 'signed-in', summary: 'Who is signed in', ok: { status: 200, description: 'The signed-in account', schema: MeAnswer } },
   { method: 'get', path: '/api/me/sessions', tag: 'Accounts', access: 'browser', summary: 'The sessions of the account signed in elsewhere', ok: { status: 200, description: '`{ lifetimes, others: [{ signedInAt, lastSeenAt, userAgent }] }`' } },
   { method: 'delete', path: '/api/me/sessions', tag: 'Accounts', access: 'browser', summary: 'Sign out every other session', ok: { status: 200, description: '`{ ended }`' } },
   { method: 'get', path: '/api/me/recent-systems', tag: 'Accounts', access: 'signed-in', summary: "My labs' systems, newest save first (8)", ok: { status: 200, description: '`{ systems: [{ …, savedAt }] }`' } },
@@ -90,7 +93,7 @@ export const ROUTES: RouteDoc[] = [
   { method: 'post', path: '/api/solve', tag: 'Solve', access: 'signed-in', body: SourceBody, summary: 'Solve Poise text (no libraries), stored nowhere', ok: { status: 200, description: SOURCE_ANSWER }, errors: { 413: 'A sweep with too many points', 503: 'The solver is busy; try again' } },
 
   // Labs and members
-  { method: 'get', path: '/api/labs', tag: 'Labs', access: 'signed-in', summary: 'My labs, with my role', ok: { status: 200, description: '`{ labs: [{ slug, name, role }] }`' } },
+  { method: 'get', path: '/api/labs', tag: 'Labs', access: 'signed-in', summary: 'My labs, with my role', ok: { status: 200, description: 'My labs', schema: LabListAnswer } },
   { method: 'post', path: '/api/labs', tag: 'Labs', access: 'signed-in', body: LabCreateBody, summary: 'Create a lab; the creator is its owner', ok: { status: 201, description: '`{ lab: { slug, name, role } }`' }, errors: { 409: 'The short name is taken' } },
   { method: 'get', path: '/api/labs/{lab}', tag: 'Labs', access: 'viewer', params: LabParams, summary: 'A lab and my role in it', ok: { status: 200, description: '`{ lab, role, memberCount, … }`' } },
   { method: 'post', path: '/api/labs/{lab}/check', tag: 'Solve', access: 'viewer', params: LabParams, body: SourceBody, summary: "Check Poise text with the lab's libraries", ok: { status: 200, description: '`{ ok, diagnostics, summary }`' } },
@@ -104,23 +107,23 @@ export const ROUTES: RouteDoc[] = [
   { method: 'delete', path: '/api/labs/{lab}/invitations/{id}', tag: 'Invitations', access: 'owner', params: InvitationIdParams, summary: 'Withdraw an invitation', ok: { status: 200, description: '`{ withdrawn: true }`' } },
 
   // Systems and revisions
-  { method: 'get', path: '/api/labs/{lab}/systems', tag: 'Systems', access: 'viewer', params: LabParams, summary: "The lab's systems with their latest revision", ok: { status: 200, description: '`{ systems: [{ slug, title, isLibrary, latestRevision, updatedAt }] }`' } },
+  { method: 'get', path: '/api/labs/{lab}/systems', tag: 'Systems', access: 'viewer', params: LabParams, summary: "The lab's systems with their latest revision", ok: { status: 200, description: 'The systems, by title', schema: SystemListAnswer } },
   { method: 'post', path: '/api/labs/{lab}/systems', tag: 'Systems', access: 'editor', params: LabParams, body: SystemCreateBody, summary: 'Create a system (revision 1)', ok: { status: 201, description: '`{ system: { slug, title, isLibrary, latest } }`' }, errors: { 409: 'The short name is taken in this lab' } },
-  { method: 'get', path: '/api/labs/{lab}/systems/{system}', tag: 'Systems', access: 'viewer', params: SystemParams, summary: 'A system with its latest revision (text included)', ok: { status: 200, description: '`{ lab, role, system: { slug, title, isLibrary, latest: { number, sha256, source, message, author, createdAt } } }`' } },
-  { method: 'patch', path: '/api/labs/{lab}/systems/{system}', tag: 'Systems', access: 'editor', params: SystemParams, body: SystemUpdateBody, summary: 'Rename, and/or save `source` as the next revision from `baseRevision`', ok: { status: 200, description: '`{ system: { slug, title, isLibrary, latest } }` with the new latest revision' }, errors: { 409: STALE } },
+  { method: 'get', path: '/api/labs/{lab}/systems/{system}', tag: 'Systems', access: 'viewer', params: SystemParams, summary: 'A system with its latest revision (text included)', ok: { status: 200, description: 'The system and its latest revision', schema: SystemAnswer } },
+  { method: 'patch', path: '/api/labs/{lab}/systems/{system}', tag: 'Systems', access: 'editor', params: SystemParams, body: SystemUpdateBody, summary: 'Rename, and/or save `source` as the next revision from `baseRevision`', ok: { status: 200, description: 'The system with the new latest revision', schema: SystemAnswer.pick({ system: true }) }, errors: { 409: STALE } },
   { method: 'delete', path: '/api/labs/{lab}/systems/{system}', tag: 'Systems', access: 'editor', params: SystemParams, summary: 'Delete a system and its history', ok: { status: 200, description: '`{ deleted: slug }`' }, errors: { 409: 'Systems of the lab use it as a library' } },
   { method: 'put', path: '/api/labs/{lab}/systems/{system}/library', tag: 'Libraries', access: 'editor', params: SystemParams, body: LibraryMarkBody, summary: 'Mark or unmark a system as a lab library', ok: { status: 200, description: '`{ system: { slug, title, isLibrary, latestRevision } }`' } },
-  { method: 'get', path: '/api/labs/{lab}/systems/{system}/revisions', tag: 'Systems', access: 'viewer', params: SystemParams, summary: 'Every revision, newest first, with author, newest run and reviews', ok: { status: 200, description: '`{ lab, system, role, revisions }`' } },
-  { method: 'get', path: '/api/labs/{lab}/systems/{system}/revisions/{number}', tag: 'Systems', access: 'viewer', params: RevisionParams, summary: 'One revision with its text', ok: { status: 200, description: '`{ revision, latestRevision }`' } },
-  { method: 'post', path: '/api/labs/{lab}/systems/{system}/revisions/{number}/restore', tag: 'Systems', access: 'editor', params: RevisionParams, body: RestoreBody, summary: "Save an older revision's text as the next revision", ok: { status: 201, description: '`{ revision }`, the new one' }, errors: { 409: STALE } },
+  { method: 'get', path: '/api/labs/{lab}/systems/{system}/revisions', tag: 'Systems', access: 'viewer', params: SystemParams, summary: 'Every revision, newest first, with author, newest run and reviews', ok: { status: 200, description: 'The revisions, newest first', schema: RevisionListAnswer } },
+  { method: 'get', path: '/api/labs/{lab}/systems/{system}/revisions/{number}', tag: 'Systems', access: 'viewer', params: RevisionParams, summary: 'One revision with its text', ok: { status: 200, description: 'The revision and the number of the latest', schema: RevisionAnswerWithLatest } },
+  { method: 'post', path: '/api/labs/{lab}/systems/{system}/revisions/{number}/restore', tag: 'Systems', access: 'editor', params: RevisionParams, body: RestoreBody, summary: "Save an older revision's text as the next revision", ok: { status: 201, description: 'The new revision', schema: z.object({ revision: RevisionAnswer.extend({ parent: z.int() }) }) }, errors: { 409: STALE } },
   { method: 'get', path: '/api/labs/{lab}/systems/{system}/compare', tag: 'Systems', access: 'viewer', params: SystemParams, query: CompareQuery, summary: 'Text, model and results differences between two revisions', ok: { status: 200, description: '`{ lab, system, role, latestRevision, from, to, …differences }`' } },
   { method: 'post', path: '/api/labs/{lab}/imports', tag: 'Systems', access: 'editor', params: LabParams, upload: ImportSystemFields, summary: 'Create a system from an uploaded .poise file', ok: { status: 201, description: '`{ system }`' }, errors: { 409: 'The short name is taken in this lab' } },
   { method: 'post', path: '/api/labs/{lab}/systems/{system}/imports', tag: 'Systems', access: 'editor', params: SystemParams, upload: ImportRevisionFields, summary: 'Save an uploaded .poise file as the next revision', ok: { status: 201, description: '`{ system }`' }, errors: { 409: STALE } },
 
   // Runs
-  { method: 'get', path: '/api/labs/{lab}/systems/{system}/runs', tag: 'Runs', access: 'viewer', params: RunsParams, summary: "The system's runs, newest first, without results", ok: { status: 200, description: '`{ runs: [{ id, revision, status, kind, solverVersion, timingMs, createdAt, createdBy, failedPoints, libraries }] }`' } },
-  { method: 'post', path: '/api/labs/{lab}/systems/{system}/runs', tag: 'Runs', access: 'viewer', params: RunsParams, body: RunCreateBody, summary: 'Run a saved revision (the latest unless `revision`) and store the run', description: 'What the workbench\'s Run button does. A read-only API token cannot (it stores a run).', ok: { status: 201, description: 'The run and its `result`' }, errors: { 503: 'The solver is busy; try again' } },
-  { method: 'get', path: '/api/labs/{lab}/systems/{system}/runs/{run}', tag: 'Runs', access: 'viewer', params: RunParams, summary: 'One stored run with its result', ok: { status: 200, description: 'The run and its `result`' } },
+  { method: 'get', path: '/api/labs/{lab}/systems/{system}/runs', tag: 'Runs', access: 'viewer', params: RunsParams, summary: "The system's runs, newest first, without results", ok: { status: 200, description: 'The runs, newest first', schema: z.object({ runs: z.array(RunAnswer) }) } },
+  { method: 'post', path: '/api/labs/{lab}/systems/{system}/runs', tag: 'Runs', access: 'viewer', params: RunsParams, body: RunCreateBody, summary: 'Run a saved revision (the latest unless `revision`) and store the run', description: 'What the workbench\'s Run button does. A read-only API token cannot (it stores a run).', ok: { status: 201, description: 'The stored run and its `result`', schema: RunWithResultAnswer }, errors: { 503: 'The solver is busy; try again' } },
+  { method: 'get', path: '/api/labs/{lab}/systems/{system}/runs/{run}', tag: 'Runs', access: 'viewer', params: RunParams, summary: 'One stored run with its result', ok: { status: 200, description: 'The run and its `result`', schema: RunWithResultAnswer } },
 
   // Libraries
   { method: 'get', path: '/api/labs/{lab}/libraries', tag: 'Libraries', access: 'viewer', params: LabParams, summary: "The lab's libraries with their latest revision", ok: { status: 200, description: '`{ libraries: [{ …, latestRevision }] }`' } },

@@ -1,0 +1,95 @@
+/**
+ * JSON Schemas of the answers the command line and scripts rely on most
+ * (revisions, systems, runs, labs, the signed-in user). Each is checked
+ * against the TypeScript type the route returns, so `nuxt typecheck` fails
+ * when a route's answer changes and its description does not.
+ */
+import { z } from 'zod'
+import type { RunView } from '../utils/runs'
+import type { RevisionSummary } from '../utils/revision-history'
+import type { revisionView } from '../utils/revisions'
+import { LAB_ROLES } from '../../shared/utils/roles'
+
+type IsAny<T> = 0 extends 1 & T ? true : false
+/** True when some property of T is `any` (or T is): such a type would match any schema. */
+type HasAny<T> = IsAny<T> extends true ? true : true extends { [K in keyof T]-?: IsAny<T[K]> }[keyof T] ? true : false
+/** True only when A and B are the same type, and B has no `any` in its properties. */
+type Same<A, B> = HasAny<B> extends true ? false : [A] extends [B] ? ([B] extends [A] ? true : false) : false
+
+const RUN_STATUSES = ['ok', 'failed', 'diverged'] as const
+const datetime = z.iso.datetime()
+
+export const RevisionAnswer = z.object({
+  number: z.int(),
+  sha256: z.string(),
+  source: z.string().meta({ description: 'The Poise text of the revision' }),
+  message: z.string(),
+  author: z.string().nullable(),
+  createdAt: datetime,
+})
+const revisionChecked: Same<z.infer<typeof RevisionAnswer>, ReturnType<typeof revisionView>> = true
+
+export const RevisionSummaryAnswer = z.object({
+  number: z.int(),
+  parent: z.int().nullable(),
+  sha256: z.string(),
+  message: z.string(),
+  author: z.string().nullable(),
+  createdAt: datetime,
+  run: z.object({ id: z.int(), status: z.enum(RUN_STATUSES), solverVersion: z.string(), createdAt: datetime }).nullable()
+    .meta({ description: 'The newest run of this revision, or null' }),
+  reviews: z.array(z.object({ id: z.int(), state: z.string(), against: z.int(), reviewer: z.string().nullable() })),
+})
+const summaryChecked: Same<z.infer<typeof RevisionSummaryAnswer>, RevisionSummary> = true
+
+export const RunAnswer = z.object({
+  id: z.int(),
+  revision: z.int(),
+  status: z.enum(RUN_STATUSES),
+  kind: z.enum(['single', 'sweep', 'titration']),
+  solverVersion: z.string(),
+  timingMs: z.int(),
+  createdAt: datetime,
+  createdBy: z.string().nullable(),
+  failedPoints: z.int(),
+  libraries: z.array(z.object({ name: z.string(), revision: z.int() })).meta({ description: 'The library revisions the run used' }),
+})
+const runChecked: Same<z.infer<typeof RunAnswer>, Omit<RunView, 'result'>> = true
+
+export const RunWithResultAnswer = RunAnswer.extend({
+  result: z.object({}).loose().meta({ description: 'The Result (a sweep or a titration: its points), as the workbench shows it; concentrations in mol/L' }),
+})
+
+const LabRef = z.object({ slug: z.string(), name: z.string() })
+
+export const SystemAnswer = z.object({
+  lab: LabRef,
+  role: z.enum(LAB_ROLES),
+  system: z.object({ slug: z.string(), title: z.string(), isLibrary: z.boolean(), latest: RevisionAnswer }),
+})
+
+export const SystemListAnswer = z.object({
+  systems: z.array(z.object({
+    slug: z.string(), title: z.string(), isLibrary: z.boolean(),
+    latestRevision: z.int().nullable(), updatedAt: datetime.nullable(),
+  })),
+})
+
+export const LabListAnswer = z.object({ labs: z.array(z.object({ slug: z.string(), name: z.string(), role: z.enum(LAB_ROLES) })) })
+
+export const MeAnswer = z.object({ user: z.object({ id: z.int(), email: z.string(), name: z.string(), isAdmin: z.boolean() }) })
+
+export const RevisionAnswerWithLatest = z.object({
+  revision: RevisionAnswer.extend({ parent: z.int().nullable() }),
+  latestRevision: z.int(),
+})
+
+export const RevisionListAnswer = z.object({
+  lab: LabRef,
+  system: z.object({ slug: z.string(), title: z.string() }),
+  role: z.enum(LAB_ROLES),
+  revisions: z.array(RevisionSummaryAnswer),
+})
+
+// Referenced so the compile-time checks above are not reported as unused.
+export const ANSWERS_CHECKED = revisionChecked && summaryChecked && runChecked
