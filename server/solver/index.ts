@@ -451,13 +451,15 @@ export function solveAtSweepValue(model: Model, v: number, options?: SolveOption
  * point that fails is marked converged:false with its reason and the path
  * goes on. `apply` moves the problem to a value (or says why it cannot);
  * `position` is where a value lies for the prediction (log10 for a log
- * sweep); `onPoint` sees each converged state (for sensitivities). Used by
- * sweeps and titrations.
+ * sweep); `onPoint` sees each converged state (for sensitivities); `keep`
+ * gives what the answer keeps of each point (the point itself by default).
+ * Used by sweeps and titrations.
  */
 export function continueAlong(
   ws: Workspace, values: number[], position: (v: number) => number, apply: (v: number) => string | null,
   options: SolveOptions | undefined, noun: 'sweep' | 'titration',
   onPoint?: (index: number, state: SolverState, result: Result) => void, guard = guardOf(options),
+  keep: (result: Result) => Result = (result) => result,
 ): Result[] {
   const p = ws.p
   const model = p.model
@@ -470,9 +472,9 @@ export function continueAlong(
   const maxIterations = iterationsOf(options)
   values.forEach((v, index) => {
     const bad = apply(v)
-    if (bad) { out.push(unsolvable(model, `This ${noun} point cannot be solved: ${bad}.`)); return }
+    if (bad) { out.push(keep(unsolvable(model, `This ${noun} point cannot be solved: ${bad}.`))); return }
     if (performance.now() > guard.deadline) {
-      out.push(unsolvable(model, `Not solved: the time guard of the ${noun} (${Math.round(guard.guardMs / 1000)} s, a safety limit of the server) ran out before this point. Use fewer ${noun} points or a smaller system.`))
+      out.push(keep(unsolvable(model, `Not solved: the time guard of the ${noun} (${Math.round(guard.guardMs / 1000)} s, a safety limit of the server) ran out before this point. Use fewer ${noun} points or a smaller system.`)))
       return
     }
     const starts: SolverState[] = []
@@ -485,7 +487,7 @@ export function continueAlong(
       recent.unshift({ state: slot, at: position(v) })
       onPoint?.(index, state, solved.result)
     }
-    out.push(solved.result)
+    out.push(keep(solved.result))
   })
   return out
 }
@@ -496,7 +498,18 @@ export function continueAlong(
  * a point that fails is marked converged:false with its reason and the sweep
  * goes on. Never throws.
  */
-export function sweep(model: Model, options?: SolveOptions): SweepResult {
+export interface SweepOptions extends SolveOptions {
+  /**
+   * Sees each point as it is solved, in order, and gives what the answer
+   * keeps of it: a caller that writes points out as they come (the worker)
+   * keeps only `converged` and `components`, which the limit windows read,
+   * so a long sweep does not hold every point's objects. Points of a sweep
+   * that cannot run at all are not passed through it.
+   */
+  keepPoint?: (point: Result) => Result
+}
+
+export function sweep(model: Model, options?: SweepOptions): SweepResult {
   const sw = model?.sweep
   const values = Array.isArray(sw?.values) ? sw.values : []
   const base: SweepResult = { variable: sw?.variable ?? 'pH', component: sw?.component ?? null, values, points: [] }
@@ -509,8 +522,9 @@ export function sweep(model: Model, options?: SolveOptions): SweepResult {
     if ('error' in target) return { ...base, points: values.map(() => unsolvable(model, `The sweep cannot run: ${target.error}.`)) }
     const ws = new Workspace(p)
     const position = (v: number) => (sw.log && v > 0 ? Math.log10(v) : v)
-    base.points.push(...continueAlong(ws, values, position, (v) => applySweepValue(p, sw.variable, target.index, v), options, 'sweep')
-      .map((r) => withShortcut(model, r)))
+    const keepPoint = options?.keepPoint
+    const keep = (r: Result) => (keepPoint ? keepPoint(withShortcut(model, r)) : withShortcut(model, r))
+    base.points.push(...continueAlong(ws, values, position, (v) => applySweepValue(p, sw.variable, target.index, v), options, 'sweep', undefined, undefined, keep))
     // Limit windows: their ends located by exact solves between the grid points.
     if (model.limits?.length) base.limits = limitWindows(model, base, (v) => solveAtSweepValue(model, v, options))
     return base

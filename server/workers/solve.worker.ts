@@ -16,7 +16,7 @@
  */
 import Piscina from 'piscina'
 import type { Model } from '../../shared/poise/model'
-import { solve, sweep, titration, SOLVER_VERSION } from '../solver/index'
+import { solve, sweep, titration, SOLVER_VERSION, type SolveOptions } from '../solver/index'
 import { failedTitrationPoints, type AnswerKind, type Result, type SweepResult } from '../../shared/types/result'
 
 export interface SolveTask {
@@ -43,6 +43,45 @@ export interface SolveTaskOutput extends SolveTaskAnswer {
 // TextEncoder gives the bytes a buffer of their own, safe to transfer (Buffer.from may use a shared pool).
 const encoder = new TextEncoder()
 
+/** UTF-8 text written into one growing buffer (sized ahead so it seldom grows: growing holds two buffers at once). */
+class ByteWriter {
+  bytes: Uint8Array
+  length = 0
+  constructor(capacity: number) { this.bytes = new Uint8Array(Math.max(4096, Math.ceil(capacity))) }
+  write(text: string) {
+    for (;;) {
+      const { read, written } = encoder.encodeInto(text, this.bytes.subarray(this.length))
+      this.length += written
+      if (read === text.length) return
+      text = text.slice(read)
+      this.grow(Math.max(this.bytes.length * 2, this.length + text.length * 3))
+    }
+  }
+  private grow(size: number) {
+    const grown = new Uint8Array(size)
+    grown.set(this.bytes.subarray(0, this.length))
+    this.bytes = grown
+  }
+  done(): Uint8Array { return this.bytes.subarray(0, this.length) }
+}
+
+/** The keys of a sweep answer after `points` (limits), and the closing brace, as JSON.stringify writes them. */
+function writeAfterPoints(out: ByteWriter, answer: SweepResult) {
+  let after = false
+  for (const [key, value] of Object.entries(answer)) {
+    if (key === 'points') { after = true; continue }
+    if (after && value !== undefined && typeof value !== 'function') out.write(`,${JSON.stringify(key)}:${JSON.stringify(value)}`)
+  }
+  out.write('}')
+}
+
+/** `{"variable":…,"component":…,"values":[…],"points":[` of an answer: what JSON.stringify writes before its first point. */
+function beforePoints(answer: Omit<SweepResult, 'points'>): string | null {
+  const keys = Object.keys(answer).filter(k => k !== 'points' && answer[k as keyof typeof answer] !== undefined)
+  if (keys.slice(0, 3).join() !== 'variable,component,values') return null
+  return JSON.stringify({ variable: answer.variable, component: answer.component, values: answer.values, points: [] }).slice(0, -2)
+}
+
 /**
  * The bytes of `JSON.stringify(sweep)`, written point by point into one
  * growing buffer: the whole answer never exists as one string beside its
@@ -52,37 +91,62 @@ const encoder = new TextEncoder()
  */
 export function encodeSweep(answer: SweepResult): Uint8Array {
   const points = answer.points as (Result | undefined)[]
-  // Sized from the first point (points of one sweep are alike), so it seldom grows: growing holds two buffers at once.
   const perPoint = points.length ? Buffer.byteLength(JSON.stringify(points[0])) + 64 : 0
-  let bytes = new Uint8Array(Math.max(4096, Math.ceil(perPoint * points.length * 1.05) + Buffer.byteLength(JSON.stringify(answer.values)) + 4096))
-  let length = 0
-  const write = (text: string) => {
-    for (;;) {
-      const { read, written } = encoder.encodeInto(text, bytes.subarray(length))
-      length += written
-      if (read === text.length) return
-      text = text.slice(read)
-      const grown = new Uint8Array(Math.max(bytes.length * 2, length + text.length * 3))
-      grown.set(bytes.subarray(0, length))
-      bytes = grown
-    }
-  }
-  write('{')
+  const out = new ByteWriter(perPoint * points.length * 1.05 + Buffer.byteLength(JSON.stringify(answer.values)) + 4096)
+  out.write('{')
   let first = true
   for (const [key, value] of Object.entries(answer)) {
     if (value === undefined || typeof value === 'function') continue
-    write(`${first ? '' : ','}${JSON.stringify(key)}:`)
+    out.write(`${first ? '' : ','}${JSON.stringify(key)}:`)
     first = false
-    if (key !== 'points') { write(JSON.stringify(value)); continue }
-    write('[')
+    if (key !== 'points') { out.write(JSON.stringify(value)); continue }
+    out.write('[')
     for (let i = 0; i < points.length; i++) {
-      write(i === 0 ? JSON.stringify(points[i] ?? null) : `,${JSON.stringify(points[i] ?? null)}`)
+      out.write(i === 0 ? JSON.stringify(points[i] ?? null) : `,${JSON.stringify(points[i] ?? null)}`)
       points[i] = undefined
     }
-    write(']')
+    out.write(']')
   }
-  write('}')
-  return bytes.subarray(0, length)
+  out.write('}')
+  return out.done()
+}
+
+/**
+ * Solves a sweep and writes each point as it is solved, keeping of it only
+ * what the limit windows read: the bytes are those of
+ * `JSON.stringify(sweep(model))`, and the sweep never holds all its points'
+ * objects at once. A sweep that does not run point by point (no problem can
+ * be built, an internal failure) is written whole from its answer.
+ */
+export function solveSweepToBytes(model: Model, options: SolveOptions): { bytes: Uint8Array, failedPoints: number } {
+  const sw = model.sweep!
+  const values = Array.isArray(sw.values) ? sw.values : []
+  const prefix = beforePoints({ variable: sw.variable ?? 'pH', component: sw.component ?? null, values })!
+  let out: ByteWriter | null = null
+  const kept: Result[] = []
+  const answer = sweep(model, {
+    ...options,
+    keepPoint: (point) => {
+      const text = JSON.stringify(point)
+      if (!out) {
+        out = new ByteWriter((Buffer.byteLength(text) + 64) * values.length * 1.05 + prefix.length * 2 + 4096)
+        out.write(prefix)
+        out.write(text)
+      } else {
+        out.write(`,${text}`)
+      }
+      const stub = { converged: point.converged, components: point.components } as Result
+      kept.push(stub)
+      return stub
+    },
+  })
+  const failedPoints = answer.points.filter(p => !p.converged).length
+  const streamed = out !== null && answer.points.length === kept.length && answer.points.every((p, i) => p === kept[i]) && beforePoints(answer) === prefix
+  if (!streamed) return { bytes: encodeSweep(answer), failedPoints }
+  const writer = out as unknown as ByteWriter
+  writer.write(']')
+  writeAfterPoints(writer, answer)
+  return { bytes: writer.done(), failedPoints }
 }
 
 /** Solves the task's model: the answer, its bytes not yet transferred. */
@@ -100,11 +164,10 @@ export function solveTask(task: SolveTask): SolveTaskAnswer {
     }
   }
   if (task.model.sweep) {
-    const result = sweep(task.model, options)
-    const failedPoints = result.points.filter(p => !p.converged).length
+    const { bytes, failedPoints } = solveSweepToBytes(task.model, options)
     return {
       kind: 'sweep',
-      resultBytes: encodeSweep(result),
+      resultBytes: bytes,
       failedPoints,
       solverVersion: SOLVER_VERSION,
       elapsedMs: performance.now() - started,

@@ -3,7 +3,9 @@
 import { describe, expect, it } from 'vitest'
 import { compile } from '../../../shared/poise/index'
 import { solve, sweep } from '../../../server/solver/index'
-import { encodeSweep, solveTask } from '../../../server/workers/solve.worker'
+import { readdirSync, readFileSync } from 'node:fs'
+import { resolve } from 'node:path'
+import { encodeSweep, solveSweepToBytes, solveTask } from '../../../server/workers/solve.worker'
 import { benchSystemSource } from '../../../bench/systems'
 
 const decode = (bytes: Uint8Array) => JSON.parse(new TextDecoder().decode(bytes))
@@ -41,5 +43,41 @@ describe('solveTask', () => {
     expect(new TextDecoder().decode(bytes)).toBe(expected)
     // The sweep was consumed: its points were let go as they were written.
     expect(answer.points.every(p => p === undefined)).toBe(true)
+  })
+})
+
+describe('solveSweepToBytes', () => {
+  const examplesDir = resolve(import.meta.dirname, '../../../examples')
+  const withSweep = readdirSync(examplesDir).filter(f => f.endsWith('.poise'))
+    .map(f => [f, readFileSync(resolve(examplesDir, f), 'utf8')] as [string, string])
+    .filter(([, source]) => /^sweep /m.test(source))
+
+  it.each(withSweep)('writes %s point by point to the bytes of JSON.stringify(sweep(model))', (_name, source) => {
+    const model = compile(source).model!
+    const { bytes, failedPoints } = solveSweepToBytes(model, { timeBudgetMs: 20_000 })
+    const expected = sweep(model)
+    expect(withoutTimes(decode(bytes))).toEqual(withoutTimes(expected))
+    expect(new TextDecoder().decode(bytes)).toBe(JSON.stringify(expected))
+    expect(failedPoints).toBe(expected.points.filter(p => !p.converged).length)
+  })
+
+  it('keeps the limit windows, located from the points it let go', () => {
+    const source = benchSystemSource('sweep pH from 4 to 12 points 60') + 'limit dissolved Cu 1 mg/L\nlimit dissolved Zn 0.5 mg/L\n'
+    const model = compile(source).model!
+    expect(model.limits).toHaveLength(2)
+    const { bytes } = solveSweepToBytes(model, { timeBudgetMs: 20_000 })
+    const expected = sweep(model)
+    expect(expected.limits![0].ranges.length).toBeGreaterThan(0)
+    expect(new TextDecoder().decode(bytes)).toBe(JSON.stringify(expected))
+  })
+
+  it('writes a sweep that cannot run at all from its whole answer', () => {
+    const model = compile(benchSystemSource('sweep pH from 4 to 12 points 5')).model!
+    const broken = { ...model, components: model.components.map((c, j) => (j === 1 ? { ...c, value: Number.NaN } : c)) }
+    const { bytes, failedPoints } = solveSweepToBytes(broken, { timeBudgetMs: 20_000 })
+    const expected = sweep(broken)
+    expect(failedPoints).toBe(expected.points.filter(p => !p.converged).length)
+    expect(failedPoints).toBeGreaterThan(0)
+    expect(new TextDecoder().decode(bytes)).toBe(JSON.stringify(expected))
   })
 })
