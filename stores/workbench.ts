@@ -15,6 +15,7 @@ import { compile } from '../shared/poise/index'
 import type { Diagnostic } from '../shared/poise/diagnostics'
 import type { Model } from '../shared/poise/model'
 import type { AnswerKind, Result, SweepResult, TitrationResult } from '../shared/types/result'
+import { titrationAsSweep } from '../shared/results/titration'
 import { distributableComponents, type StoichiometryModel } from '../shared/results/share'
 import { diagramPrefsKey, parseDiagramPrefs } from '../shared/results/diagramPrefs'
 import { labRoleAtLeast, type LabRole } from '../shared/utils/roles'
@@ -191,6 +192,8 @@ export const useWorkbenchStore = defineStore('workbench', () => {
   const sweep = computed<SweepResult | null>(() => (shown.value?.kind === 'sweep' ? (shown.value.result as SweepResult) : null))
   /** The titration answer on show: its curve, or the dose to a target pH. */
   const titration = computed<TitrationResult | null>(() => (shown.value?.kind === 'titration' ? (shown.value.result as TitrationResult) : null))
+  /** A titration curve as a sweep over the added volume, for the species diagrams. */
+  const titrationSweep = computed<SweepResult | null>(() => (titration.value && 'points' in titration.value ? titrationAsSweep(titration.value) : null))
   /** The single result the tables show: the run's, or the chosen point of a sweep. */
   const pointResult = computed<Result | null>(() => {
     if (!shown.value) return null
@@ -383,7 +386,7 @@ export const useWorkbenchStore = defineStore('workbench', () => {
   }
 
   return {
-    answer, source, diagnostics, shown, olderRun, titration, pointIndex, running, saving, runProblem, saveProblem, conflict, resolveLibrary, librariesLoading,
+    answer, source, diagnostics, shown, olderRun, titration, titrationSweep, pointIndex, running, saving, runProblem, saveProblem, conflict, resolveLibrary, librariesLoading,
     latest, canEdit, dirty, plan, errorCount, shownModel, shownIsStale, sweep, pointResult,
     open, loadLastRun, loadLibraries, run, save, keepMine, takeTheirs,
   }

@@ -124,6 +124,8 @@ function sweepPlace(sweep: SweepResult): string {
       return 'temperature (°C) ='
     case 'pressure':
       return `pressure of ${typesetFormula(sweep.component ?? '')} (atm) =`
+    case 'volume':
+      return 'added titrant (mL) ='
   }
 }
 

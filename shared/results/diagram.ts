@@ -132,6 +132,8 @@ export function sweepAxisLabel(sweep: Pick<SweepResult, 'variable' | 'component'
       return 'Temperature (°C)'
     case 'pressure':
       return `Partial pressure of ${name} (atm)`
+    case 'volume':
+      return 'Added titrant (mL)'
   }
 }
 

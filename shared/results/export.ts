@@ -9,6 +9,7 @@
 import type { Result, SweepResult, TitrationCurveResult, TitrationResult } from '../types/result'
 import { dissolvedText, hasDissolvedTotal } from './names'
 import { MOLAR_SCALE, type UnitScale } from './units'
+import { titrationAsSweep } from './titration'
 
 /** Quote a field when it holds a comma, a quote or a line break (RFC 4180 §2.6–2.7). */
 export function csvField(value: string): string {
@@ -104,6 +105,8 @@ function sweepVariableHeader(sweep: SweepResult): string {
       return 'temperature (°C)'
     case 'pressure':
       return `pressure ${sweep.component ?? ''} (atm)`
+    case 'volume':
+      return 'added volume (mL)'
   }
 }
 
@@ -125,7 +128,7 @@ export function sweepCsv(sweep: SweepResult, scale: UnitScale = MOLAR_SCALE): st
  * (ionic strength, every species, dissolved totals, solids).
  */
 export function titrationCsv(t: TitrationCurveResult, scale: UnitScale = MOLAR_SCALE): string {
-  return curveCsv('added volume (mL)', t.values, t.points, {
+  return curveCsv(sweepVariableHeader(titrationAsSweep(t)), t.values, t.points, {
     headers: ['dpH/dV (per mL)', 'buffer capacity (mol/L per pH)'],
     cells: (k, point) => [csvNumber(t.derivative[k]), csvNumber(point.bufferCapacity)],
   }, scale)

@@ -34,6 +34,8 @@ export function sweptValueText(sweep: Pick<SweepResult, 'variable' | 'component'
       return `p(${name}) ${formatScientific(value)} atm`
     case 'total':
       return `total ${name} ${formatScientific(value)} mol/L`
+    case 'volume':
+      return `${Number(value.toPrecision(5))} mL added`
   }
 }
 
@@ -41,6 +43,7 @@ export function sweptValueText(sweep: Pick<SweepResult, 'variable' | 'component'
 function endText(sweep: Pick<SweepResult, 'variable'>, value: number): string {
   if (sweep.variable === 'pH') return formatFixed(value, 2)
   if (sweep.variable === 'temperature') return `${formatFixed(value, 1)} °C`
+  if (sweep.variable === 'volume') return `${Number(value.toPrecision(5))} mL`
   return `${formatScientific(value)} ${sweep.variable === 'total' ? 'mol/L' : 'atm'}`
 }
 

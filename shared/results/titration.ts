@@ -4,7 +4,12 @@
  * the dose to a target pH. Used by the CLI, the workbench and the report.
  */
 import { unitInfo } from '../poise/units'
-import type { TitrationCurveResult, TitrationDoseResult } from '../types/result'
+import type { SweepResult, TitrationCurveResult, TitrationDoseResult } from '../types/result'
+
+/** A titration curve read as a sweep over the added volume (mL): the species diagrams and toxic cautions take it as they take a sweep. */
+export function titrationAsSweep(t: TitrationCurveResult): SweepResult {
+  return { variable: 'volume', component: null, values: t.values, points: t.points }
+}
 
 /** A volume in mL expressed in `unit` (a volume unit of the language; mL when it is not one). */
 export function volumeInUnit(mL: number, unit: string): { value: number; unit: string } {

@@ -127,7 +127,8 @@ export interface LimitWindow {
 }
 
 export interface SweepResult {
-  variable: 'pH' | 'total' | 'temperature' | 'pressure'
+  /** `volume`: a titration curve read as a sweep (added titrant, mL; titrationAsSweep in shared/results/titration.ts). */
+  variable: 'pH' | 'total' | 'temperature' | 'pressure' | 'volume'
   component: string | null
   values: number[]
   points: Result[]

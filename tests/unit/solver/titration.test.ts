@@ -262,3 +262,21 @@ describe('comparing revisions', () => {
     expect(incomparableReason(a as never, b as never)).toMatch(/^Titration answers are not compared point by point/)
   })
 })
+
+describe('species along the added volume', () => {
+  it('draws the distribution of copper along the rinse\'s titration, the hydroxide taking it over after the acid end point', async () => {
+    const { titrationAsSweep } = await import('../../../shared/results/titration')
+    const { diagramData } = await import('../../../shared/results/diagram')
+    const dir = fileURLToPath(new URL('../../../examples/', import.meta.url))
+    const m = model(readFileSync(dir + 'acid-copper-rinse-neutralised.poise', 'utf8'))
+    const t = titration(m) as TitrationCurveResult
+    const data = diagramData(titrationAsSweep(t), m, { kind: 'distribution', component: 'Cu^2+' })
+    expect(data.xLabel).toBe('Added titrant (mL)')
+    expect(data.x).toEqual(t.values)
+    const free = data.series.find((s) => s.key === 'Cu^2+')!
+    // Before any caustic the dissolved copper is Cu²⁺ (pH 2.5); past the second end point the hydroxide has taken it out.
+    expect(free.values[0]).toBeGreaterThan(0.99)
+    const logs = diagramData(titrationAsSweep(t), m, { kind: 'logConcentration', component: null }).series.find((s) => s.key === 'Cu^2+')!
+    expect(logs.values[0]! - logs.values.at(-1)!).toBeGreaterThan(3)
+  })
+})
