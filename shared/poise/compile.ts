@@ -104,7 +104,7 @@ function sameLibrary(a: { source: string; revision: number } | null, b: { source
 export function compileSource(source: string, options: CompileOptions, stack: string[] = []): CompileResult & { library: LibraryContent } {
   const report = new Reporter(source)
   const parsed = parseFile(source)
-  for (const p of parsed.problems) report.error(p.code, p.message, p)
+  for (const p of parsed.problems) report.error(p.code, p.message, p, p.fixes)
   let incomplete = parsed.incomplete
   const st = parsed.statements
   const of = <K extends Statement['kind']>(kind: K) => st.filter((s): s is Extract<Statement, { kind: K }> => s.kind === kind)
@@ -179,9 +179,19 @@ export function compileSource(source: string, options: CompileOptions, stack: st
   // components
   const components: ModelComponent[] = []
   const componentTok = new Map<string, Tok>()
+  // Components whose line failed before its name was known: the names they may have meant, or (none known) any.
+  const brokenComponents = new Set<string>(parsed.brokenComponents)
+  let unnamedBrokenComponent = false
   for (const c of of('component')) {
     const f = formulaOf(c.formula, report)
-    if (!f) { incomplete = true; continue }
+    if (!f) {
+      incomplete = true
+      const meant = parseFormula(c.formula.image).problem?.fixes ?? []
+      brokenComponents.add(c.formula.image)
+      for (const m of meant) brokenComponents.add(parseFormula(m).formula?.name ?? m)
+      if (meant.length === 0) unnamedBrokenComponent = true
+      continue
+    }
     if (componentTok.has(f.name)) { report.error('P031', `${f.name} is declared as a component twice: keep one`, c.formula); continue }
     const m = checkComponent(c, f, report)
     componentTok.set(f.name, c.formula)
@@ -192,7 +202,8 @@ export function compileSource(source: string, options: CompileOptions, stack: st
   for (const b of balances.slice(1)) report.error('P055', `only one component can be balance: ${balances[0]!.name} already is`, componentTok.get(b.name)!)
 
   // reactions
-  const isComponent = (name: string) => componentTok.has(name)
+  // A name a broken component line may have declared counts as one: its line's error says enough.
+  const isComponent = (name: string) => componentTok.has(name) || brokenComponents.has(name) || unnamedBrokenComponent
   const prepared: PreparedReaction[] = []
   for (const r of of('reaction')) {
     const p = prepareReaction(r, report, sources, isComponent)

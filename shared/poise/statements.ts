@@ -4,9 +4,11 @@
  * statement the checker works on.
  */
 import type { CstElement, CstNode, IToken } from 'chevrotain'
+import type { Fix } from './diagnostics'
 import { lexForParser } from './lexer'
 import { parseStatement } from './parser'
-import { parseNumber } from './units'
+import { editDistance, nearness, notAUnitMessage, parseNumber, suggestUnits } from './units'
+import { KEYWORDS } from './tokens'
 import { formatNumber, NUMBER_MAX, NUMBER_MIN } from './limits'
 
 export interface Tok { image: string; from: number; to: number }
@@ -32,7 +34,7 @@ export type Statement = Base & (
   | { kind: 'sweep'; variable: 'pH' | 'total' | 'temperature' | 'pressure'; variableTok: Tok; target: Tok | null; start: Quantity; end: Quantity; step: Quantity | null; points: Quantity | null; log: boolean }
 )
 
-export interface SyntaxProblem { code: 'P001' | 'P002' | 'P082'; message: string; from: number; to: number }
+export interface SyntaxProblem { code: 'P001' | 'P002' | 'P050' | 'P082'; message: string; from: number; to: number; fixes?: Fix[] }
 
 const tok = (t: IToken): Tok => ({ image: t.image, from: t.startOffset, to: t.startOffset + t.image.length })
 
@@ -174,16 +176,25 @@ function toStatement(cst: CstNode, from: number, to: number): Statement {
   throw new Error(`internal: unknown statement ${inner.name}`)
 }
 
-export interface ParsedFile { statements: Statement[]; problems: SyntaxProblem[]; incomplete: boolean }
+export interface ParsedFile {
+  statements: Statement[]
+  problems: SyntaxProblem[]
+  incomplete: boolean
+  /** The formulas of `component` lines that did not parse (their own error says why; later checks must not cascade from them). */
+  brokenComponents: string[]
+}
 
 /** Lexes and parses a whole file. Lines with a syntax error yield a problem and no statement. */
 export function parseFile(text: string): ParsedFile {
   const lexed = lexForParser(text)
   const problems: SyntaxProblem[] = lexed.errors.map((e) => ({ code: 'P001', message: e.message, from: e.from, to: e.to }))
   const statements: Statement[] = []
+  const brokenComponents: string[] = []
+  const unitSpans: { from: number; to: number }[] = []
   let incomplete = problems.length > 0
   let line: IToken[] = []
   const flush = (lineEnd: number) => {
+    const before = statements.length
     const unterminated = line.find((t) => t.tokenType.name === 'UnterminatedString')
     if (unterminated) {
       problems.push({ code: 'P001', message: 'this text has no closing quote: add " at its end', from: unterminated.startOffset, to: unterminated.startOffset + unterminated.image.length })
@@ -195,14 +206,42 @@ export function parseFile(text: string): ParsedFile {
       const to = last.startOffset + last.image.length
       if (parsed.cst) statements.push(toStatement(parsed.cst, from, to))
       else {
-        const e = parsed.errors[0]!
-        const at = Number.isFinite(e.token.startOffset) ? e.token.startOffset : lineEnd
-        const end = Number.isFinite(e.token.startOffset) ? at + Math.max(1, e.token.image.length) : lineEnd
-        problems.push({ code: 'P002', message: e.message, from: Math.min(at, text.length), to: Math.min(Math.max(end, at), text.length) })
+        // Every error the parser recovered from, once each; a word after a number that is no unit gets its own message.
+        // An error at the token right after the previous one is that one's echo (the parser resynchronising): not reported.
+        const seen = new Set<number>()
+        let previous = -2
+        for (const e of parsed.errors) {
+          const at = Number.isFinite(e.token.startOffset) ? e.token.startOffset : lineEnd
+          const index = Number.isFinite(e.token.startOffset) ? line.indexOf(e.token) : line.length
+          const echo = index === previous + 1
+          previous = index
+          if (echo || seen.has(at) || unitSpans.some((s) => at >= s.from && at < s.to)) continue
+          seen.add(at)
+          const unit = notAUnit(e.token)
+          if (unit) { problems.push(unit); unitSpans.push(unit); continue }
+          const end = Number.isFinite(e.token.startOffset) ? at + Math.max(1, e.token.image.length) : lineEnd
+          problems.push({ code: 'P002', message: e.message, from: Math.min(at, text.length), to: Math.min(Math.max(end, at), text.length) })
+        }
         incomplete = true
       }
     }
+    if (statements.length === before && line[0]?.tokenType.name === 'ComponentKeyword' && line[1]?.tokenType.name === 'Formula') brokenComponents.push(line[1].image)
     line = []
+  }
+  /** A word right after a number where the parser expected something else: a unit that is not one (P050), with the nearest units. */
+  function notAUnit(tok: IToken): SyntaxProblem | null {
+    const k = line.indexOf(tok)
+    if (k < 1 || line[k - 1]!.tokenType.name !== 'Number' || !['Word', 'Formula'].includes(tok.tokenType.name)) return null
+    // The whole run of text up to the next space: mg/l lexes as a word, an unexpected '/' and another word.
+    const run = /[^\s#]*/y
+    run.lastIndex = tok.startOffset
+    const word = run.exec(text)![0]
+    const s = suggestUnits(word)
+    if (s.units.length === 0 || (s.how === 'near' && KEYWORDS.some((kw) => editDistance(word.toLowerCase(), kw.toLowerCase()) <= nearness(word)))) return null
+    const from = tok.startOffset
+    const to = from + word.length
+    const fixes = s.clear ? [{ label: `write ${s.units[0]}`, from, to, insert: s.units[0]! }] : undefined
+    return { code: 'P050', message: notAUnitMessage(word, s), from, to, ...(fixes ? { fixes } : {}) }
   }
   /** Reports the numbers of a line that double precision cannot carry; true when there is one (the line is then skipped). */
   function unrepresentable(tokens: IToken[]): boolean {
@@ -230,5 +269,7 @@ export function parseFile(text: string): ParsedFile {
   }
   const lastTok = line[line.length - 1]
   flush(lastTok ? lastTok.startOffset + lastTok.image.length : text.length)
-  return { statements, problems, incomplete }
+  // Characters the lexer refused inside a word already reported as no unit (the '/' of mg/l) need no message of their own.
+  const kept = problems.filter((p) => p.code !== 'P001' || !unitSpans.some((s) => p.from >= s.from && p.from < s.to))
+  return { statements, problems: kept, incomplete, brokenComponents }
 }

@@ -59,3 +59,71 @@ export function parseNumber(image: string): number {
   if (m) return (m[1] === '-' ? -1 : 1) * Math.pow(10, Number(m[2]))
   return Number(image)
 }
+
+/**
+ * Shorthands of the trade that are not units: in dilute water (about 1 kg
+ * per litre) ppm and ppb are read as mg/L and µg/L (common practice).
+ */
+const SHORTHANDS: Record<string, { unit: string; why: string }> = {
+  ppm: { unit: 'mg/L', why: 'ppm is the trade\'s shorthand for mg/L in dilute water' },
+  ppb: { unit: 'µg/L', why: 'ppb is the trade\'s shorthand for µg/L in dilute water' },
+}
+
+/** The units as they are offered: one spelling of micro (µ) and of ångström. */
+export const UNIT_NAMES: readonly string[] = Object.keys(table).filter((k) => !/^[uμ]/.test(k) && k !== 'Å')
+
+export function editDistance(a: string, b: string): number {
+  const prev = Array.from({ length: b.length + 1 }, (_, j) => j)
+  for (let i = 1; i <= a.length; i++) {
+    let diag = prev[0]!
+    prev[0] = i
+    for (let j = 1; j <= b.length; j++) {
+      const up = prev[j]!
+      prev[j] = Math.min(up + 1, prev[j - 1]! + 1, diag + (a[i - 1] === b[j - 1] ? 0 : 1))
+      diag = up
+    }
+  }
+  return prev[b.length]!
+}
+
+/** How many edits a word may be from a unit (or a keyword) to count as meaning it: one for short words, two for longer. */
+export const nearness = (word: string): number => (word.length <= 3 ? 1 : 2)
+
+export interface UnitSuggestion {
+  /** The nearest units, best first (at most three). */
+  units: string[]
+  /** Why the first one is meant, when the word is a known shorthand. */
+  why: string | null
+  /** True when one replacement is clearly meant (offered as a quick fix). */
+  clear: boolean
+  /** How the word was matched: only `near` (within a few edits) may as well be a misspelt keyword. */
+  how: 'shorthand' | 'case' | 'prefix' | 'near'
+}
+
+/**
+ * The units nearest to a word that is not one: a trade shorthand (ppm, ppb),
+ * the same unit in other letter case (mg/l), a unit it begins (mmol → mmol/L),
+ * or the units within two edits.
+ */
+export function suggestUnits(word: string): UnitSuggestion {
+  const short = SHORTHANDS[word.toLowerCase()]
+  if (short) return { units: [short.unit], why: short.why, clear: true, how: 'shorthand' }
+  const lower = word.toLowerCase()
+  const norm = (u: string) => u.replace(/^[uμ]/, 'µ')
+  const sameLetters = Object.keys(table).filter((u) => u.toLowerCase() === lower).map(norm)
+  const unique = (xs: string[]) => [...new Set(xs)]
+  if (sameLetters.length) return { units: unique(sameLetters).slice(0, 3), why: null, clear: unique(sameLetters).length === 1, how: 'case' }
+  const begun = Object.keys(table).filter((u) => u.toLowerCase().startsWith(lower + '/')).map(norm)
+  if (begun.length) return { units: unique(begun).slice(0, 3), why: null, clear: unique(begun).length === 1, how: 'prefix' }
+  const scored = UNIT_NAMES.map((u) => ({ u, d: editDistance(lower, u.toLowerCase()) })).filter((s) => s.d <= nearness(lower)).sort((a, b) => a.d - b.d)
+  const units = scored.slice(0, 3).map((s) => s.u)
+  const clear = scored.length > 0 && (scored.length === 1 || scored[1]!.d > scored[0]!.d)
+  return { units, why: null, clear, how: 'near' }
+}
+
+/** The message for a word written where a unit goes that is not one. */
+export function notAUnitMessage(word: string, s: UnitSuggestion): string {
+  if (s.why) return `${word} is not a unit: ${s.why}, so write ${s.units[0]}`
+  if (s.clear) return `${word} is not a unit: write ${s.units[0]}`
+  return `${word} is not a unit: did you mean ${s.units.slice(0, -1).join(', ')} or ${s.units[s.units.length - 1]}?`
+}
