@@ -141,6 +141,9 @@ export function compileSource(source: string, options: CompileOptions, stack: st
   }
 
   const sources: Record<string, string> = {}
+  // A cite of a source whose line did not parse is not reported again (nor one of any key, when that line named none).
+  const brokenSources = parsed.brokenLines.filter((b) => b.keyword === 'source')
+  const citesBroken = (key: string) => brokenSources.some((b) => b.name === null || b.name === key)
   for (const s of of('source')) {
     if (Object.prototype.hasOwnProperty.call(sources, s.key.image)) report.error('P031', `source ${s.key.image} is defined twice`, s.key)
     sources[s.key.image] = s.text
@@ -180,7 +183,7 @@ export function compileSource(source: string, options: CompileOptions, stack: st
   const components: ModelComponent[] = []
   const componentTok = new Map<string, Tok>()
   // Components whose line failed before its name was known: the names they may have meant, or (none known) any.
-  const brokenComponents = new Set<string>(parsed.brokenComponents)
+  const brokenComponents = new Set<string>(parsed.brokenLines.filter((b) => b.keyword === 'component' && b.name !== null).map((b) => b.name!))
   let unnamedBrokenComponent = false
   for (const c of of('component')) {
     const f = formulaOf(c.formula, report)
@@ -206,7 +209,7 @@ export function compileSource(source: string, options: CompileOptions, stack: st
   const isComponent = (name: string) => componentTok.has(name) || brokenComponents.has(name) || unnamedBrokenComponent
   const prepared: PreparedReaction[] = []
   for (const r of of('reaction')) {
-    const p = prepareReaction(r, report, sources, isComponent)
+    const p = prepareReaction(r, report, sources, isComponent, citesBroken)
     if (p) prepared.push(p)
     else incomplete = true
   }
@@ -267,7 +270,7 @@ export function compileSource(source: string, options: CompileOptions, stack: st
       continue
     }
     if (f.charge === 0) report.warning('W108', `${f.name} carries no charge, so its activity coefficient does not depend on an ion size: this line has no effect`, s.formula)
-    else if (activity !== 'debye-huckel') report.warning('W108', `ion sizes are used only by \`activity debye-huckel\`; with ${activity} this line has no effect`, s.keyword)
+    else if (activity !== 'debye-huckel' && !parsed.brokenLines.some((b) => b.keyword === 'activity')) report.warning('W108', `ion sizes are used only by \`activity debye-huckel\`; with ${activity} this line has no effect`, s.keyword)
     ionSizes.set(f.name, angstrom)
   }
   const ionSizeOf = (name: string, charge: number): { angstrom: number; source: IonSizeSource } | null => {
@@ -388,7 +391,7 @@ function sideText(terms: PreparedTerm[]): string {
   return terms.map((t) => (t.coefficient === 1 ? t.formula.name : `${t.coefficient} ${t.formula.name}`)).join(' + ')
 }
 
-function prepareReaction(r: ReactionStatement, report: Reporter, sources: Record<string, string>, isComponent: (n: string) => boolean): PreparedReaction | null {
+function prepareReaction(r: ReactionStatement, report: Reporter, sources: Record<string, string>, isComponent: (n: string) => boolean, citesBroken: (key: string) => boolean): PreparedReaction | null {
   let ok = true
   const side = (terms: ReactionStatement['left']): PreparedTerm[] => {
     const out: PreparedTerm[] = []
@@ -430,11 +433,12 @@ function prepareReaction(r: ReactionStatement, report: Reporter, sources: Record
   const c = r.cites[0]
   if (c) {
     if (c.key) {
-      if (!Object.prototype.hasOwnProperty.call(sources, c.key.image)) {
+      if (Object.prototype.hasOwnProperty.call(sources, c.key.image)) cite = sources[c.key.image]!
+      else if (!citesBroken(c.key.image)) {
         report.error('P034', `source ${c.key.image} is not defined: add \`source ${c.key.image} "full reference"\``, c.key)
         return null
       }
-      cite = sources[c.key.image]!
+      // Else the source's own line is in error already; the reaction is still resolved, so nothing else cascades.
     } else cite = c.text
   } else {
     report.warning('W105', 'this constant has no cite: add cite "where it comes from" (a handbook, a paper, or "from memory")', r.constantKind)

@@ -180,8 +180,12 @@ export interface ParsedFile {
   statements: Statement[]
   problems: SyntaxProblem[]
   incomplete: boolean
-  /** The formulas of `component` lines that did not parse (their own error says why; later checks must not cascade from them). */
-  brokenComponents: string[]
+  /**
+   * The lines that did not parse (their own error says why; later checks must
+   * not cascade from them): the line's first word, and the word or formula
+   * after it (the name it declares, as in `component NH3 …` or `source hb …`).
+   */
+  brokenLines: { keyword: string; name: string | null }[]
 }
 
 /** Lexes and parses a whole file. Lines with a syntax error yield a problem and no statement. */
@@ -189,7 +193,7 @@ export function parseFile(text: string): ParsedFile {
   const lexed = lexForParser(text)
   const problems: SyntaxProblem[] = lexed.errors.map((e) => ({ code: 'P001', message: e.message, from: e.from, to: e.to }))
   const statements: Statement[] = []
-  const brokenComponents: string[] = []
+  const brokenLines: ParsedFile['brokenLines'] = []
   const unitSpans: { from: number; to: number }[] = []
   let incomplete = problems.length > 0
   let line: IToken[] = []
@@ -225,7 +229,10 @@ export function parseFile(text: string): ParsedFile {
         incomplete = true
       }
     }
-    if (statements.length === before && line[0]?.tokenType.name === 'ComponentKeyword' && line[1]?.tokenType.name === 'Formula') brokenComponents.push(line[1].image)
+    if (statements.length === before && line.length > 0) {
+      const second = line[1]
+      brokenLines.push({ keyword: line[0]!.image, name: second && ['Word', 'Formula'].includes(second.tokenType.name) ? second.image : null })
+    }
     line = []
   }
   /** A word right after a number where the parser expected something else: a unit that is not one (P050), with the nearest units. */
@@ -271,5 +278,5 @@ export function parseFile(text: string): ParsedFile {
   flush(lastTok ? lastTok.startOffset + lastTok.image.length : text.length)
   // Characters the lexer refused inside a word already reported as no unit (the '/' of mg/l) need no message of their own.
   const kept = problems.filter((p) => p.code !== 'P001' || !unitSpans.some((s) => p.from >= s.from && p.from < s.to))
-  return { statements, problems: kept, incomplete, brokenComponents }
+  return { statements, problems: kept, incomplete, brokenLines }
 }

@@ -65,6 +65,46 @@ describe('one mistake gives one error', () => {
   })
 })
 
+describe('a broken line that other lines refer to', () => {
+  const CITED = `system "Cited ammonia"
+activity debye-huckel
+ion-size CuNH3^2+ 5 Å
+source hb "A handbook (from memory)"
+component H+ balance
+component Cu^2+ total 1 mmol/L
+component NH3 total 10 mmol/L
+reaction H2O <=> H+ + OH- pKw 14.00 cite hb
+reaction NH4+ <=> NH3 + H+ pKa 9.25 cite hb
+reaction Cu^2+ + NH3 <=> CuNH3^2+ logbeta 4.0 cite hb
+`
+  const breaking = (from: string, to: string) => {
+    if (!CITED.includes(from)) throw new Error(`test setup: ${from} not in the file`)
+    return compile(CITED.replace(from, to)).diagnostics
+  }
+
+  it('the file without a mistake has no error', () => {
+    expect(compile(CITED).diagnostics.filter((d) => d.severity === 'error')).toEqual([])
+  })
+
+  it('a source line with no closing quote: one error, not one on every cite', () => {
+    expect(breaking('(from memory)"', '(from memory)').map((d) => d.code)).toEqual(['P001'])
+  })
+
+  it('a source line without its key: one error, not one on every cite', () => {
+    expect(breaking('source hb "A', 'source "A').map((d) => d.code)).toEqual(['P002'])
+  })
+
+  it('a cite of another key than the broken source line names is still reported', () => {
+    const source = CITED.replace('(from memory)"', '(from memory)') + 'reaction Cu^2+ + 2 NH3 <=> Cu(NH3)2^2+ logbeta 7.5 cite hx\n'
+    expect(compile(source).diagnostics.map((d) => d.code)).toEqual(['P001', 'P034'])
+  })
+
+  it('a misspelt activity model: one error, and no warning that ion sizes do nothing "with ideal"', () => {
+    const found = breaking('activity debye-huckel', 'activity debye-hukel')
+    expect(found.map((d) => d.code)).toEqual(['P002'])
+  })
+})
+
 describe('a word where a unit goes that is not one', () => {
   const unitError = (source: string) => {
     const found = errors(source)
