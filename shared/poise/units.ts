@@ -105,7 +105,7 @@ export interface UnitSuggestion {
  * the same unit in other letter case (mg/l), a unit it begins (mmol → mmol/L),
  * or the units within two edits.
  */
-export function suggestUnits(word: string): UnitSuggestion {
+export function suggestUnits(word: string, dimensions: readonly Dimension[] = []): UnitSuggestion {
   const short = SHORTHANDS[word.toLowerCase()]
   if (short) return { units: [short.unit], why: short.why, clear: true, how: 'shorthand' }
   const lower = word.toLowerCase()
@@ -113,9 +113,13 @@ export function suggestUnits(word: string): UnitSuggestion {
   const sameLetters = Object.keys(table).filter((u) => u.toLowerCase() === lower).map(norm)
   const unique = (xs: string[]) => [...new Set(xs)]
   if (sameLetters.length) return { units: unique(sameLetters).slice(0, 3), why: null, clear: unique(sameLetters).length === 1, how: 'case' }
-  const begun = Object.keys(table).filter((u) => u.toLowerCase().startsWith(lower + '/')).map(norm)
+  // Where the statement says which quantity it is, units of that quantity only (all units when none is near).
+  const fits = (u: string) => dimensions.length === 0 || dimensions.includes(table[u]!.dimension)
+  const begun = Object.keys(table).filter((u) => fits(u) && u.toLowerCase().startsWith(lower + '/')).map(norm)
   if (begun.length) return { units: unique(begun).slice(0, 3), why: null, clear: unique(begun).length === 1, how: 'prefix' }
-  const scored = UNIT_NAMES.map((u) => ({ u, d: editDistance(lower, u.toLowerCase()) })).filter((s) => s.d <= nearness(lower)).sort((a, b) => a.d - b.d)
+  const near = (names: readonly string[]) => names.map((u) => ({ u, d: editDistance(lower, u.toLowerCase()) })).filter((s) => s.d <= nearness(lower)).sort((a, b) => a.d - b.d)
+  const fitting = near(UNIT_NAMES.filter(fits))
+  const scored = fitting.length ? fitting : near(UNIT_NAMES)
   const units = scored.slice(0, 3).map((s) => s.u)
   const clear = scored.length > 0 && (scored.length === 1 || scored[1]!.d > scored[0]!.d)
   return { units, why: null, clear, how: 'near' }

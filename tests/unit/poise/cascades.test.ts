@@ -157,9 +157,18 @@ describe('a word where a unit goes that is not one', () => {
 
   it('a word as near to two units offers both and no quick fix', () => {
     const d = unitError(replacing('total 10 mmol/L', 'total 10 mn'))
-    expect(d.message).toMatch(/^mn is not a unit: did you mean .+ or .+\?$/)
-    expect(d.message).toContain('mL')
+    // After `total`, the concentrations one letter away (mL is one too, but a volume).
+    expect(d.message).toBe('mn is not a unit: did you mean M or mM?')
     expect(d.fixes).toBeUndefined()
+  })
+
+  it('the nearest units are those of the quantity the statement gives', () => {
+    // F is one letter from M, C and K; after `temperature` only the temperatures are meant.
+    const d = unitError(replacing('sweep pH', 'temperature 35 F\nsweep pH'))
+    expect(d.message).toBe('F is not a unit: did you mean C or K?')
+    expect(suggestUnits('F').units).toEqual(['M', 'C', 'K'])
+    // Within the quantity, the nearest one is the fix when no other is as near.
+    expect(suggestUnits('J/mo', ['enthalpy'])).toMatchObject({ units: ['J/mol', 'kJ/mol'], clear: true })
   })
 
   it('a misspelt keyword after a number stays a syntax error, not a unit', () => {
