@@ -3,6 +3,7 @@ import { EditorState, type TransactionSpec } from '@codemirror/state'
 import type { EditorView } from '@codemirror/view'
 import type { Diagnostic } from '../../../shared/poise/diagnostics'
 import { toEditorDiagnostics } from '../../../codemirror/editorDiagnostics'
+import { compile } from '../../../shared/poise/index'
 
 function diagnostic(from: number, to: number, extra: Partial<Diagnostic> = {}): Diagnostic {
   return {
@@ -53,6 +54,17 @@ describe('compiler diagnostics in the editor', () => {
     const view = fakeView(doc)
     d!.actions![0]!.apply(view as unknown as EditorView, d!.from, d!.to)
     expect(view.state.doc.toString()).toBe('component Ca^2+ total 1 mM')
+  })
+
+  it('offers the compiler\'s unit suggestion for ppm as an action that makes the file clean', () => {
+    const doc = 'system "Hard water"\ncomponent H+ balance\ncomponent Ca^2+ total 40 ppm\n'
+    const [d] = toEditorDiagnostics(compile(doc).diagnostics, doc.length)
+    expect(d!.message).toContain('ppm is not a unit')
+    expect(d!.actions!.map((a) => a.name)).toEqual(['write mg/L'])
+    const view = fakeView(doc)
+    d!.actions![0]!.apply(view as unknown as EditorView, d!.from, d!.to)
+    expect(view.state.doc.toString()).toBe('system "Hard water"\ncomponent H+ balance\ncomponent Ca^2+ total 40 mg/L\n')
+    expect(compile(view.state.doc.toString()).diagnostics.filter((x) => x.severity === 'error')).toEqual([])
   })
 
   it('applies a fix where the diagnostic has moved to after an edit above it', () => {
