@@ -44,7 +44,7 @@ export async function readPoiseUpload(event: H3Event): Promise<PoiseUpload> {
   const named = UploadFilenameSchema.safeParse(filename)
   if (!named.success) {
     const message = named.error.issues[0]!.message
-    throw createError({ statusCode: 400, message: `file: ${message}`, data: { issues: [{ path: 'file', message }] } })
+    throw createError({ statusCode: 400, message, data: { issues: [{ path: 'file', message }] } })
   }
   if (!UPLOAD_EXTENSIONS.some((ext) => filename.toLowerCase().endsWith(ext))) {
     throw unsupported(`"${filename}" is not a Poise file: choose a file ending in ${UPLOAD_EXTENSIONS.join(' or ')}`)
@@ -86,7 +86,7 @@ export function validateFields<S extends z.ZodType>(schema: S, fields: Record<st
   const parsed = schema.safeParse(present)
   if (parsed.success) return parsed.data
   const issues = parsed.error.issues.map((issue) => ({ path: issue.path.map(String).join('.'), message: issue.message }))
-  throw createError({ statusCode: 400, message: `${issues[0]!.path}: ${issues[0]!.message}`, data: { issues } })
+  throw createError({ statusCode: 400, message: issues[0]!.message, data: { issues } })
 }
 
 /** Adds a system row for an import, in the caller's transaction; a slug already used in the lab is a 409 saying so. */

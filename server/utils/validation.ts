@@ -1,6 +1,6 @@
 /**
- * Request validation with one error shape: 400 with a message naming the
- * field and what to change, plus `data.issues` for forms to show inline.
+ * Request validation with one error shape: 400 with a message saying what to
+ * change, plus `data.issues` (field path and message) for forms to show inline.
  */
 import type { H3Event } from 'h3'
 import type { z } from 'zod'
@@ -15,8 +15,9 @@ function badRequest(error: z.ZodError): never {
     path: issue.path.map(String).join('.'),
     message: issue.message,
   }))
-  const first = issues[0]
-  const message = first ? (first.path ? `${first.path}: ${first.message}` : first.message) : 'The request is not valid'
+  // The message is for a person: the first issue's own words, which say what to change. Which field it
+  // concerns is in `data.issues`, never written into the sentence as a schema's key ("token: …").
+  const message = issues[0]?.message ?? 'The request is not valid'
   throw createError({ statusCode: 400, statusMessage: 'Bad Request', message, data: { issues } })
 }
 

@@ -15,7 +15,7 @@ export const REGISTRATION_CONFIRM_HOURS = 24
 
 /** A link token: the base64url text of 32 random bytes. */
 export const LinkTokenSchema = z.string().trim()
-  .regex(/^[A-Za-z0-9_-]{43}$/, { error: 'This link is incomplete; open the whole link from the mail' })
+  .regex(/^[A-Za-z0-9_-]{43}$/, { error: 'This link is not valid; open the whole link from the mail, or ask for a new one' })
 
 export const InvitationCreateBody = z.object({
   email: EmailSchema,

@@ -94,7 +94,8 @@ sweep pH from 4 to 9 step 1
   it('answers 400 to a query without revision numbers, 404 to a missing revision or an outsider', async () => {
     const bad = await api(`${system()}/compare?from=one&to=2`, { cookie: viewer.cookie })
     expect(bad.status).toBe(400)
-    expect(bad.body.message).toMatch(/^from: /)
+    expect(bad.body.data.issues[0].path).toBe('from')
+    expect(bad.body.message).not.toMatch(/^from:/)
     expect((await api(`${system()}/compare?from=1`, { cookie: viewer.cookie })).status).toBe(400)
     expect((await api(`${system()}/compare?from=1&to=99`, { cookie: viewer.cookie })).status).toBe(404)
     expect((await api(`${system()}/compare?from=1&to=2`, { cookie: outsider.cookie })).status).toBe(404)
