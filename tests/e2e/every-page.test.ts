@@ -107,7 +107,7 @@ describe('every page is clean', () => {
     expect(JSON.stringify(signedOut.body)).not.toContain('Server Error')
   })
 
-  it('signed in: home, settings, a lab, members, new system, workbench, history, compare, report, a review', async () => {
+  it('signed in: home, settings, a lab, members, new system, workbench with a stored run, history, compare, report, a review, a library', async () => {
     const owner = await signUp('pages-owner')
     const reviewer = await signUp('pages-reviewer')
     const lab = await makeLab(owner, [{ who: reviewer, role: 'reviewer' }])
@@ -117,6 +117,9 @@ describe('every page is clean', () => {
     expect(asked.status).toBe(201)
     const reviewId = asked.body.review?.id ?? asked.body.id
     expect(reviewId).toBeTypeOf('number')
+    // A stored run (the workbench and history show it, with its date) and the system shared as a lab library.
+    expect((await api(`/api/labs/${lab}/systems/ammine/runs`, { method: 'POST', cookie: owner.cookie, body: {} })).status).toBeLessThan(300)
+    expect((await api(`/api/labs/${lab}/systems/ammine/library`, { method: 'PUT', cookie: owner.cookie, body: { isLibrary: true } })).status).toBe(200)
 
     const system = `/labs/${lab}/systems/ammine`
     const pages: [string, string][] = [
@@ -130,6 +133,7 @@ describe('every page is clean', () => {
       [`${system}/compare?from=1&to=2`, 'compare'],
       [`${system}/report`, 'report'],
       [`/labs/${lab}/reviews/${reviewId}`, 'review'],
+      [`/labs/${lab}/libraries/ammine`, 'library'],
     ]
     const problems: string[] = []
     for (const [path, name] of pages) problems.push(...await problemsOn(path, name, owner.cookie))
