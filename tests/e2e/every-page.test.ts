@@ -96,6 +96,10 @@ describe('every page is clean', () => {
     expect(refusal).not.toMatch(/token:/)
     await screenshot(page, 'every-page-reset-refused')
 
+    const confirm = await openPage('/register/confirm?token=not-a-real-token')
+    await expect(confirm.getByRole('alert').textContent()).resolves.toContain('This confirmation link is not valid')
+    await expect(confirm.getByRole('button', { name: 'Confirm and sign in' }).count()).resolves.toBe(0)
+
     const malformed = await api('/api/auth/password/reset', { method: 'POST', body: { token: 'short', password: 'a long enough password' } })
     expect(malformed.status).toBe(400)
     expect(malformed.body.message).toBe('This link is not valid; open the whole link from the mail, or ask for a new one')
