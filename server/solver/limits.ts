@@ -18,14 +18,16 @@ const MAX_BISECTIONS = 80
 
 /** Where a sweep value sits for bisection: log10 for a log sweep, the value itself otherwise. */
 function positionOf(model: Model, v: number): number {
-  return model.sweep!.log && v > 0 ? Math.log10(v) : v
+  return model.sweep?.log && v > 0 ? Math.log10(v) : v
 }
 function valueAt(model: Model, position: number): number {
-  return model.sweep!.log ? Math.pow(10, position) : position
+  return model.sweep?.log ? Math.pow(10, position) : position
 }
 function narrowEnough(model: Model, a: number, b: number): boolean {
-  const sw = model.sweep!
+  const sw = model.sweep
   const width = Math.abs(b - a)
+  // A titration (no sweep): added volumes, relative like a total.
+  if (!sw) return width <= END_TOLERANCE * Math.max(Math.abs(a), Math.abs(b))
   if (sw.log || sw.variable === 'pH' || sw.variable === 'temperature') return width <= END_TOLERANCE
   return width <= END_TOLERANCE * Math.max(Math.abs(a), Math.abs(b))
 }

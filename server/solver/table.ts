@@ -4,7 +4,7 @@
  */
 import type { Model } from '../../shared/poise/model'
 import type { Result, SweepResult, TitrationResult } from '../../shared/types/result'
-import { doseSentence, endPointSentences, formatVolume, volumeInUnit } from '../../shared/results/titration'
+import { doseSentence, endPointSentences, formatVolume, titrationAsSweep, volumeInUnit } from '../../shared/results/titration'
 import { dissolvedText } from '../../shared/results/names'
 import { MOLAR_SCALE, type UnitScale } from '../../shared/results/units'
 import { limitSentence } from '../../shared/results/limits'
@@ -98,5 +98,6 @@ export function formatTitrationTable(model: Model, t: TitrationResult): string {
       present, p.converged ? 'ok' : `failed: ${p.reason ?? ''}`,
     ])
   })
-  return [...head, align(rows), '', ...endPointSentences(t)].join('\n')
+  const limits = (t.limits ?? []).flatMap((w) => [`limit: ${limitSentence(titrationAsSweep(t), w)}`, ...(w.note ? [`  (${w.note})`] : [])])
+  return [...head, align(rows), '', ...endPointSentences(t), ...limits].join('\n')
 }

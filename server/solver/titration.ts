@@ -18,6 +18,7 @@ import type { EquivalencePoint, Result, TitrationCurveResult, TitrationDoseResul
 import { buildProblem, setComponent, MIN_NONZERO_TOTAL, type Problem } from './problem'
 import { Workspace, type SolverState } from './workspace'
 import { dLogActivityH, bufferCapacity } from './sensitivity'
+import { limitWindows } from './limits'
 import {
   continueAlong, copyState, guardOf, internalFailure, iterationsOf, newState, solveProblem, unsolvable,
   type SolveOptions,
@@ -171,7 +172,17 @@ export function titration(model: Model, options?: SolveOptions): TitrationResult
         const e = refine(values[i - 1], values[i + 1], states[i]!)
         if (e) equivalencePoints.push(e)
       }
-      return { kind: 'titration', sampleVolumeL, unit, values, points, derivative, equivalencePoints }
+      const answer: TitrationCurveResult = { kind: 'titration', sampleVolumeL, unit, values, points, derivative, equivalencePoints }
+      if (model.limits?.length) {
+        // Where each limit holds along the added volume, its ends located by exact solves warm from the nearest grid point.
+        const scratch = newState(p)
+        answer.limits = limitWindows(model, { variable: 'volume', component: null, values, points }, (v) => {
+          let near = -1
+          values.forEach((x, k) => { if (states[k] && (near < 0 || Math.abs(x - v) < Math.abs(values[near]! - v))) near = k })
+          return solveAt(v, near >= 0 ? states[near]! : null, scratch).result
+        })
+      }
+      return answer
     }
 
     /** Golden-section search for the largest |dpH/dv| in [a, b], each value from an exact solve. */

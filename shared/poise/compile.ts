@@ -317,7 +317,8 @@ export function compileSource(source: string, options: CompileOptions, stack: st
   const limits: ModelLimit[] = []
   if (!incomplete) {
     for (const l of of('limit')) {
-      const limit = compileLimit(l, components, sweepStmt !== undefined, report)
+      const curve = titration?.values != null
+      const limit = compileLimit(l, components, sweepStmt !== undefined || curve, report)
       if (limit) limits.push(limit)
     }
   }

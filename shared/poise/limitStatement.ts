@@ -82,7 +82,7 @@ export function compileLimit(s: LimitStatement, components: ModelComponent[], ha
   }
   if (!checkRange(report, 'concentration', molPerLitre, q.number, { what: 'the limit' })) return null
   if (!hasSweep) {
-    report.warning('W109', `a limit is read along a sweep: add a \`sweep\` line to see where dissolved ${withoutCharge(target)} is at or below ${q.number.image} ${q.unit.image} (a single solve does not use it)`, s.keyword)
+    report.warning('W109', `a limit is read along a sweep or a titration curve: add a \`sweep\` or \`titrate from\` line to see where dissolved ${withoutCharge(target)} is at or below ${q.number.image} ${q.unit.image} (a single solve does not use it)`, s.keyword)
   }
   return {
     quantity: `dissolved ${withoutCharge(target)}`,

@@ -8,7 +8,7 @@ import type { SweepResult, TitrationCurveResult, TitrationDoseResult } from '../
 
 /** A titration curve read as a sweep over the added volume (mL): the species diagrams and toxic cautions take it as they take a sweep. */
 export function titrationAsSweep(t: TitrationCurveResult): SweepResult {
-  return { variable: 'volume', component: null, values: t.values, points: t.points }
+  return { variable: 'volume', component: null, values: t.values, points: t.points, ...(t.limits ? { limits: t.limits } : {}) }
 }
 
 /** A volume in mL expressed in `unit` (a volume unit of the language; mL when it is not one). */

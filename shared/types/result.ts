@@ -157,6 +157,8 @@ export interface TitrationCurveResult {
   /** dpH/dv at each point, pH units per mL, from the model's sensitivity; null where the point did not converge. */
   derivative: (number | null)[]
   equivalencePoints: EquivalencePoint[]
+  /** One entry per `limit` statement, in file order, ranges in added mL; absent when the file has none. */
+  limits?: LimitWindow[]
 }
 
 /** `titrate to pH X`: the dose. */

@@ -59,7 +59,7 @@ describe('limit dissolved X N UNIT', () => {
   it('warns, and keeps the limit, when there is no sweep to read it along', () => {
     const { model, diagnostics } = withLimit('limit dissolved Ni 1 mg/L', '')
     expect(diagnostics.map((d) => [d.code, d.severity, d.message])).toEqual([
-      ['W109', 'warning', 'a limit is read along a sweep: add a `sweep` line to see where dissolved Ni is at or below 1 mg/L (a single solve does not use it)'],
+      ['W109', 'warning', 'a limit is read along a sweep or a titration curve: add a `sweep` or `titrate from` line to see where dissolved Ni is at or below 1 mg/L (a single solve does not use it)'],
     ])
     expect(model!.limits).toHaveLength(1)
   })

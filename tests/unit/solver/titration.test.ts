@@ -280,3 +280,30 @@ describe('species along the added volume', () => {
     expect(logs.values[0]! - logs.values.at(-1)!).toBeGreaterThan(3)
   })
 })
+
+describe('limits along a titration', () => {
+  const dir = fileURLToPath(new URL('../../../examples/', import.meta.url))
+  const text = readFileSync(dir + 'acid-copper-rinse-neutralised.poise', 'utf8')
+  // Cu 63.546 g/mol (IUPAC standard atomic weights): mol/L → mg/L.
+  const copperMg = (t: TitrationCurveResult, k: number) => t.points[k]!.components.find((c) => c.name === 'Cu^2+')!.dissolved! * 63.546e3
+
+  it('gives the added volumes where dissolved copper is at or below the limit, the start located by exact solves', () => {
+    const t = titration(model(text)) as TitrationCurveResult
+    expect(t.limits).toHaveLength(1)
+    const [range] = t.limits![0]!.ranges
+    expect(t.limits![0]!.ranges).toHaveLength(1)
+    expect(range![1]).toBe(6)
+    expect(range![0]).toBeGreaterThan(5.5)
+    expect(range![0]).toBeLessThan(5.58)
+    // At the start the limit holds; a thousandth of a mL earlier it does not.
+    const start = range![0]
+    const at = titration(model(text.replace(/^titrate from .*$/m, `titrate from ${start - 1e-3} to ${start} mL points 2`))) as TitrationCurveResult
+    expect(copperMg(at, 1)).toBeLessThanOrEqual(0.5)
+    expect(copperMg(at, 0)).toBeGreaterThan(0.5)
+  })
+
+  it('warns that a limit does nothing beside a dose, not beside a curve', () => {
+    expect(compile(text).diagnostics.map((d) => d.code)).not.toContain('W109')
+    expect(compile(text.replace(/^titrate from .*$/m, 'titrate to pH 8.5')).diagnostics.map((d) => d.code)).toContain('W109')
+  })
+})
