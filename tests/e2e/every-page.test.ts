@@ -55,6 +55,12 @@ async function problemsOn(path: string, name: string, cookie?: string): Promise<
           .map((el) => `${el.tagName.toLowerCase()}.${[...el.classList].join('.')}`),
       }))
       if (scrollWidth > innerWidth) problems.push(`${at}: scrolls sideways (${scrollWidth}px wide in ${innerWidth}px; sticking out: ${wide.join(', ')})`)
+      // The breadcrumb shows one step on a phone, with room to read it (not squeezed to a letter or two).
+      const crumbs = await page.evaluate(() => [...document.querySelectorAll('nav[aria-label="Breadcrumb"] li')]
+        .filter((li) => li.getBoundingClientRect().width > 0)
+        .map((li) => { const label = li.querySelector('a, span[aria-current], span:not([aria-hidden])') as HTMLElement | null; return { text: li.textContent?.trim() ?? '', shown: label?.clientWidth ?? 0, full: label?.scrollWidth ?? 0 } }))
+      if (crumbs.length > 1) problems.push(`${at}: ${crumbs.length} breadcrumb steps on a phone (${crumbs.map((c) => c.text).join(' / ')})`)
+      for (const c of crumbs) if (c.shown < Math.min(c.full, 120)) problems.push(`${at}: breadcrumb "${c.text}" squeezed to ${c.shown}px of ${c.full}px`)
     }
     await screenshot(page, `every-page-${name}-${viewport.width}`)
     await context.close()
