@@ -78,6 +78,10 @@ export default defineNuxtConfig({
     // Proxies whose X-Forwarded-For is believed for the client address (NUXT_TRUSTED_PROXIES: comma-separated
     // addresses or CIDR ranges). Empty: the socket's address is the client's.
     trustedProxies: '',
+    // Bytes of stored runs (models and results) each lab may keep, in MB of 1,000,000 bytes (NUXT_RUN_STORAGE_BUDGET_MB).
+    runStorageBudgetMb: 250,
+    // Solves (runs, previews, compares) one account may have running or waiting at once (NUXT_SOLVES_PER_USER).
+    solvesPerUser: 2,
     public: {
       // The address people open the site at (NUXT_PUBLIC_SITE_URL): links in mail are built on it and
       // writes must come from its origin. Required: the built server refuses to start without it.

@@ -8,6 +8,7 @@ import { existsSync, readFileSync, writeFileSync } from 'node:fs'
 import { Client, normaliseServer, parseTarget } from './client'
 import { currentLogin, pulledRevision, rememberPull, saveLogin } from './config'
 import { CliError, EXIT } from './exit-codes'
+import type { Model } from '../shared/poise/model'
 
 interface Me { user: { name: string, email: string } }
 interface Revision { number: number, source: string, message: string, author: string | null, createdAt: string }
@@ -118,6 +119,8 @@ interface RunAnswer {
   kind: AnswerKind
   libraries: { name: string, revision: number }[]
   result: unknown
+  /** The model that was solved; null for a run stored before models were. */
+  model: Model | null
 }
 
 export async function run(target: string | undefined, options: { revision?: string, json?: boolean, units?: string, asElement?: boolean }): Promise<number> {
@@ -134,7 +137,7 @@ export async function run(target: string | undefined, options: { revision?: stri
   }
   const revision = await fetchRevision(client, path, stored.revision)
   const libraries = new Map<string, { source: string, revision: number }>()
-  for (const used of stored.libraries) {
+  for (const used of stored.model ? [] : stored.libraries) {
     const text = await client.get<{ source: string }>(`/api/labs/${encodeURIComponent(lab)}/libraries/${encodeURIComponent(used.name)}/revisions/${used.revision}`)
     libraries.set(used.name, { source: text.source, revision: used.revision })
   }

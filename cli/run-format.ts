@@ -3,7 +3,7 @@
  * revision's text is compiled again (with the library revisions the run
  * used) for the names and units; the numbers are the run's own.
  */
-import { compile } from '../shared/poise/index'
+import { compile, type Model } from '../shared/poise/index'
 import type { AnswerKind, Result, SweepResult, TitrationResult } from '../shared/types/result'
 import { formatResultTable, formatSweepTable, formatTitrationTable } from '../server/solver/table'
 import { OUTPUT_UNITS, parseOutputUnit, unitScale, type OutputUnit } from '../shared/results/units'
@@ -19,11 +19,11 @@ export function checkUnit(text: string | undefined): OutputUnit {
 export function formatRun(
   source: string,
   libraries: Map<string, { source: string, revision: number }>,
-  run: { kind: AnswerKind, result: unknown },
+  run: { kind: AnswerKind, result: unknown, model?: Model | null },
   choice: { unit: OutputUnit, asElement: boolean },
 ): string {
-  const compiled = compile(source, { resolveLibrary: (name) => libraries.get(name) ?? null })
-  const model = compiled.model
+  // The model stored with the run is what was solved; only a run stored before models were is recompiled.
+  const model = run.model ?? compile(source, { resolveLibrary: (name) => libraries.get(name) ?? null }).model
   if (!model || run.result === null) return JSON.stringify(run.result, null, 2)
   const scale = unitScale(model, choice)
   if (run.kind === 'titration') return formatTitrationTable(model, run.result as TitrationResult)

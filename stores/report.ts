@@ -2,8 +2,9 @@
  * What the printable report shows: a stored run and the revision it solved.
  * `?run=ID` reports that run (with its own revision's text); `?revision=N`
  * the newest run of revision N; neither, the newest run of the latest
- * revision. Libraries are loaded as the run was solved with them, so the
- * constants and sources printed are the ones the answer used.
+ * revision. The model printed is the one stored with the run; for a run
+ * stored before models were, the text is recompiled with the library
+ * revisions the run recorded (and the page says so).
  */
 import { findUses } from '../shared/poise/index'
 import { labLibraryPreloader, type GetJson, type LibraryTexts } from './libraryTexts'
@@ -31,7 +32,7 @@ export interface ReportData {
   revision: SavedRevision | null
   /** The run reported; null when that revision has no stored run (or the run asked for is not this system's). */
   run: StoredRun | null
-  /** The library texts its `use` lines reach, pinned to the revisions the run used. */
+  /** For a run stored before models were: the library texts its `use` lines reach, pinned to the revisions the run used. */
   libraries: LibraryTexts
 }
 
@@ -51,7 +52,8 @@ export async function loadReport(get: GetJson, lab: string, system: string, late
   const revision = number === latest.number
     ? latest
     : await get<{ revision: SavedRevision }>(`${base}/revisions/${number}`).then((a) => a.revision, () => null)
-  const libraries = revision && findUses(revision.source).length
+  // Only a run stored before models were needs the library texts: its model is rebuilt from its text.
+  const libraries = revision && !run?.model && findUses(revision.source).length
     ? await labLibraryPreloader(lab, get)(revision.source, run?.libraries ?? []).catch(() => ({}))
     : {}
   return { number, revision, run, libraries }

@@ -5,9 +5,12 @@
  * A run is one of two things, and the page always says which:
  * - a stored run — the saved revision solved by the server and kept with it
  *   (POST …/runs); chosen when the text in the editor is the saved text;
- * - a preview — the unsaved text solved by POST /api/labs/:lab/solve (with
- *   the lab's libraries) and kept nowhere; chosen when there are unsaved edits.
- * A viewer cannot edit, so a viewer's runs are always stored runs.
+ * - a preview — the text solved by POST /api/labs/:lab/solve (with the
+ *   lab's libraries) and kept nowhere; chosen when there are unsaved edits,
+ *   and always for a viewer (viewers do not store runs: RUN_STORE_ROLE).
+ * Either way the tables and constants come from the model the server solved
+ * (stored with the run), not from a recompile of the text; only a run stored
+ * before models were is shown through a recompile, and the page says so.
  */
 import { defineStore } from 'pinia'
 import { computed, ref, shallowRef } from 'vue'
@@ -19,6 +22,7 @@ import { titrationAsSweep } from '../shared/results/titration'
 import { distributableComponents, type StoichiometryModel } from '../shared/results/share'
 import { diagramPrefsKey, parseDiagramPrefs } from '../shared/results/diagramPrefs'
 import { labRoleAtLeast, type LabRole } from '../shared/utils/roles'
+import { RUN_STORE_ROLE } from '../shared/utils/run-rules'
 import type { ResolveLibrary } from '../shared/utils/library-preload'
 import { labLibraryPreloader, resolverFrom } from './libraryTexts'
 
@@ -45,6 +49,12 @@ export interface StoredRun {
   status: 'ok' | 'failed' | 'diverged'
   kind: AnswerKind
   solverVersion: string
+  /** The compiler version of the stored model; null for a run stored before models were. */
+  compilerVersion: string | null
+  /** False for a run stored before models were (no `model`). */
+  storedModel: boolean
+  /** Bytes the run takes in the lab's run storage budget. */
+  storedBytes: number
   timingMs: number
   createdAt: string
   createdBy: string | null
@@ -52,12 +62,23 @@ export interface StoredRun {
   /** The library revisions the run was solved with. */
   libraries?: { name: string; revision: number }[]
   result?: Result | SweepResult | TitrationResult
+  /** The model that was solved (single-run routes); null for a run stored before models were. */
+  model?: Model | null
+}
+
+/** The lab's run storage, from GET …/runs. */
+export interface RunStorage {
+  usedBytes: number
+  budgetBytes: number
 }
 
 /** POST /api/labs/:lab/solve */
 export interface PreviewAnswer {
   kind: AnswerKind
   solverVersion: string
+  compilerVersion: string
+  /** The model that was solved. */
+  model: Model
   elapsedMs: number
   diagnostics: Diagnostic[]
   result: Result | SweepResult | TitrationResult
@@ -68,12 +89,16 @@ interface ShownBase {
   /** The text that was solved, so the tables and diagrams use its model. */
   source: string
   result: Result | SweepResult | TitrationResult
+  /** The model the server solved; null for a run stored before models were (then recompiled from `source`). */
+  model: Model | null
   solverVersion: string
+  compilerVersion: string | null
   solverMs: number
   /** ISO time the answer arrived (stored runs: when the server made it). */
   at: string
 }
-export type ShownRun = (ShownBase & { origin: 'stored'; run: StoredRun }) | (ShownBase & { origin: 'preview' })
+/** A preview carries `ofRevision` when it solved the saved text of that revision (a viewer's Run). */
+export type ShownRun = (ShownBase & { origin: 'stored'; run: StoredRun }) | (ShownBase & { origin: 'preview'; ofRevision: number | null })
 
 /** A refusal from the server, in a shape the page can show. */
 export interface ServerProblem {
@@ -90,9 +115,9 @@ export interface SaveConflict {
 
 export type RunPlan = 'stored' | 'preview'
 
-/** Stored run of the saved revision when the text is unchanged (or cannot change); otherwise a preview. */
-export function runPlan(canEdit: boolean, dirty: boolean): RunPlan {
-  return canEdit && dirty ? 'preview' : 'stored'
+/** A stored run of the saved revision when the member may store runs and the text is unchanged; otherwise a preview. */
+export function runPlan(canStore: boolean, canEdit: boolean, dirty: boolean): RunPlan {
+  return canStore && !(canEdit && dirty) ? 'stored' : 'preview'
 }
 
 /** The status, message and diagnostics of an error thrown by `$fetch` (or anything else). */
@@ -177,16 +202,25 @@ export const useWorkbenchStore = defineStore('workbench', () => {
 
   const latest = computed(() => answer.value?.system.latest ?? null)
   const canEdit = computed(() => labRoleAtLeast(answer.value?.role, 'editor'))
+  const canStore = computed(() => labRoleAtLeast(answer.value?.role, RUN_STORE_ROLE))
   const dirty = computed(() => latest.value !== null && source.value !== latest.value.source)
-  const plan = computed<RunPlan>(() => runPlan(canEdit.value, dirty.value))
+  const plan = computed<RunPlan>(() => runPlan(canStore.value, canEdit.value, dirty.value))
   const base = computed(() => (answer.value ? `/api/labs/${answer.value.lab.slug}/systems/${answer.value.system.slug}` : ''))
   const errorCount = computed(() => diagnostics.value.filter((d) => d.severity === 'error').length)
-  /** The model of the text that was solved: species, stoichiometry and citations for the results. */
+  /**
+   * The model that was solved: species, stoichiometry, conditions and
+   * constants for the results. The server's (stored with the run); for a run
+   * stored before models were, today's compile of its text with the library
+   * revisions it recorded (`shownModelRecompiled`).
+   */
   const shownModel = computed<Model | null>(() => {
     if (!shown.value) return null
+    if (shown.value.model) return shown.value.model
     const libraries = (shown.value.origin === 'stored' ? shownLibraries.value : undefined) ?? resolveLibrary.value
     return compile(shown.value.source, { resolveLibrary: libraries }).model
   })
+  /** The shown run predates stored models: its tables use a recompile of its text, which may differ from what was solved. */
+  const shownModelRecompiled = computed(() => shown.value !== null && shown.value.model === null)
   /** The shown answer no longer matches the editor's text. */
   const shownIsStale = computed(() => shown.value !== null && shown.value.source !== source.value)
   const sweep = computed<SweepResult | null>(() => (shown.value?.kind === 'sweep' ? (shown.value.result as SweepResult) : null))
@@ -235,13 +269,15 @@ export const useWorkbenchStore = defineStore('workbench', () => {
       kind: run.kind,
       source: solvedSource,
       result: run.result,
+      model: run.model ?? null,
       solverVersion: run.solverVersion,
+      compilerVersion: run.compilerVersion ?? null,
       solverMs: run.timingMs,
       at: run.createdAt,
     }
     olderRun.value = null
     shownLibraries.value = undefined
-    if (run.libraries?.length) void pinLibraries(run, solvedSource)
+    if (!run.model && run.libraries?.length) void pinLibraries(run, solvedSource)
   }
 
   function libraryPreloader(lab: string) {
@@ -249,7 +285,7 @@ export const useWorkbenchStore = defineStore('workbench', () => {
     return preloader.preload
   }
 
-  /** Load the library revisions a stored run used; until then (or if that fails) the editor's libraries stand in. */
+  /** For a run stored before models were: load the library revisions it used; until then (or if that fails) the editor's libraries stand in. */
   async function pinLibraries(run: StoredRun, solvedSource: string) {
     const lab = answer.value?.lab.slug
     if (!lab) return
@@ -296,10 +332,13 @@ export const useWorkbenchStore = defineStore('workbench', () => {
         if (ticket === runTicket) {
           shown.value = {
             origin: 'preview',
+            ofRevision: text === saved.source ? saved.number : null,
             kind: preview.kind,
             source: text,
             result: preview.result,
+            model: preview.model ?? null,
             solverVersion: preview.solverVersion,
+            compilerVersion: preview.compilerVersion ?? null,
             solverMs: preview.elapsedMs,
             at: new Date().toISOString(),
           }
@@ -387,7 +426,7 @@ export const useWorkbenchStore = defineStore('workbench', () => {
 
   return {
     answer, source, diagnostics, shown, olderRun, titration, titrationSweep, pointIndex, running, saving, runProblem, saveProblem, conflict, resolveLibrary, librariesLoading,
-    latest, canEdit, dirty, plan, errorCount, shownModel, shownIsStale, sweep, pointResult,
+    latest, canEdit, canStore, dirty, plan, errorCount, shownModel, shownModelRecompiled, shownIsStale, sweep, pointResult,
     open, loadLastRun, loadLibraries, run, save, keepMine, takeTheirs,
   }
 })

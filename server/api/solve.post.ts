@@ -2,15 +2,18 @@
  * POST /api/solve — stateless: a Poise text in, the Result (or sweep) out.
  * Nothing is stored; runs of saved revisions go through the systems routes.
  */
+import { COMPILER_VERSION } from '#shared/poise/version'
+
 export default defineEventHandler(async (event) => {
-  await requireUser(event)
+  const user = await requireUser(event)
   const source = await readSourceBody(event)
   const { model, diagnostics } = compileForSolve(source)
-  const output = await solveInPool(model)
-  return sendJsonWithRaw(event, {
+  const output = await solveInPool(model, user.id)
+  return sendJsonBytesWithRaws(event, {
     kind: output.kind,
     solverVersion: output.solverVersion,
+    compilerVersion: COMPILER_VERSION,
     elapsedMs: Math.round(output.elapsedMs * 10) / 10,
     diagnostics,
-  }, 'result', output.resultBytes)
+  }, { result: output.resultBytes, model: JSON.stringify(model) })
 })

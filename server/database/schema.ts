@@ -68,8 +68,14 @@ export const runs = mysqlTable('runs', {
   id: int('id').autoincrement().primaryKey(),
   revisionId: int('revision_id').notNull().references(() => revisions.id, { onDelete: 'cascade' }),
   solverVersion: varchar('solver_version', { length: 40 }).notNull(),
+  /** COMPILER_VERSION of shared/poise that compiled `model`; null for runs stored before models were. */
+  compilerVersion: varchar('compiler_version', { length: 40 }),
   options: json('options').notNull(),
+  /** The compiled model that was solved (JSON, with the library revisions it used); null for runs stored before models were. */
+  model: longtext('model'),
   result: longtext('result'),
+  /** Bytes of `model` plus `result` as stored, counted against the lab's run storage budget; null for older runs (then measured). */
+  storedBytes: int('stored_bytes'),
   status: mysqlEnum('status', ['ok', 'failed', 'diverged']).notNull(),
   timingMs: int('timing_ms').notNull().default(0),
   createdBy: int('created_by').references(() => users.id, { onDelete: 'set null' }),

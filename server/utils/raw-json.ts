@@ -1,19 +1,51 @@
 /**
- * Answer with an object that carries a large, already-serialised JSON value
- * (a solver result) without parsing and re-stringifying it on the event loop.
+ * Answer with an object that carries large, already-serialised JSON values
+ * (a solver result, a compiled model) without parsing and re-stringifying
+ * them on the event loop.
  */
 import type { H3Event } from 'h3'
 
-/** `JSON.stringify({ ...head, [key]: JSON.parse(rawJson) })`, without the parse. */
-export function jsonWithRaw(head: Record<string, unknown>, key: string, rawJson: string): string {
-  const start = JSON.stringify(head).slice(0, -1)
-  return `${start}${start.length > 1 ? ',' : ''}${JSON.stringify(key)}:${rawJson}}`
+/** `JSON.stringify({ ...head, [key]: JSON.parse(raw[key]) for each key })`, without the parse. */
+export function jsonWithRaws(head: Record<string, unknown>, raw: Record<string, string>): string {
+  let text = JSON.stringify(head).slice(0, -1)
+  for (const [key, value] of Object.entries(raw)) {
+    text += `${text.length > 1 ? ',' : ''}${JSON.stringify(key)}:${value}`
+  }
+  return `${text}}`
 }
 
-/** The same as UTF-8 bytes, around JSON that is already bytes (a solver answer from its worker): no decoding, no parse. */
-export function jsonBytesWithRaw(head: Record<string, unknown>, key: string, rawJson: Uint8Array): Buffer {
+/** `JSON.stringify({ ...head, [key]: JSON.parse(rawJson) })`, without the parse. */
+export function jsonWithRaw(head: Record<string, unknown>, key: string, rawJson: string): string {
+  return jsonWithRaws(head, { [key]: rawJson })
+}
+
+export function sendJsonWithRaws(event: H3Event, head: Record<string, unknown>, raw: Record<string, string>): string {
+  setResponseHeader(event, 'content-type', 'application/json; charset=utf-8')
+  return jsonWithRaws(head, raw)
+}
+
+/** The same as UTF-8 bytes, around JSON values some of which are already bytes (a solver answer from its worker): no decoding, no parse. */
+export function jsonBytesWithRaws(head: Record<string, unknown>, raw: Record<string, string | Uint8Array>): Buffer {
   const start = JSON.stringify(head).slice(0, -1)
-  return Buffer.concat([Buffer.from(`${start}${start.length > 1 ? ',' : ''}${JSON.stringify(key)}:`), rawJson, Buffer.from('}')])
+  const parts: (Buffer | Uint8Array)[] = [Buffer.from(start)]
+  let first = start.length <= 1
+  for (const [key, value] of Object.entries(raw)) {
+    parts.push(Buffer.from(`${first ? '' : ','}${JSON.stringify(key)}:`), typeof value === 'string' ? Buffer.from(value) : value)
+    first = false
+  }
+  parts.push(Buffer.from('}'))
+  return Buffer.concat(parts)
+}
+
+/** `jsonBytesWithRaws` with one raw value. */
+export function jsonBytesWithRaw(head: Record<string, unknown>, key: string, rawJson: Uint8Array): Buffer {
+  return jsonBytesWithRaws(head, { [key]: rawJson })
+}
+
+/** Answers with `head` plus raw JSON values, some already bytes; marked as JSON so it is compressed like any other answer. */
+export function sendJsonBytesWithRaws(event: H3Event, head: Record<string, unknown>, raw: Record<string, string | Uint8Array>): Buffer {
+  setResponseHeader(event, 'content-type', 'application/json; charset=utf-8')
+  return jsonBytesWithRaws(head, raw)
 }
 
 /** Answers with `head` plus `key` holding the raw JSON; marked as JSON so it is compressed like any other answer. */

@@ -1,8 +1,12 @@
 /**
  * The solver runs in a pool of worker threads so that a long sweep never
- * blocks the event loop that serves everybody's pages. Every task has a time
- * limit; a task over it is aborted (its thread is replaced) and the caller
- * gets a clear message.
+ * blocks the event loop that serves everybody's pages. Solves are admitted
+ * by a SolveQueue (solve-queue.ts): one running solve per pool thread, at
+ * most `solvesPerUser` per account (429 beyond), waiting solves started in
+ * turn across accounts. Every task has a time limit that starts when the
+ * task is handed to a free thread, so waiting in the queue does not count;
+ * a task over it is aborted (its thread is replaced) and the caller gets a
+ * clear message.
  */
 import { existsSync } from 'node:fs'
 import { availableParallelism } from 'node:os'
@@ -12,8 +16,12 @@ import Piscina from 'piscina'
 import type { Model } from '../../shared/poise/model'
 import type { SolveTask, SolveTaskAnswer, SolveTaskOutput } from '../workers/solve.worker'
 import { SOLVE_LIMITS } from './solve-limits'
+import { SolveQueue, SolveQueueRefusal } from './solve-queue'
 
 let pool: Piscina | null = null
+let queue: SolveQueue | null = null
+
+const THREADS = Math.max(1, Math.min(4, availableParallelism() - 1))
 
 function workerPath(): string {
   const candidates = [
@@ -32,32 +40,46 @@ function workerPath(): string {
 
 function getPool(): Piscina {
   if (!pool) {
-    const threads = Math.max(1, Math.min(4, availableParallelism() - 1))
     pool = new Piscina({
       filename: pathToFileURL(workerPath()).href,
       minThreads: 1,
-      maxThreads: threads,
+      maxThreads: THREADS,
       idleTimeout: 60_000,
-      maxQueue: SOLVE_LIMITS.maxQueuedTasks,
     })
   }
   return pool
 }
 
-/** Solve a compiled model in the pool; throws an h3 error with a readable message on timeout or overload. */
-export async function solveInPool(model: Model): Promise<SolveTaskOutput> {
+/** Solves each account may have running or waiting at once (NUXT_SOLVES_PER_USER). */
+export function solvesPerUser(): number {
+  const n = Math.floor(Number(useRuntimeConfig().solvesPerUser))
+  return Number.isFinite(n) && n >= 1 ? n : 1
+}
+
+function getQueue(): SolveQueue {
+  if (!queue) queue = new SolveQueue({ slots: THREADS, perUser: solvesPerUser(), maxWaiting: SOLVE_LIMITS.maxQueuedTasks })
+  return queue
+}
+
+/** Solve a compiled model in the pool for an account; throws an h3 error with a readable message on a limit, timeout or overload. */
+export async function solveInPool(model: Model, userId: number): Promise<SolveTaskOutput> {
   const task: SolveTask = { model, timeBudgetMs: SOLVE_LIMITS.timeBudgetMs }
-  const signal = AbortSignal.timeout(SOLVE_LIMITS.timeBudgetMs + SOLVE_LIMITS.graceMs)
   try {
-    return withResultText(await getPool().run(task, { signal }) as SolveTaskAnswer)
+    return await getQueue().run(userId, async () => {
+      // Handed to a free thread now: the limit counts solving time only.
+      const signal = AbortSignal.timeout(SOLVE_LIMITS.timeBudgetMs + SOLVE_LIMITS.graceMs)
+      return withResultText(await getPool().run(task, { signal }) as SolveTaskAnswer)
+    })
   } catch (error) {
-    const name = (error as { name?: string } | null)?.name
-    const message = error instanceof Error ? error.message : String(error)
-    if (name === 'AbortError' || name === 'TimeoutError') {
-      throw createError({ statusCode: 422, message: `The solve took longer than ${SOLVE_LIMITS.timeBudgetMs / 1000} s and was stopped. Use fewer sweep points or a smaller system.` })
+    if (error instanceof SolveQueueRefusal) {
+      if (error.reason === 'per-user') {
+        throw createError({ statusCode: 429, message: error.message, data: { solvesPerUser: getQueue().perUser } })
+      }
+      throw createError({ statusCode: 503, message: error.message })
     }
-    if (/queue is full/i.test(message)) {
-      throw createError({ statusCode: 503, message: 'The solver is busy with other runs. Try again in a few seconds.' })
+    const name = (error as { name?: string } | null)?.name
+    if (name === 'AbortError' || name === 'TimeoutError') {
+      throw createError({ statusCode: 422, message: `The solve took longer than ${SOLVE_LIMITS.timeBudgetMs / 1000} s of solving time and was stopped. Use fewer sweep points or a smaller system.` })
     }
     if ((error as { statusCode?: number }).statusCode) throw error
     console.error('[solver-pool]', error)

@@ -14,6 +14,7 @@ export { ATOMIC_WEIGHTS, molarMassOf } from './elements'
 export { KEYWORDS, UNITS, CONSTANT_KINDS } from './tokens'
 export { lex } from './lexer'
 export { vantHoff, GAS_CONSTANT } from './thermo'
+export { COMPILER_VERSION } from './version'
 
 export function compile(source: string, options: CompileOptions = {}): CompileResult {
   try {

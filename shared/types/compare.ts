@@ -5,6 +5,22 @@ import type { LabRole } from '../utils/roles'
 
 export interface RevisionText { number: number, source: string, message: string, author: string | null, createdAt: string }
 
+/**
+ * Where one side of a compare comes from. `stored`: the revision's newest
+ * stored run; `solved-now`: it has none, so it was solved for this
+ * comparison and not stored; `none`: no answer (it does not compile or
+ * could not be solved; `problems` says why).
+ */
+export interface CompareSide {
+  origin: 'stored' | 'solved-now' | 'none'
+  runId: number | null
+  solverVersion: string | null
+  /** The compiler version of the model; null for a run stored before models were. */
+  compilerVersion: string | null
+  /** `stored`: the model stored with the run; `compiled-now`: today's compile of the text. */
+  model: 'stored' | 'compiled-now'
+}
+
 export interface CompareAnswer {
   lab: { slug: string, name: string }
   system: { slug: string, title: string }
@@ -14,6 +30,7 @@ export interface CompareAnswer {
   to: RevisionText
   modelDiff: ModelChange[] | null
   resultsDiff: ResultsDiff | null
-  solved: { solverVersion: string } | null
+  /** `solverVersion` is the after side's; `from` and `to` say where each side's model and answer come from. */
+  solved: { solverVersion: string | null, from: CompareSide, to: CompareSide } | null
   problems: string[]
 }

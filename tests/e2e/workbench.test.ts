@@ -127,16 +127,18 @@ describe('the workbench', () => {
     await screenshot(page, 'workbench-report-print')
   })
 
-  it('lets a viewer run the saved revision but not edit or save it', async () => {
+  it('lets a viewer run the saved revision as a preview that stores nothing, but not edit or save it', async () => {
     const viewer = await signInAs('viewer')
+    const runsBefore = (await api('/api/labs/demo/systems/copper-rinse-tank/runs', { cookie: viewer.cookie })).body.runs.length
     const page = await openSignedIn('/labs/demo/systems/copper-rinse-tank', viewer.cookie)
     await openWorkbench(page)
     await expect(page.locator('.cm-content').getAttribute('contenteditable')).resolves.toBe('false')
     await expect(page.locator('[data-test=save]').count()).resolves.toBe(0)
-    await expect(page.locator('[data-test=run-hint]').textContent()).resolves.toMatch(/You are viewer here: the text is read-only/)
+    await expect(page.locator('[data-test=run-hint]').textContent()).resolves.toMatch(/You are viewer here: the text is read-only\. Run solves revision 1 as a preview; viewers' runs are not stored\./)
     await page.locator('[data-test=run]').click()
-    await page.locator('[data-test=run-note]').getByText(/of revision 1/).waitFor()
+    await page.locator('[data-test=preview-label]').getByText('Preview of revision 1 — not stored.').waitFor()
     await page.locator('[data-test=sweep-point]').waitFor()
+    expect((await api('/api/labs/demo/systems/copper-rinse-tank/runs', { cookie: viewer.cookie })).body.runs.length).toBe(runsBefore)
     await screenshot(page, 'workbench-viewer')
   })
 

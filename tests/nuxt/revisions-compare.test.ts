@@ -1,5 +1,5 @@
 // Compare: both texts, the model diff and the results diff of two revisions,
-// both solved with the current solver version and stored as runs.
+// from their stored runs, or solved in memory (never stored) when they have none.
 import { beforeAll, describe, expect, it } from 'vitest'
 import { useBuiltServer } from '../setup/server'
 import { api, makeLab, signUp, type SignedIn } from '../setup/accounts'
@@ -44,14 +44,23 @@ describe('compare', () => {
     expect(answer.body.resultsDiff.species[0].name).toBe('Cu^2+')
   })
 
-  it('solves each revision once and reuses the stored runs of the same solver version', async () => {
+  it('reads and never writes: a revision without a stored run is solved now and not stored; a stored run is used as stored', async () => {
+    const count = async () => (await api(`${system()}/runs`, { cookie: owner.cookie })).body.runs.length
+    expect(await count()).toBe(0)
     const first = await api(`${system()}/compare?from=1&to=2`, { cookie: owner.cookie })
-    expect(first.body.solved.reused).toEqual({ from: true, to: true })
-    const runs = await api(`${system()}/runs`, { cookie: owner.cookie })
-    expect(runs.body.runs.filter((r: any) => r.revision === 1 || r.revision === 2)).toHaveLength(2)
-    expect(new Set(runs.body.runs.map((r: any) => r.solverVersion))).toEqual(new Set([first.body.solved.solverVersion]))
+    expect(first.body.solved.from).toMatchObject({ origin: 'solved-now', runId: null, model: 'compiled-now' })
+    expect(first.body.solved.to).toMatchObject({ origin: 'solved-now', runId: null })
+    expect(await count()).toBe(0)
     const history = await api(`${system()}/revisions`, { cookie: viewer.cookie })
-    expect(history.body.revisions.find((r: any) => r.number === 2).run.status).toBe('ok')
+    expect(history.body.revisions.find((r: any) => r.number === 2).run).toBeNull()
+
+    const stored = await api(`${system()}/runs`, { method: 'POST', cookie: owner.cookie, body: { revision: 1 } })
+    expect(stored.status).toBe(201)
+    const second = await api(`${system()}/compare?from=1&to=2`, { cookie: viewer.cookie })
+    expect(second.body.solved.from).toMatchObject({ origin: 'stored', runId: stored.body.id, model: 'stored', compilerVersion: stored.body.compilerVersion })
+    expect(second.body.solved.to.origin).toBe('solved-now')
+    expect(second.body.resultsDiff).toEqual(first.body.resultsDiff)
+    expect(await count()).toBe(1)
   })
 
   it('still compares the text of a revision that does not compile, and says why the diffs are missing', async () => {

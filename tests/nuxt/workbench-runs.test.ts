@@ -26,20 +26,41 @@ beforeAll(async () => {
 })
 
 describe('runs', () => {
-  it('lets a viewer run the saved revision and keeps the run with its result', async () => {
-    const made = await api(system('/runs'), { method: 'POST', cookie: viewer.cookie, body: {} })
+  it('gives a viewer a preview that stores nothing, and refuses a viewer a stored run with a message saying so', async () => {
+    const refused = await api(system('/runs'), { method: 'POST', cookie: viewer.cookie, body: {} })
+    expect(refused.status).toBe(403)
+    expect(refused.body.message).toMatch(/^Viewers do not store runs: a viewer's Run is a preview, solved and kept nowhere/)
+    const preview = await api(`/api/labs/${lab}/solve`, { method: 'POST', cookie: viewer.cookie, body: { source: strongAcid } })
+    expect(preview.status).toBe(200)
+    expect(preview.body.result.pH).toBeCloseTo(3, 3)
+    expect(preview.body.model).toMatchObject({ title: 'Pickling rinse', activity: 'ideal' })
+    expect(preview.body.compilerVersion).toMatch(/^\d+\.\d+\.\d+$/)
+    expect((await api(system('/runs'), { cookie: viewer.cookie })).body.runs).toEqual([])
+  })
+
+  it('lets an editor run the saved revision and keeps the run with its result, its model and both versions', async () => {
+    const made = await api(system('/runs'), { method: 'POST', cookie: editor.cookie, body: {} })
     expect(made.status).toBe(201)
-    expect(made.body).toMatchObject({ revision: 1, status: 'ok', kind: 'single', createdBy: viewer.user.name })
+    expect(made.body).toMatchObject({ revision: 1, status: 'ok', kind: 'single', createdBy: editor.user.name, storedModel: true })
     expect(made.body.result.pH).toBeCloseTo(3, 3)
+    expect(made.body.compilerVersion).toMatch(/^\d+\.\d+\.\d+$/)
+    expect(made.body.model).toMatchObject({ title: 'Pickling rinse', libraries: [] })
+    expect(made.body.model.reactions[0]).toMatchObject({ kind: 'pKw', value: 14 })
+    // The stored bytes are the model's and the result's JSON.
+    expect(made.body.storedBytes).toBe(Buffer.byteLength(JSON.stringify(made.body.model)) + Buffer.byteLength(JSON.stringify(made.body.result)))
 
-    const list = await api(system('/runs'), { cookie: editor.cookie })
+    const list = await api(system('/runs'), { cookie: viewer.cookie })
     expect(list.status).toBe(200)
-    expect(list.body.runs[0]).toMatchObject({ id: made.body.id, revision: 1 })
+    expect(list.body.runs[0]).toMatchObject({ id: made.body.id, revision: 1, storedModel: true, storedBytes: made.body.storedBytes })
     expect(list.body.runs[0].result).toBeUndefined()
+    expect(list.body.runs[0].model).toBeUndefined()
+    expect(list.body.storage.usedBytes).toBe(made.body.storedBytes)
+    expect(list.body.storage.budgetBytes).toBe(250_000_000)
 
-    const one = await api(system(`/runs/${made.body.id}`), { cookie: owner.cookie })
+    const one = await api(system(`/runs/${made.body.id}`), { cookie: viewer.cookie })
     expect(one.status).toBe(200)
     expect(one.body.result).toEqual(made.body.result)
+    expect(one.body.model).toEqual(made.body.model)
   })
 
   it('runs an older revision when asked, and lists runs newest first', async () => {
@@ -73,7 +94,7 @@ describe('runs', () => {
   it('answers 422 with the diagnostics when the saved text does not compile', async () => {
     const created = await api(`/api/labs/${lab}/systems`, { method: 'POST', cookie: editor.cookie, body: { title: 'Broken', slug: 'broken', source: 'system "Broken"\ncomponent H+ balance\nreaction H2O <=> H+ pKw 14\n' } })
     expect(created.status).toBe(201)
-    const run = await api(`/api/labs/${lab}/systems/broken/runs`, { method: 'POST', cookie: viewer.cookie, body: {} })
+    const run = await api(`/api/labs/${lab}/systems/broken/runs`, { method: 'POST', cookie: editor.cookie, body: {} })
     expect(run.status).toBe(422)
     expect(run.body.data.diagnostics.some((d: { severity: string, range: { line: number } }) => d.severity === 'error' && d.range.line === 3)).toBe(true)
     expect((await api(`/api/labs/${lab}/systems/broken/runs`, { cookie: viewer.cookie })).body.runs).toEqual([])

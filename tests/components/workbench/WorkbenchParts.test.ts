@@ -6,6 +6,7 @@ import { nextTick } from 'vue'
 import WorkbenchTabs from '../../../components/workbench/WorkbenchTabs.vue'
 import WorkbenchPointPicker from '../../../components/workbench/WorkbenchPointPicker.vue'
 import WorkbenchActions from '../../../components/workbench/WorkbenchActions.vue'
+import WorkbenchRunNote from '../../../components/workbench/WorkbenchRunNote.vue'
 import WorkbenchConflict from '../../../components/workbench/WorkbenchConflict.vue'
 import WorkbenchExamplePicker from '../../../components/workbench/WorkbenchExamplePicker.vue'
 import type { SweepResult } from '../../../shared/types/result'
@@ -77,13 +78,45 @@ describe('WorkbenchActions', () => {
     expect(wrapper.emitted('save')).toHaveLength(1)
   })
 
-  it('gives a viewer Run only, and says why', async () => {
-    wrapper = mount(WorkbenchActions, { props: { ...base, canEdit: false, role: 'viewer' } })
+  it('gives a viewer Run only, as a preview that stores nothing, and says so', async () => {
+    wrapper = mount(WorkbenchActions, { props: { ...base, canEdit: false, plan: 'preview' as const, role: 'viewer' } })
     expect(wrapper.find('[data-test=save]').exists()).toBe(false)
     expect(wrapper.find('[data-test=revision-message]').exists()).toBe(false)
-    expect(wrapper.find('[data-test=run-hint]').text()).toBe('You are viewer here: the text is read-only. Run solves revision 3 and keeps the run with it.')
+    expect(wrapper.find('[data-test=run-hint]').text()).toBe('You are viewer here: the text is read-only. Run solves revision 3 as a preview; viewers\' runs are not stored.')
+    expect(wrapper.find('[data-test=run]').text()).toMatch(/Run preview/)
     await wrapper.find('[data-test=run]').trigger('click')
     expect(wrapper.emitted('run')).toHaveLength(1)
+  })
+
+  it('tells a reviewer that Run keeps the run', () => {
+    wrapper = mount(WorkbenchActions, { props: { ...base, canEdit: false, role: 'reviewer' } })
+    expect(wrapper.find('[data-test=run-hint]').text()).toBe('You are reviewer here: the text is read-only. Run solves revision 3 and keeps the run with it.')
+  })
+})
+
+describe('WorkbenchRunNote', () => {
+  const result = { converged: true, iterations: 3, temperatureC: 25, pH: 3, ionicStrength: 1e-3, species: [], solids: [], components: [], residuals: { maxScaled: 0 } } as never
+  const stored = {
+    origin: 'stored' as const, kind: 'single' as const, source: '', result, model: null, solverVersion: '1.0.0', compilerVersion: '1.0.0', solverMs: 4, at: '2026-12-01T10:05:00.000Z',
+    run: { id: 12, revision: 3, status: 'ok' as const, kind: 'single' as const, solverVersion: '1.0.0', compilerVersion: '1.0.0', storedModel: true, storedBytes: 400, timingMs: 4, createdAt: '2026-12-01T10:05:00.000Z', createdBy: 'Ann', failedPoints: 0 },
+  }
+
+  it('names the solver and compiler of a stored run, and says nothing of a recompile when it kept its model', () => {
+    wrapper = mount(WorkbenchRunNote, { props: { shown: stored, stale: false, recompiled: false } })
+    expect(wrapper.text()).toMatch(/Run 12 of revision 3.*solver 1\.0\.0 · compiler 1\.0\.0/)
+    expect(wrapper.find('[data-test=run-recompiled]').exists()).toBe(false)
+  })
+
+  it('says when a run predates stored models and its tables are a recompile', () => {
+    wrapper = mount(WorkbenchRunNote, { props: { shown: { ...stored, compilerVersion: null }, stale: false, recompiled: true } })
+    expect(wrapper.text()).not.toMatch(/compiler/)
+    expect(wrapper.find('[data-test=run-recompiled]').text()).toMatch(/stored before runs kept their model.*today's compile of its text/)
+  })
+
+  it('labels a viewer\'s preview of the saved revision as not stored', () => {
+    const { run: _run, ...rest } = stored
+    wrapper = mount(WorkbenchRunNote, { props: { shown: { ...rest, origin: 'preview' as const, ofRevision: 3 }, stale: false } })
+    expect(wrapper.find('[data-test=preview-label]').text()).toMatch(/^Preview of revision 3 — not stored\. Viewers' runs are previews: nothing is kept\./)
   })
 })
 

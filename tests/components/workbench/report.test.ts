@@ -7,7 +7,7 @@ import type { SavedRevision, StoredRun } from '../../../stores/workbench'
 const text = (n: number, extra = '') => `system "Rinse tank"\n${extra}component H+ total ${n} mmol/L\n`
 const revision = (number: number, source = text(number)): SavedRevision => ({ number, sha256: String(number).repeat(64).slice(0, 64), source, message: '', author: 'Ann', createdAt: '2026-12-01T10:00:00.000Z' })
 const run = (id: number, rev: number, libraries: StoredRun['libraries'] = []): StoredRun => ({
-  id, revision: rev, status: 'ok', kind: 'single', solverVersion: '1.0.0', timingMs: 3, createdAt: '2026-12-01T11:00:00.000Z', createdBy: 'Ann', failedPoints: 0, libraries,
+  id, revision: rev, status: 'ok', kind: 'single', solverVersion: '1.0.0', compilerVersion: null, storedModel: false, storedBytes: 300, timingMs: 3, createdAt: '2026-12-01T11:00:00.000Z', createdBy: 'Ann', failedPoints: 0, libraries,
 })
 const base = '/api/labs/demo/systems/rinse'
 /** A fake API: runs 9 (revision 3) and 7, 5 (revision 2, newest first); revisions 1–3. */
@@ -59,7 +59,19 @@ describe('loadReport', () => {
     expect(report).toMatchObject({ number: 2, revision: { number: 2 }, run: { id: 5 } })
   })
 
-  it('loads a used library at the revision the run was solved with, not today’s latest', async () => {
+  it('for a run that stored its model, fetches no library text: the stored model is printed', async () => {
+    const uses = revision(2, text(2, 'use "water"\n'))
+    const get = api({
+      [`${base}/revisions/2`]: { revision: uses },
+      [`${base}/runs/7`]: { ...run(7, 2, [{ name: 'water', revision: 1 }]), compilerVersion: '1.0.0', storedModel: true, model: { title: 'Rinse tank' }, result: {} },
+    })
+    const report = await loadReport(get as never, 'demo', 'rinse', latest, { run: null, revision: 2 })
+    expect(report.run?.model).toEqual({ title: 'Rinse tank' })
+    expect(report.libraries).toEqual({})
+    expect(get.mock.calls.map((c) => c[0]).filter((u) => u.includes('/libraries'))).toEqual([])
+  })
+
+  it('for a run stored before models were, loads a used library at the revision the run was solved with, not today’s latest', async () => {
     const uses = revision(2, text(2, 'use "water"\n'))
     const get = api({
       [`${base}/revisions/2`]: { revision: uses },

@@ -23,9 +23,16 @@ function answer(role: SystemAnswer['role'] = 'editor', number = 4, source = save
 
 const result = { converged: true, iterations: 3, temperatureC: 25, pH: 3, ionicStrength: 1e-3, species: [], solids: [], components: [], residuals: { maxScaled: 0 } }
 const run = (id: number, revision: number, withResult = true): StoredRun => ({
-  id, revision, status: 'ok', kind: 'single', solverVersion: '1.0.0', timingMs: 4, createdAt: '2026-12-01T10:05:00.000Z', createdBy: 'Ann', failedPoints: 0,
+  id, revision, status: 'ok', kind: 'single', solverVersion: '1.0.0', compilerVersion: null, storedModel: false, storedBytes: 400, timingMs: 4, createdAt: '2026-12-01T10:05:00.000Z', createdBy: 'Ann', failedPoints: 0,
   ...(withResult ? { result } : {}),
 })
+/** The model a run stored: today's compile of `saved` with pKw moved, as if compiled by an older compiler. */
+function storedModel() {
+  const model = structuredClone(compile(saved).model!)
+  model.title = 'Strike bath (as solved)'
+  model.reactions[0]!.value = 13.99
+  return model
+}
 
 /** An error shaped like ofetch's FetchError for an h3 createError answer. */
 function refusal(statusCode: number, message: string, data?: unknown) {
@@ -40,10 +47,12 @@ beforeEach(() => {
 })
 
 describe('runPlan', () => {
-  it('stores runs of unchanged text, previews unsaved edits, and always stores a viewer’s runs', () => {
-    expect(runPlan(true, false)).toBe('stored')
-    expect(runPlan(true, true)).toBe('preview')
-    expect(runPlan(false, true)).toBe('stored')
+  it('stores runs of unchanged text, previews unsaved edits, and only previews for a viewer', () => {
+    // runPlan(canStore, canEdit, dirty)
+    expect(runPlan(true, true, false)).toBe('stored')
+    expect(runPlan(true, true, true)).toBe('preview')
+    expect(runPlan(true, false, false)).toBe('stored') // a reviewer
+    expect(runPlan(false, false, false)).toBe('preview') // a viewer
   })
 })
 
@@ -73,6 +82,45 @@ describe('useWorkbenchStore', () => {
     expect(store.shownModel?.title).toBe('Strike bath')
   })
 
+  it('shows a stored run with the model it stored, not a recompile of its text', async () => {
+    const store = useWorkbenchStore()
+    store.open(answer())
+    fetcher.mockResolvedValueOnce({ ...run(12, 4), compilerVersion: '0.9.0', storedModel: true, model: storedModel() })
+    await store.run()
+    expect(store.shownModel?.title).toBe('Strike bath (as solved)')
+    expect(store.shownModel?.reactions[0]?.value).toBe(13.99)
+    expect(store.shownModelRecompiled).toBe(false)
+    expect(store.shown?.compilerVersion).toBe('0.9.0')
+    // No library texts were fetched to rebuild the model.
+    expect(fetcher).toHaveBeenCalledTimes(1)
+  })
+
+  it('says when a run predates stored models and falls back to a recompile of its text', async () => {
+    const store = useWorkbenchStore()
+    store.open(answer())
+    fetcher.mockResolvedValueOnce({ ...run(12, 4), model: null })
+    await store.run()
+    expect(store.shownModelRecompiled).toBe(true)
+    expect(store.shownModel?.reactions[0]?.value).toBe(14)
+  })
+
+  it('gives a viewer a preview of the saved revision that stores nothing', async () => {
+    const store = useWorkbenchStore()
+    store.open(answer('viewer'))
+    expect(store.plan).toBe('preview')
+    fetcher.mockResolvedValueOnce({ kind: 'single', solverVersion: '1.0.0', compilerVersion: '1.0.0', model: storedModel(), elapsedMs: 2.5, diagnostics: [], result })
+    await store.run()
+    expect(fetcher).toHaveBeenCalledWith('/api/labs/plating/solve', { method: 'POST', body: { source: saved } })
+    expect(store.shown).toMatchObject({ origin: 'preview', ofRevision: 4 })
+    expect(store.shownModel?.title).toBe('Strike bath (as solved)')
+  })
+
+  it('lets a reviewer store runs of the saved revision', () => {
+    const store = useWorkbenchStore()
+    store.open(answer('reviewer'))
+    expect(store.plan).toBe('stored')
+  })
+
   it('solves unsaved edits as a preview of exactly the edited text', async () => {
     const store = useWorkbenchStore()
     store.open(answer())
@@ -81,7 +129,7 @@ describe('useWorkbenchStore', () => {
     await store.run()
     // The lab's solve route, so a `use "library"` in the draft resolves.
     expect(fetcher).toHaveBeenCalledWith('/api/labs/plating/solve', { method: 'POST', body: { source: store.source } })
-    expect(store.shown?.origin).toBe('preview')
+    expect(store.shown).toMatchObject({ origin: 'preview', ofRevision: null })
     expect(store.shownIsStale).toBe(false)
     store.source += '# a note\n'
     expect(store.shownIsStale).toBe(true)
@@ -110,7 +158,7 @@ describe('useWorkbenchStore', () => {
     expect(compile(store.source, { resolveLibrary: store.resolveLibrary }).diagnostics.filter((d) => d.severity === 'error')).toEqual([])
   })
 
-  it('shows a stored run with the library revision it was solved with, not the library’s latest', async () => {
+  it('shows a run stored before models were with the library revision it was solved with, not the library’s latest', async () => {
     // Acetic acid pKa 4.76 (from memory) in revision 1; revision 2 of the library moved it (demo).
     const library = (pKa: number) => `system "Acids"\ncomponent H+ balance\ncomponent CH3COO- total 10 mM\nreaction CH3COOH <=> CH3COO- + H+ pKa ${pKa} cite "acetic acid (from memory)"\n`
     const uses = `system "Vinegar rinse"\nuse "acids"\ncomponent H+ balance\ncomponent CH3COO- total 10 mM\n`

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { jsonBytesWithRaw, jsonWithRaw } from '../../../server/utils/raw-json'
+import { jsonBytesWithRaw, jsonBytesWithRaws, jsonWithRaw, jsonWithRaws } from '../../../server/utils/raw-json'
 
 describe('jsonWithRaw', () => {
   it('gives the same JSON as stringifying the parsed value in place', () => {
@@ -13,6 +13,12 @@ describe('jsonWithRaw', () => {
     expect(JSON.parse(jsonWithRaw({}, 'a"b', '[1]'))).toEqual({ 'a"b': [1] })
     expect(jsonWithRaw({}, 'result', 'null')).toBe('{"result":null}')
   })
+
+  it('carries several raw values (a result and a model) in order', () => {
+    const text = jsonWithRaws({ id: 3 }, { result: '{"pH":7}', model: 'null' })
+    expect(text).toBe('{"id":3,"result":{"pH":7},"model":null}')
+    expect(JSON.parse(jsonWithRaws({}, { a: '1', b: '[2]' }))).toEqual({ a: 1, b: [2] })
+  })
 })
 
 describe('jsonBytesWithRaw', () => {
@@ -22,5 +28,11 @@ describe('jsonBytesWithRaw', () => {
     const bytes = jsonBytesWithRaw(head, 'result', new TextEncoder().encode(raw))
     expect(bytes.toString('utf8')).toBe(jsonWithRaw(head, 'result', raw))
     expect(JSON.parse(bytes.toString('utf8'))).toEqual({ ...head, result: JSON.parse(raw) })
+  })
+
+  it('carries raw bytes and raw text side by side (a result and a model)', () => {
+    const bytes = jsonBytesWithRaws({ kind: 'single' }, { result: new TextEncoder().encode('{"pH":7}'), model: '{"title":"Bad"}' })
+    expect(bytes.toString('utf8')).toBe('{"kind":"single","result":{"pH":7},"model":{"title":"Bad"}}')
+    expect(jsonBytesWithRaws({}, { a: '1', b: new TextEncoder().encode('[2]') }).toString('utf8')).toBe('{"a":1,"b":[2]}')
   })
 })

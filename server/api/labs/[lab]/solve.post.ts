@@ -1,21 +1,24 @@
 /**
  * POST /api/labs/:lab/solve — like /api/solve (nothing stored), with the lab's
- * libraries, so an unsaved draft that `use`s one can be tried. The answer
- * names the library revisions it was solved with.
+ * libraries, so an unsaved draft that `use`s one can be tried, and a viewer's
+ * Run is a preview of the saved text. The answer carries the model it solved
+ * (with the library revisions it used) and the compiler and solver versions.
  */
+import { COMPILER_VERSION } from '#shared/poise/version'
 import { LabParams } from '#shared/utils/lab-schemas'
 
 export default defineEventHandler(async (event) => {
   const params = validateParams(event, LabParams)
-  const { lab } = await requireLabRole(event, params.lab, 'viewer')
+  const { lab, user } = await requireLabRole(event, params.lab, 'viewer')
   const source = await readSourceBody(event)
   const { model, diagnostics } = compileForSolve(source, { resolveLibrary: await libraryResolverFor(lab.id, source) })
-  const output = await solveInPool(model)
-  return sendJsonWithRaw(event, {
+  const output = await solveInPool(model, user.id)
+  return sendJsonBytesWithRaws(event, {
     kind: output.kind,
     solverVersion: output.solverVersion,
+    compilerVersion: COMPILER_VERSION,
     elapsedMs: Math.round(output.elapsedMs * 10) / 10,
     diagnostics,
     libraries: model.libraries,
-  }, 'result', output.resultBytes)
+  }, { result: output.resultBytes, model: JSON.stringify(model) })
 })

@@ -1,30 +1,22 @@
 /**
  * GET /api/labs/:lab/systems/:system/compare?from=A&to=B — both texts, the
- * model diff of their compiled models and the results diff of their answers,
- * both solved by the current solver version (stored runs are reused, missing
- * ones are solved and stored). A revision that does not compile or solve
- * still gets its text compared; `problems` says what is missing and why.
+ * model diff and the results diff of the two revisions. A compare reads and
+ * never writes: each side is the revision's newest stored run (its stored
+ * model and answer, exactly as solved), or, when the revision has no stored
+ * run, the revision compiled and solved now in memory and not stored
+ * (`solved.from/to.origin` says which). A revision that does not compile or
+ * solve still gets its text compared; `problems` says what is missing and
+ * why, and when the two answers come from different solver versions.
  */
 import { z } from 'zod'
 import { SystemParams } from '#shared/utils/lab-schemas'
 import { diffModels, type ModelChange } from '#shared/diff/model-diff'
 import { diffResults, incomparableReason, type ResultsDiff } from '#shared/diff/results-diff'
-import type { Model } from '#shared/poise/model'
 
 const RevisionNumber = z.coerce.number({ error: 'Give revision numbers, e.g. ?from=3&to=5' })
   .int({ error: 'A revision number is a whole number' })
   .positive({ error: 'Revision numbers start at 1' })
 export const Query = z.object({ from: RevisionNumber, to: RevisionNumber })
-
-/** The compiled model of a revision, with the lab's libraries it uses, or null with the reason in `problems`. */
-async function compiledOrProblem(labId: number, source: string, number: number, problems: string[]): Promise<Model | null> {
-  try {
-    return compileForSolve(source, { resolveLibrary: await libraryResolverFor(labId, source) }).model
-  } catch (error) {
-    problems.push(`Revision ${number} cannot be solved: ${(error as { message?: string }).message ?? String(error)}`)
-    return null
-  }
-}
 
 export default defineEventHandler(async (event) => {
   const params = validateParams(event, SystemParams)
@@ -33,23 +25,18 @@ export default defineEventHandler(async (event) => {
   const [from, to] = await Promise.all([findRevision(access.system.id, query.from), findRevision(access.system.id, query.to)])
 
   const problems: string[] = []
-  const fromModel = await compiledOrProblem(access.lab.id, from.source, from.number, problems)
-  const toModel = await compiledOrProblem(access.lab.id, to.source, to.number, problems)
-  const modelDiff: ModelChange[] | null = fromModel && toModel ? diffModels(fromModel, toModel) : null
+  // One after the other: a side with no stored run is solved in the pool shared with everybody's runs.
+  const a = await answerForRevision(access.lab.id, from, access.user.id, problems)
+  const b = await answerForRevision(access.lab.id, to, access.user.id, problems)
+  const modelDiff: ModelChange[] | null = a.model && b.model ? diffModels(a.model, b.model) : null
 
   let resultsDiff: ResultsDiff | null = null
-  let solved: { solverVersion: string; runs: { from: number; to: number }; reused: { from: boolean; to: boolean } } | null = null
-  if (fromModel && toModel) {
-    try {
-      // One after the other: the pool is shared with everybody's runs.
-      const a = await answerForRevision(from, fromModel, access.user.id)
-      const b = await answerForRevision(to, toModel, access.user.id)
-      const reason = incomparableReason(a.answer, b.answer)
-      if (reason) problems.push(`${reason} Only the first point of each is compared.`)
-      resultsDiff = diffResults(a.answer, b.answer)
-      solved = { solverVersion: b.solverVersion, runs: { from: a.runId, to: b.runId }, reused: { from: a.reused, to: b.reused } }
-    } catch (error) {
-      problems.push(`The answers could not be compared: ${(error as { message?: string }).message ?? String(error)}`)
+  if (a.answer && b.answer) {
+    const reason = incomparableReason(a.answer, b.answer)
+    if (reason) problems.push(`${reason} Only the first point of each is compared.`)
+    resultsDiff = diffResults(a.answer, b.answer)
+    if (a.side.solverVersion !== b.side.solverVersion) {
+      problems.push(`Revision ${from.number} was solved by solver ${a.side.solverVersion} and revision ${to.number} by solver ${b.side.solverVersion}: part of the difference may come from the solver, not the text. Store a new run of the older one to compare like with like.`)
     }
   }
 
@@ -62,7 +49,7 @@ export default defineEventHandler(async (event) => {
     to: revisionView(to, await authorNameOf(to)),
     modelDiff,
     resultsDiff,
-    solved,
+    solved: a.answer || b.answer ? { solverVersion: b.side.solverVersion, from: a.side, to: b.side } : null,
     problems,
   }
 })

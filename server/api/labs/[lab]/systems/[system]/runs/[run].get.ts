@@ -1,4 +1,4 @@
-/** GET /api/labs/:lab/systems/:system/runs/:run — one run with its stored result. */
+/** GET /api/labs/:lab/systems/:system/runs/:run — one run with its stored result and the model it solved (null for runs stored before models were). */
 import { and, eq } from 'drizzle-orm'
 import { z } from 'zod'
 
