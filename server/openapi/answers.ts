@@ -5,7 +5,7 @@
  * when a route's answer changes and its description does not.
  */
 import { z } from 'zod'
-import type { RunView } from '../utils/runs'
+import type { RunStorage, RunView } from '../utils/runs'
 import type { RevisionSummary } from '../utils/revision-history'
 import type { revisionView } from '../utils/revisions'
 import { LAB_ROLES } from '../../shared/utils/roles'
@@ -48,17 +48,27 @@ export const RunAnswer = z.object({
   status: z.enum(RUN_STATUSES),
   kind: z.enum(['single', 'sweep', 'titration']),
   solverVersion: z.string(),
+  compilerVersion: z.string().nullable().meta({ description: 'The compiler version that made the stored model; null for a run stored before models were' }),
+  storedModel: z.boolean().meta({ description: 'False for a run stored before models were: it has no `model`' }),
+  storedBytes: z.int().meta({ description: 'Bytes the run takes in the lab\'s run storage budget' }),
   timingMs: z.int(),
   createdAt: datetime,
   createdBy: z.string().nullable(),
   failedPoints: z.int(),
   libraries: z.array(z.object({ name: z.string(), revision: z.int() })).meta({ description: 'The library revisions the run used' }),
 })
-const runChecked: Same<z.infer<typeof RunAnswer>, Omit<RunView, 'result'>> = true
+const runChecked: Same<z.infer<typeof RunAnswer>, Omit<RunView, 'result' | 'model'>> = true
 
 export const RunWithResultAnswer = RunAnswer.extend({
   result: z.object({}).loose().meta({ description: 'The Result (a sweep or a titration: its points), as the workbench shows it; concentrations in mol/L' }),
+  model: z.object({}).loose().nullable().meta({ description: 'The compiled model that was solved (constants, conditions, `libraries`), as stored with the run; null for a run stored before models were' }),
 })
+
+export const RunStorageAnswer = z.object({
+  usedBytes: z.int().meta({ description: 'Bytes the lab\'s stored runs take' }),
+  budgetBytes: z.int().meta({ description: 'The lab\'s run storage budget (NUXT_RUN_STORAGE_BUDGET_MB)' }),
+})
+const storageChecked: Same<z.infer<typeof RunStorageAnswer>, RunStorage> = true
 
 const LabRef = z.object({ slug: z.string(), name: z.string() })
 
@@ -92,4 +102,4 @@ export const RevisionListAnswer = z.object({
 })
 
 // Referenced so the compile-time checks above are not reported as unused.
-export const ANSWERS_CHECKED = revisionChecked && summaryChecked && runChecked
+export const ANSWERS_CHECKED = revisionChecked && summaryChecked && runChecked && storageChecked

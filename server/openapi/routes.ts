@@ -31,8 +31,9 @@ import { Params as RunParams } from '../api/labs/[lab]/systems/[system]/runs/[ru
 import { Params as RunsParams } from '../api/labs/[lab]/systems/[system]/runs/index.get'
 import { Body as RunCreateBody } from '../api/labs/[lab]/systems/[system]/runs/index.post'
 import {
-  LabListAnswer, MeAnswer, RevisionAnswer, RevisionAnswerWithLatest, RevisionListAnswer, RunAnswer, RunWithResultAnswer, SystemAnswer, SystemListAnswer,
+  LabListAnswer, MeAnswer, RevisionAnswer, RevisionAnswerWithLatest, RevisionListAnswer, RunAnswer, RunStorageAnswer, RunWithResultAnswer, SystemAnswer, SystemListAnswer,
 } from './answers'
+import { Params as RunDeleteParams } from '../api/labs/[lab]/systems/[system]/runs/[run].delete'
 
 /**
  * Who may call a route: `anyone`; `signed-in` (cookie or API token);
@@ -60,7 +61,8 @@ export interface RouteDoc {
   errors?: Partial<Record<number, string>>
 }
 
-const SOURCE_ANSWER = '`{ diagnostics }` for text with errors, or the diagnostics and the Result (a sweep: `points`), stored nowhere'
+const SOURCE_ANSWER = '`{ diagnostics }` for text with errors, or the diagnostics, the Result (a sweep: `points`), the `model` that was solved and `compilerVersion` / `solverVersion`, stored nowhere'
+const TOO_MANY_SOLVES = 'This account already has NUXT_SOLVES_PER_USER solves running or waiting; the message names the limit'
 const STALE = 'The base revision is not the latest: `data.latestRevision`, `data.latest` (its text) and `data.yourSource`'
 
 export const ROUTES: RouteDoc[] = [
@@ -90,14 +92,14 @@ export const ROUTES: RouteDoc[] = [
   { method: 'get', path: '/api/examples', tag: 'Examples', access: 'signed-in', summary: 'The shipped example systems', ok: { status: 200, description: '`{ examples }`' } },
   { method: 'get', path: '/api/examples/{example}', tag: 'Examples', access: 'signed-in', params: ExampleParams, summary: "One example's text", ok: { status: 200, description: 'The example with its text' }, errors: { 404: 'No such example' } },
   { method: 'post', path: '/api/check', tag: 'Solve', access: 'signed-in', body: SourceBody, summary: 'Check Poise text (no libraries)', ok: { status: 200, description: '`{ ok, diagnostics, summary }`' } },
-  { method: 'post', path: '/api/solve', tag: 'Solve', access: 'signed-in', body: SourceBody, summary: 'Solve Poise text (no libraries), stored nowhere', ok: { status: 200, description: SOURCE_ANSWER }, errors: { 413: 'A sweep with too many points', 503: 'The solver is busy; try again' } },
+  { method: 'post', path: '/api/solve', tag: 'Solve', access: 'signed-in', body: SourceBody, summary: 'Solve Poise text (no libraries), stored nowhere', ok: { status: 200, description: SOURCE_ANSWER }, errors: { 413: 'A sweep with too many points', 429: TOO_MANY_SOLVES, 503: 'The solver is busy; try again' } },
 
   // Labs and members
   { method: 'get', path: '/api/labs', tag: 'Labs', access: 'signed-in', summary: 'My labs, with my role', ok: { status: 200, description: 'My labs', schema: LabListAnswer } },
   { method: 'post', path: '/api/labs', tag: 'Labs', access: 'signed-in', body: LabCreateBody, summary: 'Create a lab; the creator is its owner', ok: { status: 201, description: '`{ lab: { slug, name, role } }`' }, errors: { 409: 'The short name is taken' } },
   { method: 'get', path: '/api/labs/{lab}', tag: 'Labs', access: 'viewer', params: LabParams, summary: 'A lab and my role in it', ok: { status: 200, description: '`{ lab, role, memberCount, … }`' } },
   { method: 'post', path: '/api/labs/{lab}/check', tag: 'Solve', access: 'viewer', params: LabParams, body: SourceBody, summary: "Check Poise text with the lab's libraries", ok: { status: 200, description: '`{ ok, diagnostics, summary }`' } },
-  { method: 'post', path: '/api/labs/{lab}/solve', tag: 'Solve', access: 'viewer', params: LabParams, body: SourceBody, summary: "Solve Poise text with the lab's libraries (a preview, stored nowhere)", ok: { status: 200, description: SOURCE_ANSWER }, errors: { 413: 'A sweep with too many points', 503: 'The solver is busy; try again' } },
+  { method: 'post', path: '/api/labs/{lab}/solve', tag: 'Solve', access: 'viewer', params: LabParams, body: SourceBody, summary: "Solve Poise text with the lab's libraries (a preview, stored nowhere; a viewer's Run)", ok: { status: 200, description: SOURCE_ANSWER }, errors: { 413: 'A sweep with too many points', 429: TOO_MANY_SOLVES, 503: 'The solver is busy; try again' } },
   { method: 'get', path: '/api/labs/{lab}/members', tag: 'Labs', access: 'viewer', params: LabParams, summary: "The lab's members and their roles", ok: { status: 200, description: '`{ members, myRole }`' } },
   { method: 'post', path: '/api/labs/{lab}/members', tag: 'Labs', access: 'owner', params: LabParams, body: InvitationCreateBody, summary: 'Invite someone into the lab (as POST …/invitations)', ok: { status: 201, description: '`{ invitation, mailed }`; the same answer whether or not the address has an account' }, errors: { 409: 'Already a member or invited', 429: 'Too many invitations this hour' } },
   { method: 'patch', path: '/api/labs/{lab}/members/{user}', tag: 'Labs', access: 'owner', params: MemberParams, body: MemberUpdateBody, summary: "Change a member's role", ok: { status: 200, description: '`{ member: { id, role } }`' }, errors: { 409: 'The lab would have no owner' } },
@@ -116,14 +118,15 @@ export const ROUTES: RouteDoc[] = [
   { method: 'get', path: '/api/labs/{lab}/systems/{system}/revisions', tag: 'Systems', access: 'viewer', params: SystemParams, summary: 'Every revision, newest first, with author, newest run and reviews', ok: { status: 200, description: 'The revisions, newest first', schema: RevisionListAnswer } },
   { method: 'get', path: '/api/labs/{lab}/systems/{system}/revisions/{number}', tag: 'Systems', access: 'viewer', params: RevisionParams, summary: 'One revision with its text', ok: { status: 200, description: 'The revision and the number of the latest', schema: RevisionAnswerWithLatest } },
   { method: 'post', path: '/api/labs/{lab}/systems/{system}/revisions/{number}/restore', tag: 'Systems', access: 'editor', params: RevisionParams, body: RestoreBody, summary: "Save an older revision's text as the next revision", ok: { status: 201, description: 'The new revision', schema: z.object({ revision: RevisionAnswer.extend({ parent: z.int() }) }) }, errors: { 409: STALE } },
-  { method: 'get', path: '/api/labs/{lab}/systems/{system}/compare', tag: 'Systems', access: 'viewer', params: SystemParams, query: CompareQuery, summary: 'Text, model and results differences between two revisions', ok: { status: 200, description: '`{ lab, system, role, latestRevision, from, to, …differences }`' } },
+  { method: 'get', path: '/api/labs/{lab}/systems/{system}/compare', tag: 'Systems', access: 'viewer', params: SystemParams, query: CompareQuery, summary: 'Text, model and results differences between two revisions', description: 'A read: never stores a run. Each side is the revision\'s newest stored run (its stored model and answer), or the revision solved now and not stored; `solved.from` / `solved.to` say which.', ok: { status: 200, description: '`{ lab, system, role, latestRevision, from, to, modelDiff, resultsDiff, solved, problems }`' } },
   { method: 'post', path: '/api/labs/{lab}/imports', tag: 'Systems', access: 'editor', params: LabParams, upload: ImportSystemFields, summary: 'Create a system from an uploaded .poise file', ok: { status: 201, description: '`{ system }`' }, errors: { 409: 'The short name is taken in this lab' } },
   { method: 'post', path: '/api/labs/{lab}/systems/{system}/imports', tag: 'Systems', access: 'editor', params: SystemParams, upload: ImportRevisionFields, summary: 'Save an uploaded .poise file as the next revision', ok: { status: 201, description: '`{ system }`' }, errors: { 409: STALE } },
 
   // Runs
-  { method: 'get', path: '/api/labs/{lab}/systems/{system}/runs', tag: 'Runs', access: 'viewer', params: RunsParams, summary: "The system's runs, newest first, without results", ok: { status: 200, description: 'The runs, newest first', schema: z.object({ runs: z.array(RunAnswer) }) } },
-  { method: 'post', path: '/api/labs/{lab}/systems/{system}/runs', tag: 'Runs', access: 'viewer', params: RunsParams, body: RunCreateBody, summary: 'Run a saved revision (the latest unless `revision`) and store the run', description: 'What the workbench\'s Run button does. A read-only API token cannot (it stores a run).', ok: { status: 201, description: 'The stored run and its `result`', schema: RunWithResultAnswer }, errors: { 503: 'The solver is busy; try again' } },
-  { method: 'get', path: '/api/labs/{lab}/systems/{system}/runs/{run}', tag: 'Runs', access: 'viewer', params: RunParams, summary: 'One stored run with its result', ok: { status: 200, description: 'The run and its `result`', schema: RunWithResultAnswer } },
+  { method: 'get', path: '/api/labs/{lab}/systems/{system}/runs', tag: 'Runs', access: 'viewer', params: RunsParams, summary: "The system's runs, newest first, without results, and the lab's run storage", ok: { status: 200, description: 'The runs, newest first, and `storage: { usedBytes, budgetBytes }`', schema: z.object({ runs: z.array(RunAnswer), storage: RunStorageAnswer }) } },
+  { method: 'post', path: '/api/labs/{lab}/systems/{system}/runs', tag: 'Runs', access: 'reviewer', params: RunsParams, body: RunCreateBody, summary: 'Run a saved revision (the latest unless `revision`) and store the run with the model it solved', description: 'What the workbench\'s Run button does for reviewers, editors and owners (a viewer\'s Run is a preview: POST /api/labs/{lab}/solve). A read-only API token cannot (it stores a run).', ok: { status: 201, description: 'The stored run with its `result` and `model`', schema: RunWithResultAnswer }, errors: { 409: 'The lab\'s run storage budget is spent; the message says how much is used and what to do', 429: TOO_MANY_SOLVES, 503: 'The solver is busy; try again' } },
+  { method: 'delete', path: '/api/labs/{lab}/systems/{system}/runs/{run}', tag: 'Runs', access: 'editor', params: RunDeleteParams, summary: 'Delete a stored run to free the lab\'s run storage (audit-logged)', ok: { status: 200, description: 'The id deleted and the lab\'s run storage after', schema: z.object({ deleted: z.int(), storage: RunStorageAnswer }) }, errors: { 404: 'No such run of this system' } },
+  { method: 'get', path: '/api/labs/{lab}/systems/{system}/runs/{run}', tag: 'Runs', access: 'viewer', params: RunParams, summary: 'One stored run with its result and the model it solved', ok: { status: 200, description: 'The run, its `result` and `model` (null for a run stored before models were)', schema: RunWithResultAnswer } },
 
   // Libraries
   { method: 'get', path: '/api/labs/{lab}/libraries', tag: 'Libraries', access: 'viewer', params: LabParams, summary: "The lab's libraries with their latest revision", ok: { status: 200, description: '`{ libraries: [{ …, latestRevision }] }`' } },

@@ -88,6 +88,7 @@ describe('a stored run', () => {
     const compared = await api(vinegar('/compare?from=1&to=2'), { cookie: viewer.cookie })
     expect(compared.body.solved.from).toMatchObject({ origin: 'stored', runId: stored.body.id, compilerVersion: '0.9.0' })
     expect(compared.body.modelDiff).toContainEqual(expect.objectContaining({ kind: 'condition', name: 'temperature', from: '20.0 °C', to: '25.0 °C' }))
+    expect(compared.body.problems).toContainEqual(expect.stringMatching(/^The model of revision 1 was made by compiler 0\.9\.0 and that of revision 2 by compiler \d+\.\d+\.\d+: part of the model difference may come from the compiler/))
   })
 
   it('stored before models were, still opens: no model, its bytes measured, and compare says it predates stored models', async () => {

@@ -6,7 +6,7 @@
  * run, the revision compiled and solved now in memory and not stored
  * (`solved.from/to.origin` says which). A revision that does not compile or
  * solve still gets its text compared; `problems` says what is missing and
- * why, and when the two answers come from different solver versions.
+ * why, and when the two sides come from different compiler or solver versions.
  */
 import { z } from 'zod'
 import { SystemParams } from '#shared/utils/lab-schemas'
@@ -29,6 +29,9 @@ export default defineEventHandler(async (event) => {
   const a = await answerForRevision(access.lab.id, from, access.user.id, problems)
   const b = await answerForRevision(access.lab.id, to, access.user.id, problems)
   const modelDiff: ModelChange[] | null = a.model && b.model ? diffModels(a.model, b.model) : null
+  if (modelDiff && a.side.compilerVersion && b.side.compilerVersion && a.side.compilerVersion !== b.side.compilerVersion) {
+    problems.push(`The model of revision ${from.number} was made by compiler ${a.side.compilerVersion} and that of revision ${to.number} by compiler ${b.side.compilerVersion}: part of the model difference may come from the compiler, not the text. Store a new run of the older one to compare like with like.`)
+  }
 
   let resultsDiff: ResultsDiff | null = null
   if (a.answer && b.answer) {

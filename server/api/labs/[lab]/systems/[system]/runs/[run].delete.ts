@@ -8,7 +8,7 @@ import { and, eq } from 'drizzle-orm'
 import { z } from 'zod'
 import { RUN_DELETE_ROLE } from '#shared/utils/run-rules'
 
-const Params = z.object({ lab: z.string().min(1), system: z.string().min(1), run: z.coerce.number().int().positive() })
+export const Params = z.object({ lab: z.string().min(1), system: z.string().min(1), run: z.coerce.number().int().positive() })
 
 export default defineEventHandler(async (event) => {
   const { lab, system, run: runId } = validateParams(event, Params)
