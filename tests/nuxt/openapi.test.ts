@@ -75,7 +75,7 @@ describe('GET /api/openapi.json', async () => {
     expect(save.security).toEqual([{ cookie: [] }, { bearer: [] }])
     expect(Object.keys(save.responses)).toEqual(expect.arrayContaining(['200', '400', '401', '403', '404', '409']))
     const run = doc.paths['/api/labs/{lab}/systems/{system}/runs']!.post.responses['201'].content['application/json'].schema
-    expect(run.required).toEqual(expect.arrayContaining(['id', 'revision', 'status', 'kind', 'libraries', 'result']))
+    expect(run.required).toEqual(expect.arrayContaining(['id', 'revision', 'status', 'kind', 'libraries', 'result', 'model', 'compilerVersion', 'storedBytes']))
     expect(run.properties.status.enum).toEqual(['ok', 'failed', 'diverged'])
     const system = doc.paths['/api/labs/{lab}/systems/{system}']!.get.responses['200'].content['application/json'].schema
     expect(system.properties.system.properties.latest.required).toEqual(expect.arrayContaining(['number', 'source']))
