@@ -142,6 +142,6 @@ describe('members', () => {
     expect((await api(`/api/labs/${lab}/members/${outsider.user.id}`, { method: 'PATCH', cookie: owner.cookie, body: { role: 'viewer' } })).status).toBe(404)
     const bad = await api(`/api/labs/${lab}/members/abc`, { method: 'DELETE', cookie: owner.cookie })
     expect(bad.status).toBe(400)
-    expect(bad.body.message).toMatch(/user/)
+    expect(bad.body.message).toMatch(/^User must be a number/)
   })
 })
