@@ -6,6 +6,7 @@
  */
 import { computed, onBeforeUnmount, onMounted, ref, toValue, watch, type MaybeRefOrGetter, type Ref } from 'vue'
 import { onBeforeRouteLeave } from 'vue-router'
+import { browserStorage } from '../utils/storage'
 
 export interface DraftKey {
   lab: string
@@ -57,13 +58,6 @@ export function clearDraft(storage: DraftStorage, key: DraftKey): void {
   }
 }
 
-function browserStorage(): DraftStorage | null {
-  try {
-    return typeof window !== 'undefined' ? window.localStorage : null
-  } catch {
-    return null
-  }
-}
 
 export interface UseDraftOptions {
   key: MaybeRefOrGetter<DraftKey>

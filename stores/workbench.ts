@@ -25,6 +25,7 @@ import { labRoleAtLeast, type LabRole } from '../shared/utils/roles'
 import { RUN_STORE_ROLE } from '../shared/utils/run-rules'
 import type { ResolveLibrary } from '../shared/utils/library-preload'
 import { labLibraryPreloader, resolverFrom } from './libraryTexts'
+import { browserStorage } from '../utils/storage'
 
 export interface SavedRevision {
   number: number
@@ -157,13 +158,8 @@ export function richestComponent(model: StoichiometryModel): string | null {
 
 /** The component to show first: the one the diagram remembers for this system (browser only), else the richest. */
 export function startingComponent(model: StoichiometryModel, systemKey: string): string | null {
-  let remembered: string | undefined
-  try {
-    remembered = typeof window === 'undefined' ? undefined : parseDiagramPrefs(window.localStorage.getItem(diagramPrefsKey(systemKey))).component
-  } catch {
-    // Storage refused: nothing remembered.
-  }
-  return remembered ?? richestComponent(model)
+  const remembered = browserStorage()?.getItem(diagramPrefsKey(systemKey))
+  return (remembered === undefined ? undefined : parseDiagramPrefs(remembered).component) ?? richestComponent(model)
 }
 
 type Fetcher = <T>(url: string, options?: { method?: string; body?: unknown }) => Promise<T>

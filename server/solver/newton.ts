@@ -174,6 +174,16 @@ function stepSize(ws: Workspace, state: SolverState): number {
   return m
 }
 
+/** Back to the point the step started from (saved in y0, n0 and u0), with its species and residuals. */
+function restoreStart(ws: Workspace, state: SolverState, u0: number): void {
+  state.y.set(ws.y0)
+  state.n.set(ws.n0)
+  state.u = u0
+  computeSpecies(ws, state)
+  computeResiduals(ws, state, ws.F, ws.scale)
+  findWorst(ws)
+}
+
 /**
  * Takes the last, tiny step in ws.delta (it brings the answer to rounding
  * level), evaluates the state it reaches and keeps it only when its residuals
@@ -191,12 +201,7 @@ function finalStep(ws: Workspace, state: SolverState, it: number): NewtonOutcome
   computeResiduals(ws, state, ws.F, ws.scale)
   findWorst(ws)
   if (!(ws.worstMax <= Math.max(before, RESIDUAL_TOLERANCE * 0.5))) {
-    state.y.set(ws.y0)
-    state.n.set(ws.n0)
-    state.u = u0
-    computeSpecies(ws, state)
-    computeResiduals(ws, state, ws.F, ws.scale)
-    findWorst(ws)
+    restoreStart(ws, state, u0)
   }
   return { ok: ws.worstMax < RESIDUAL_TOLERANCE, iterations: it + 1, maxScaled: ws.worstMax, worstRow: ws.worstRow }
 }
@@ -291,12 +296,7 @@ export function newton(ws: Workspace, state: SolverState, limits: Limits): Newto
       // No step along the Newton direction lowers the residuals: back to the
       // point before, which either already meets the tolerance (rounding
       // keeps the merit from falling) or is where the solve stalled.
-      state.y.set(ws.y0)
-      state.n.set(ws.n0)
-      state.u = u0
-      computeSpecies(ws, state)
-      computeResiduals(ws, state, ws.F, ws.scale)
-      findWorst(ws)
+      restoreStart(ws, state, u0)
       if (ws.worstMax < RESIDUAL_TOLERANCE) return { ok: true, iterations: it + 1, maxScaled: ws.worstMax, worstRow: ws.worstRow }
       return {
         ok: false, iterations: it + 1, maxScaled: ws.worstMax, worstRow: ws.worstRow, stalled: true,
