@@ -6,6 +6,7 @@ import { desc, eq, inArray } from 'drizzle-orm'
 import { alias } from 'drizzle-orm/mysql-core'
 import type { Revision } from '../database/schema'
 import type { RunStatus } from './runs'
+import type { Transaction } from './db'
 
 export interface RevisionSummary {
   number: number
@@ -80,6 +81,28 @@ export function staleRevisionError(latest: Revision, latestAuthor: string | null
     statusCode: 409,
     message: `Revision ${latest.number} was saved after the revision ${baseRevision} you edited; compare your text with it and apply your change again`,
     data: { latestRevision: latest.number, latest: revisionView(latest, latestAuthor), yourSource },
+  })
+}
+
+/**
+ * Writes revision latest+1 of a system in one transaction with `alongside`
+ * (its audit line, and any other change that must commit with it). Of two
+ * saves from the same base at once, the unique (system, number) index lets
+ * one win; the other gets the 409 of a stale base, naming the winner.
+ */
+export async function writeNextRevision(
+  input: { systemId: number, latest: Revision, source: string, authorId: number, message: string },
+  alongside: (tx: Transaction, revision: Revision) => Promise<void>,
+): Promise<Revision> {
+  const { systemId, latest, source, authorId, message } = input
+  return useDb().transaction(async (tx) => {
+    const revision = await addRevision(tx, { systemId, number: latest.number + 1, parentId: latest.id, source, authorId, message })
+    await alongside(tx, revision)
+    return revision
+  }).catch(async (error) => {
+    if (!isDuplicateKey(error)) throw error
+    const winner = await findRevision(systemId, latest.number + 1)
+    throw staleRevisionError(winner, await authorNameOf(winner), latest.number, source)
   })
 }
 

@@ -1,5 +1,7 @@
 import { eq } from 'drizzle-orm'
 import { SystemParams, SystemUpdateBody } from '#shared/utils/lab-schemas'
+import type { Revision } from '../../../../database/schema'
+import type { Transaction } from '../../../../utils/db'
 
 /**
  * An editor renames a system and/or saves a new source as the next revision.
@@ -16,36 +18,23 @@ export default defineEventHandler(async (event) => {
     throw staleRevisionError(latest, await authorNameOf(latest), body.baseRevision!, body.source)
   }
   // The rename, the new revision and their audit lines commit together or not at all.
-  const revised = await db.transaction(async (tx) => {
-    if (body.title !== undefined && body.title !== system.title) {
-      await tx.update(tables.systems).set({ title: body.title }).where(eq(tables.systems.id, system.id))
-      await recordAudit(tx, { actorId: user.id, labId: lab.id, action: 'system.rename', detail: { slug: system.slug, from: system.title, to: body.title } })
-    }
-    if (body.source === undefined) return null
-    const revision = await addRevision(tx, {
-      systemId: system.id,
-      number: latest.number + 1,
-      parentId: latest.id,
-      source: body.source,
-      authorId: user.id,
-      message: body.message ?? '',
-    })
-    await recordAudit(tx, { actorId: user.id, labId: lab.id, action: 'system.revise', detail: { slug: system.slug, number: revision.number } })
-    return revision
-  }).catch(async (error) => {
-    // Two saves from the same base at once: the unique (system, number) index lets one win.
-    if (!isDuplicateKey(error)) throw error
-    const winner = await findRevision(system.id, latest.number + 1)
-    throw staleRevisionError(winner, await authorNameOf(winner), latest.number, body.source!)
-  })
-  let current = latest
-  let authorName: string | null = null
-  if (revised) {
-    current = revised
-    authorName = user.name
-  } else if (latest.authorId) {
-    const [author] = await db.select({ name: tables.users.name }).from(tables.users).where(eq(tables.users.id, latest.authorId))
-    authorName = author?.name ?? null
+  const rename = async (tx: Transaction) => {
+    if (body.title === undefined || body.title === system.title) return
+    await tx.update(tables.systems).set({ title: body.title }).where(eq(tables.systems.id, system.id))
+    await recordAudit(tx, { actorId: user.id, labId: lab.id, action: 'system.rename', detail: { slug: system.slug, from: system.title, to: body.title } })
   }
+  let revised: Revision | null = null
+  if (body.source === undefined) await db.transaction(rename)
+  else {
+    revised = await writeNextRevision(
+      { systemId: system.id, latest, source: body.source, authorId: user.id, message: body.message ?? '' },
+      async (tx, revision) => {
+        await rename(tx)
+        await recordAudit(tx, { actorId: user.id, labId: lab.id, action: 'system.revise', detail: { slug: system.slug, number: revision.number } })
+      },
+    )
+  }
+  const current = revised ?? latest
+  const authorName = revised ? user.name : await authorNameOf(latest)
   return { system: { slug: system.slug, title: body.title ?? system.title, isLibrary: system.isLibrary, latest: revisionView(current, authorName) } }
 })

@@ -14,22 +14,10 @@ export default defineEventHandler(async (event) => {
   if (fields.baseRevision !== undefined && fields.baseRevision !== latest.number) {
     throw staleRevisionError(latest, await authorNameOf(latest), fields.baseRevision, upload.source)
   }
-  const revision = await useDb().transaction(async (tx) => {
-    const next = await addRevision(tx, {
-      systemId: system.id,
-      number: latest.number + 1,
-      parentId: latest.id,
-      source: upload.source,
-      authorId: user.id,
-      message: fields.message || `Imported from ${upload.filename}`,
-    })
-    await recordAudit(tx, { actorId: user.id, labId: lab.id, action: 'system.import', detail: { slug: system.slug, number: next.number, filename: upload.filename } })
-    return next
-  }).catch(async (error) => {
-    if (!isDuplicateKey(error)) throw error
-    const winner = await findRevision(system.id, latest.number + 1)
-    throw staleRevisionError(winner, await authorNameOf(winner), latest.number, upload.source)
-  })
+  const revision = await writeNextRevision(
+    { systemId: system.id, latest, source: upload.source, authorId: user.id, message: fields.message || `Imported from ${upload.filename}` },
+    (tx, next) => recordAudit(tx, { actorId: user.id, labId: lab.id, action: 'system.import', detail: { slug: system.slug, number: next.number, filename: upload.filename } }),
+  )
   setResponseStatus(event, 201)
   return { system: { slug: system.slug, title: system.title, isLibrary: system.isLibrary, latest: revisionView(revision, user.name) } }
 })

@@ -22,22 +22,10 @@ export default defineEventHandler(async (event) => {
   if (old.sha256 === latest.sha256) {
     throw createError({ statusCode: 400, message: `Revision ${old.number} has the same text as the latest revision ${latest.number}: there is nothing to restore` })
   }
-  const restored = await useDb().transaction(async (tx) => {
-    const next = await addRevision(tx, {
-      systemId: system.id,
-      number: latest.number + 1,
-      parentId: latest.id,
-      source: old.source,
-      authorId: user.id,
-      message: body.message || `Restore revision ${old.number}`,
-    })
-    await recordAudit(tx, { actorId: user.id, labId: lab.id, action: 'system.restore', detail: { slug: system.slug, from: old.number, number: next.number } })
-    return next
-  }).catch(async (error) => {
-    if (!isDuplicateKey(error)) throw error
-    const winner = await findRevision(system.id, latest.number + 1)
-    throw staleRevisionError(winner, await authorNameOf(winner), latest.number, old.source)
-  })
+  const restored = await writeNextRevision(
+    { systemId: system.id, latest, source: old.source, authorId: user.id, message: body.message || `Restore revision ${old.number}` },
+    (tx, next) => recordAudit(tx, { actorId: user.id, labId: lab.id, action: 'system.restore', detail: { slug: system.slug, from: old.number, number: next.number } }),
+  )
   setResponseStatus(event, 201)
   return { revision: { ...revisionView(restored, user.name), parent: latest.number } }
 })
