@@ -4,10 +4,10 @@
 // system instance (/etc/mysql, port 3306) because every call passes
 // --no-defaults. Usage: node scripts/db.mjs start|stop|status
 import { spawn, spawnSync } from 'node:child_process'
-import { existsSync, mkdirSync, readFileSync, openSync } from 'node:fs'
-import { createConnection } from 'node:net'
+import { existsSync, mkdirSync, openSync } from 'node:fs'
 import { dirname, join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
+import { alive, ensureInstalled, portTaken, readPid as readPidFile, sleep, waitUntil } from './private-server.mjs'
 
 const root = resolve(dirname(fileURLToPath(import.meta.url)), '..')
 const dataRoot = join(root, '.data')
@@ -22,50 +22,7 @@ const appUser = 'equipoise'
 const appPassword = 'equipoise'
 const databases = ['equipoise', 'equipoise_test']
 
-const sleep = (ms) => new Promise((r) => setTimeout(r, ms))
-
-function which(cmd) {
-  return spawnSync('sh', ['-c', `command -v ${cmd}`], { encoding: 'utf8' }).status === 0
-}
-
-function ensureInstalled() {
-  if (which('mariadbd') || existsSync('/usr/sbin/mariadbd')) return
-  const isRoot = typeof process.getuid === 'function' && process.getuid() === 0
-  if (!isRoot) {
-    console.error('MariaDB is not installed. Install it once with:\n\n  sudo apt-get update && sudo apt-get install -y mariadb-server\n')
-    process.exit(1)
-  }
-  console.log('Installing mariadb-server with apt-get …')
-  for (const args of [['update'], ['install', '-y', 'mariadb-server']]) {
-    const r = spawnSync('apt-get', args, { stdio: 'inherit', env: { ...process.env, DEBIAN_FRONTEND: 'noninteractive' } })
-    if (r.status !== 0) {
-      console.error(`apt-get ${args.join(' ')} failed; install mariadb-server by hand and run again.`)
-      process.exit(1)
-    }
-  }
-}
-
-function mariadbdPath() {
-  return existsSync('/usr/sbin/mariadbd') ? '/usr/sbin/mariadbd' : 'mariadbd'
-}
-
-function readPid() {
-  try {
-    return Number(readFileSync(pidFile, 'utf8').trim()) || null
-  } catch {
-    return null
-  }
-}
-
-function alive(pid) {
-  if (!pid) return false
-  try {
-    process.kill(pid, 0)
-    return true
-  } catch {
-    return false
-  }
-}
+const readPid = () => readPidFile(pidFile)
 
 function ping() {
   return spawnSync('mariadb-admin', ['--no-defaults', `--socket=${socket}`, '-uroot', 'ping'], { stdio: 'ignore' }).status === 0
@@ -74,15 +31,6 @@ function ping() {
 function rootSql(sql) {
   const r = spawnSync('mariadb', ['--no-defaults', `--socket=${socket}`, '-uroot', '-e', sql], { encoding: 'utf8' })
   if (r.status !== 0) throw new Error(`SQL failed: ${r.stderr.trim()}`)
-}
-
-/** True when something already listens on the port (another checkout's database, say). */
-function portTaken() {
-  return new Promise((done) => {
-    const socket = createConnection({ host: '127.0.0.1', port })
-    socket.once('connect', () => { socket.destroy(); done(true) })
-    socket.once('error', () => done(false))
-  })
 }
 
 function initialise() {
@@ -116,34 +64,30 @@ function provision() {
 }
 
 async function start() {
-  ensureInstalled()
+  const mariadbd = ensureInstalled('mariadbd', 'mariadb-server')
   mkdirSync(runDir, { recursive: true })
   if (alive(readPid()) && ping()) {
     provision()
     console.log(`MariaDB already running on 127.0.0.1:${port}`)
     return
   }
-  if (await portTaken()) {
+  if (await portTaken(port)) {
     console.error(`Port ${port} on 127.0.0.1 is in use by another program (another checkout's database?).\n`
       + `Stop it, or run this checkout on another port: EQUIPOISE_DB_PORT=3317 npm start`)
     process.exit(1)
   }
   initialise()
   const log = openSync(errorLog, 'a')
-  const child = spawn(mariadbdPath(), [
+  const child = spawn(mariadbd, [
     '--no-defaults', '--user=root', `--datadir=${dataDir}`, `--socket=${socket}`,
     `--pid-file=${pidFile}`, `--port=${port}`, '--bind-address=127.0.0.1',
     '--skip-name-resolve', `--log-error=${errorLog}`, '--innodb-buffer-pool-size=64M',
     '--character-set-server=utf8mb4', '--collation-server=utf8mb4_unicode_ci',
   ], { detached: true, stdio: ['ignore', log, log] })
   child.unref()
-  const deadline = Date.now() + 30_000
-  while (!ping()) {
-    if (Date.now() > deadline || child.exitCode !== null) {
-      console.error(`MariaDB did not start; see ${errorLog}`)
-      process.exit(1)
-    }
-    await sleep(100)
+  if (!await waitUntil(ping, () => child.exitCode !== null)) {
+    console.error(`MariaDB did not start; see ${errorLog}`)
+    process.exit(1)
   }
   provision()
   console.log(`MariaDB running on 127.0.0.1:${port} (data in .data/mariadb)`)

@@ -1,6 +1,7 @@
 /**
- * Global setup of the `nuxt` test project: starts the private MariaDB when it
- * is down, recreates equipoise_test with the migrations and the demo seed,
+ * Global setup of the `nuxt` test project: starts the private MariaDB and
+ * Redis when they are down, recreates equipoise_test with the migrations and
+ * the demo seed, empties the tests' Redis database,
  * and starts the built server (.output) once for every route and browser
  * test file. Files reach it through `inject('baseURL')` (see server.ts).
  */
@@ -11,7 +12,8 @@ import { resolve } from 'node:path'
 import type { TestProject } from 'vitest/node'
 import { migrateDatabase, openDatabase } from '../../server/database/connect'
 import { seedDemo } from '../../server/database/seed'
-import { recreateTestDatabase, TEST_DATABASE_URL } from './test-database'
+import { flushTestRedis, recreateTestDatabase, TEST_DATABASE_URL, TEST_REDIS_URL } from './test-database'
+import { startPrivateServers } from '../../scripts/private-server.mjs'
 import { startFakeSmtp } from '../../scripts/fake-smtp.mjs'
 import { BUILT_SERVER_ENTRY, startServerProcess, type ServerProcess } from './server-process'
 
@@ -31,10 +33,10 @@ declare module 'vitest' {
 }
 
 export default async function setup(project: TestProject) {
-  const db = spawnSync(process.execPath, [resolve(root, 'scripts/db.mjs'), 'start'], { stdio: 'inherit' })
-  if (db.status !== 0) throw new Error('Could not start the private MariaDB (see above)')
+  startPrivateServers()
 
   await recreateTestDatabase()
+  await flushTestRedis()
   await migrateDatabase(TEST_DATABASE_URL)
   const { db: testDb, pool } = openDatabase(TEST_DATABASE_URL)
   await seedDemo(testDb, resolve(root, 'examples'))
@@ -53,6 +55,7 @@ export default async function setup(project: TestProject) {
     ...process.env as Record<string, string>,
     NODE_ENV: 'production',
     NUXT_DATABASE_URL: TEST_DATABASE_URL,
+    EQUIPOISE_REDIS_URL: TEST_REDIS_URL,
     NUXT_SESSION_PASSWORD: TEST_SESSION_PASSWORD,
     NUXT_MAIL_HOST: '127.0.0.1',
     NUXT_MAIL_PORT: String(mail.port),

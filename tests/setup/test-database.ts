@@ -1,5 +1,7 @@
-/** Where the route and browser tests keep their data: equipoise_test on the private server. */
+/** Where the route and browser tests keep their data: equipoise_test on the private server, and database 1 of the private Redis. */
+import { Redis } from 'ioredis'
 import mysql from 'mysql2/promise'
+import { redisPort } from '../../scripts/redis-url.mjs'
 
 const port = process.env.EQUIPOISE_DB_PORT || 3307
 // EQUIPOISE_TEST_DB lets two checkouts on one machine test side by side.
@@ -14,5 +16,19 @@ export async function recreateTestDatabase(): Promise<void> {
     await connection.query(`CREATE DATABASE \`${TEST_DATABASE}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`)
   } finally {
     await connection.end()
+  }
+}
+
+/** The job queue of the tests: a Redis database of its own, so `npm start`'s queue (database 0) is left alone. */
+export const TEST_REDIS_URL = process.env.EQUIPOISE_TEST_REDIS_URL || `redis://127.0.0.1:${redisPort()}/1`
+
+/** Empties the tests' Redis database so every run starts with no jobs. */
+export async function flushTestRedis(): Promise<void> {
+  const redis = new Redis(TEST_REDIS_URL, { lazyConnect: true, maxRetriesPerRequest: 1 })
+  try {
+    await redis.connect()
+    await redis.flushdb()
+  } finally {
+    redis.disconnect()
   }
 }
