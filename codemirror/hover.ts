@@ -6,7 +6,7 @@
 import { hoverTooltip, type Tooltip } from '@codemirror/view'
 import type { EditorState } from '@codemirror/state'
 import type { PoiseSymbol } from '../shared/poise/index'
-import { isWater, parseFormula, type ParsedFormula } from '../shared/poise/formula'
+import { isWater, parseFormula, type Abbreviations, type ParsedFormula } from '../shared/poise/formula'
 import { poiseSymbolsField } from './analysis'
 import { lexLine } from './language'
 import { typesetFormula } from '../shared/results/typeset'
@@ -26,6 +26,8 @@ export interface SymbolDescription {
   formation: string
   /** Charged dissolved species: the ion size of the extended Debye–Hückel model and where it comes from; else null. */
   ionSize: string | null
+  /** The file's abbreviations the formula is written with (`Cit = C6H5O7`); absent when none. */
+  writtenWith?: string
 }
 
 export function formatCharge(charge: number): string {
@@ -79,15 +81,27 @@ export function describeFormula(formula: ParsedFormula): SymbolDescription {
 }
 
 function describeFormation(symbol: PoiseSymbol): string {
+  if (symbol.kind === 'abbreviation') return `stands for ${symbol.stands ?? '?'} wherever the file writes ${symbol.name} in a formula (charge written on each species)`
   if (symbol.kind === 'component') return 'a component (its own basis, log₁₀ β = 0)'
   if (symbol.logK === null) return 'formation constant not resolved (see the diagnostics)'
   const label = symbol.kind === 'species' ? 'log₁₀ β' : 'log₁₀ K'
   return `${label} = ${symbol.logK.toFixed(2)} (formation from the components)`
 }
 
-/** The symbol a formula written in the document stands for, whichever way it is written (`Ca²⁺`, `Ca^2+`). */
+/** The file's abbreviations as the formula reader takes them, from the last compile's symbols (memoised per symbol list). */
+const tables = new WeakMap<readonly PoiseSymbol[], Abbreviations>()
+export function abbreviationsOf(symbols: readonly PoiseSymbol[]): Abbreviations {
+  let table = tables.get(symbols)
+  if (!table) {
+    table = new Map(symbols.filter((s) => s.kind === 'abbreviation').map((s) => [s.name, { name: s.name, formula: s.stands ?? '', elements: s.elements, from: s.definedAt.from }]))
+    tables.set(symbols, table)
+  }
+  return table
+}
+
+/** The symbol a formula written in the document stands for, whichever way it is written (`Ca²⁺`, `Ca^2+`, `NiCit^-`). */
 export function findSymbol(symbols: readonly PoiseSymbol[], written: string): PoiseSymbol | undefined {
-  const name = parseFormula(written).formula?.name ?? written
+  const name = parseFormula(written, abbreviationsOf(symbols)).formula?.name ?? written
   return symbols.find((symbol) => symbol.name === name)
 }
 
@@ -130,9 +144,12 @@ export function symbolAt(state: EditorState, pos: number): { from: number; to: n
     if (target) return { from: line.from + token.from, to: line.from + token.to, description: target }
   }
   const symbol = findSymbol(symbols, token.image)
-  const formula = symbol ? null : parseFormula(token.image).formula
+  const formula = symbol ? null : parseFormula(token.image, abbreviationsOf(symbols)).formula
   const description = symbol ? describeSymbol(symbol) : formula ? describeFormula(formula) : null
   if (!description) return null
+  const table = abbreviationsOf(symbols)
+  const used = symbol?.kind === 'abbreviation' ? [] : (parseFormula(token.image, table).formula?.abbreviations ?? [])
+  if (used.length) description.writtenWith = used.map((name) => `${name} = ${table.get(name)!.formula}`).join(', ')
   return { from: line.from + token.from, to: line.from + token.to, description }
 }
 
@@ -144,6 +161,7 @@ const KIND_LABEL: Record<SymbolDescription['kind'], string> = {
   solvent: 'solvent',
   formula: 'not defined yet',
   limit: 'what the limit caps',
+  abbreviation: 'abbreviation',
 }
 
 function renderDescription(description: SymbolDescription): HTMLElement {
@@ -158,6 +176,7 @@ function renderDescription(description: SymbolDescription): HTMLElement {
     ['molar mass', description.molarMass],
     ['formation', description.formation],
     ...(description.ionSize ? [['ion size', description.ionSize] as [string, string]] : []),
+    ...(description.writtenWith ? [['written with', description.writtenWith] as [string, string]] : []),
   ]
   const table = dom.appendChild(document.createElement('dl'))
   for (const [label, value] of rows) {

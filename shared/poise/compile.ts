@@ -5,7 +5,9 @@
  */
 import type { Model, ModelComponent, ModelGas, ModelLimit, ModelReaction, ModelSolid, ModelSpecies, ModelSweep, ModelTitration, ActivityModelName, ConstantKind } from './model'
 import type { Diagnostic, SourceRange } from './diagnostics'
-import { parseFormula, type ParsedFormula } from './formula'
+import { parseFormula, type Abbreviations, type ParsedFormula } from './formula'
+import { compileAbbreviations } from './abbreviations'
+import { molarMassOf } from './elements'
 import { Reporter } from './report'
 import { parseFile, type Statement, type Tok } from './statements'
 import { checkComponent } from './components'
@@ -25,7 +27,8 @@ export interface CompileOptions {
 
 export interface PoiseSymbol {
   name: string
-  kind: 'component' | 'species' | 'solid' | 'gas'
+  /** `abbreviation`: a name a file gives a group of atoms (`Cit`), with `stands` the formula it stands for. */
+  kind: 'component' | 'species' | 'solid' | 'gas' | 'abbreviation'
   elements: Record<string, number>
   charge: number
   molarMass: number | null
@@ -33,20 +36,40 @@ export interface PoiseSymbol {
   definedAt: SourceRange
   /** Charged dissolved species: the ion size the extended Debye–Hückel model takes, Å, and where it comes from. */
   ionSize: { angstrom: number; source: IonSizeSource } | null
+  /** Only for an abbreviation: the formula it stands for (`C6H5O7`). */
+  stands?: string
 }
 
 export interface CompileResult { model: Model | null; diagnostics: Diagnostic[]; symbols: PoiseSymbol[] }
 
 const MAX_LIBRARY_DEPTH = 8
 
-function formulaOf(t: Tok, report: Reporter | null): ParsedFormula | null {
-  const r = parseFormula(t.image)
-  if (r.problem && report) {
-    const p = r.problem
-    const fixes = p.fixes?.map((insert) => ({ label: `write ${insert}`, from: t.from, to: t.to, insert }))
-    report.error(p.code, p.message, { from: t.from + p.from, to: t.from + Math.max(p.to, p.from + 1) }, fixes)
+/**
+ * Reads the formulas of one file with its abbreviations: problems become
+ * diagnostics; an abbreviation used above its definition is reported once
+ * (P014); a name whose abbreviation line was refused is not reported again.
+ */
+function formulaReader(report: Reporter, abbreviations: Abbreviations, refused: ReadonlySet<string>) {
+  const reportedEarly = new Set<string>()
+  return (t: Tok): ParsedFormula | null => {
+    const r = parseFormula(t.image, abbreviations)
+    if (r.problem) {
+      const p = r.problem
+      const word = /^[A-Z][A-Za-z]*/.exec(t.image.slice(p.from))?.[0]
+      if (p.code === 'P011' && word && refused.has(word)) return null
+      const fixes = p.fixes?.map((insert) => ({ label: `write ${insert}`, from: t.from, to: t.to, insert }))
+      report.error(p.code, p.message, { from: t.from + p.from, to: t.from + Math.max(p.to, p.from + 1) }, fixes)
+      return null
+    }
+    for (const name of r.formula.abbreviations ?? []) {
+      const defined = abbreviations.get(name)!
+      if (defined.from < t.from || reportedEarly.has(name)) continue
+      reportedEarly.add(name)
+      const at = t.from + Math.max(0, t.image.indexOf(name))
+      report.error('P014', `${name} is used before its abbreviation line (line ${report.lineOf(defined.from)}): move \`abbreviation ${name} = ${defined.formula}\` above its first use`, { from: at, to: at + name.length })
+    }
+    return r.formula
   }
-  return r.formula
 }
 
 interface LibraryContent { reactions: PreparedReaction[]; sources: Record<string, string>; libraries: { name: string; revision: number }[] }
@@ -140,6 +163,10 @@ export function compileSource(source: string, options: CompileOptions, stack: st
     else if (checkRange(report, 'ionicStrength', q.value * info.factor, q.number)) fixedIonicStrength = q.value * info.factor
   }
 
+  const abbreviationLines = compileAbbreviations(of('abbreviation'), report)
+  const abbreviations = abbreviationLines.table
+  const formulaOf = formulaReader(report, abbreviations, abbreviationLines.refused)
+
   const sources: Record<string, string> = {}
   // A cite of a source whose line did not parse is not reported again (nor one of any key, when that line named none).
   const brokenSources = parsed.brokenLines.filter((b) => b.keyword === 'source')
@@ -186,12 +213,12 @@ export function compileSource(source: string, options: CompileOptions, stack: st
   const brokenComponents = new Set<string>(parsed.brokenLines.filter((b) => b.keyword === 'component' && b.name !== null).map((b) => b.name!))
   let unnamedBrokenComponent = false
   for (const c of of('component')) {
-    const f = formulaOf(c.formula, report)
+    const f = formulaOf(c.formula)
     if (!f) {
       incomplete = true
-      const meant = parseFormula(c.formula.image).problem?.fixes ?? []
+      const meant = parseFormula(c.formula.image, abbreviations).problem?.fixes ?? []
       brokenComponents.add(c.formula.image)
-      for (const m of meant) brokenComponents.add(parseFormula(m).formula?.name ?? m)
+      for (const m of meant) brokenComponents.add(parseFormula(m, abbreviations).formula?.name ?? m)
       if (meant.length === 0) unnamedBrokenComponent = true
       continue
     }
@@ -209,7 +236,7 @@ export function compileSource(source: string, options: CompileOptions, stack: st
   const isComponent = (name: string) => componentTok.has(name) || brokenComponents.has(name) || unnamedBrokenComponent
   const prepared: PreparedReaction[] = []
   for (const r of of('reaction')) {
-    const p = prepareReaction(r, report, sources, isComponent, citesBroken)
+    const p = prepareReaction(r, report, sources, isComponent, citesBroken, formulaOf)
     if (p) prepared.push(p)
     else incomplete = true
   }
@@ -246,7 +273,7 @@ export function compileSource(source: string, options: CompileOptions, stack: st
   }
   const suppressed = new Set<string>()
   for (const s of of('solid')) {
-    const f = formulaOf(s.formula, report)
+    const f = formulaOf(s.formula)
     if (!f) continue
     if (f.phase !== 's') { report.error('P056', `suppressed applies to a solid, written with (s): ${f.name} is not one`, s.formula); continue }
     const k = known.get(f.name)
@@ -256,7 +283,7 @@ export function compileSource(source: string, options: CompileOptions, stack: st
   // ion sizes: `ion-size F N Å` overrides the built-in table for the extended Debye–Hückel model.
   const ionSizes = new Map<string, number>()
   for (const s of of('ionSize')) {
-    const f = formulaOf(s.formula, report)
+    const f = formulaOf(s.formula)
     if (!f) continue
     const q = s.quantity
     const info = q.unit ? unitInfo(q.unit.image) : null
@@ -309,16 +336,16 @@ export function compileSource(source: string, options: CompileOptions, stack: st
 
   let sweep: ModelSweep | null = null
   // With a component missing, a sweep check would only add confusing errors.
-  if (sweepStmt && !incomplete) sweep = compileSweep(sweepStmt, components, report)
+  if (sweepStmt && !incomplete) sweep = compileSweep(sweepStmt, components, report, abbreviations)
   let titration: ModelTitration | null = null
   if (!incomplete) {
-    titration = compileTitration({ sample: of('sampleVolume')[0], titrants: of('titrant'), titrate: of('titrate')[0], sweep: sweepStmt }, components, known, report)
+    titration = compileTitration({ sample: of('sampleVolume')[0], titrants: of('titrant'), titrate: of('titrate')[0], sweep: sweepStmt }, components, known, report, abbreviations)
   }
   const limits: ModelLimit[] = []
   if (!incomplete) {
     for (const l of of('limit')) {
       const curve = titration?.values != null
-      const limit = compileLimit(l, components, sweepStmt !== undefined || curve, report)
+      const limit = compileLimit(l, components, sweepStmt !== undefined || curve, report, abbreviations)
       if (limit) limits.push(limit)
     }
   }
@@ -368,6 +395,9 @@ export function compileSource(source: string, options: CompileOptions, stack: st
 
   function buildSymbols(): PoiseSymbol[] {
     const out: PoiseSymbol[] = []
+    for (const a of abbreviations.values()) {
+      out.push({ name: a.name, kind: 'abbreviation', elements: a.elements, charge: 0, molarMass: molarMassOf(a.elements), logK: null, definedAt: report.range(a.from, a.from + a.name.length), ionSize: null, stands: a.formula })
+    }
     for (const c of components) {
       const t = componentTok.get(c.name)!
       out.push({ name: c.name, kind: 'component', elements: c.elements, charge: c.charge, molarMass: c.molarMass || null, logK: 0, definedAt: report.range(t.from, t.to), ionSize: c.phase === 'aq' ? ionSizeOf(c.name, c.charge) : null })
@@ -392,12 +422,12 @@ function sideText(terms: PreparedTerm[]): string {
   return terms.map((t) => (t.coefficient === 1 ? t.formula.name : `${t.coefficient} ${t.formula.name}`)).join(' + ')
 }
 
-function prepareReaction(r: ReactionStatement, report: Reporter, sources: Record<string, string>, isComponent: (n: string) => boolean, citesBroken: (key: string) => boolean): PreparedReaction | null {
+function prepareReaction(r: ReactionStatement, report: Reporter, sources: Record<string, string>, isComponent: (n: string) => boolean, citesBroken: (key: string) => boolean, formulaOf: (t: Tok) => ParsedFormula | null): PreparedReaction | null {
   let ok = true
   const side = (terms: ReactionStatement['left']): PreparedTerm[] => {
     const out: PreparedTerm[] = []
     for (const t of terms) {
-      const f = formulaOf(t.formula, report)
+      const f = formulaOf(t.formula)
       if (!f) { ok = false; continue }
       if (!(t.coefficient > 0) || !Number.isFinite(t.coefficient)) {
         report.error('P010', 'a coefficient must be a positive number', t.coefficientTok ?? t.formula)

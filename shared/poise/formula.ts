@@ -15,7 +15,25 @@ export interface ParsedFormula {
   phase: Phase
   /** g/mol, or null when an element has no standard atomic weight. */
   molarMass: number | null
+  /** The abbreviations of the file this formula uses (`Cit` in `NiCit-`), in order of appearance; absent when none. */
+  abbreviations?: string[]
 }
+
+/** A group of atoms a file names once (`abbreviation Cit = C6H5O7`) and uses in formulas. */
+export interface Abbreviation {
+  name: string
+  /** The formula it stands for, as written (`C6H5O7`). */
+  formula: string
+  elements: Record<string, number>
+  /** Offset of its name in the file: a use above it is reported. */
+  from: number
+}
+
+/** The abbreviations of one file, by name. */
+export type Abbreviations = ReadonlyMap<string, Abbreviation>
+
+/** What an abbreviation's name may be: a capital letter, then letters only (digits would read as a count). */
+export const ABBREVIATION_NAME = /^[A-Z][A-Za-z]{0,11}$/
 
 export interface FormulaProblem {
   code: 'P010' | 'P011' | 'P012'
@@ -53,15 +71,39 @@ function problem(code: FormulaProblem['code'], message: string, from: number, to
   return { formula: null, problem: fixes ? { code, message, from, to, fixes } : { code, message, from, to } }
 }
 
-interface CoreParse { elements: Record<string, number>; canonical: string; error: FormulaProblem | null }
+interface CoreParse { elements: Record<string, number>; canonical: string; error: FormulaProblem | null; used: string[] }
 
-/** Parses the body of a formula (no charge, no phase): element symbols, counts, brackets, hydrate dots. */
-function parseCore(text: string, base: number): CoreParse {
+/** The abbreviation that starts at `i`, the longest first; it must not run on into a lower-case letter (`Cit` is not in `Citr`). */
+function abbreviationAt(text: string, i: number, names: readonly string[]): string | null {
+  for (const name of names) {
+    if (text.startsWith(name, i) && !/[a-z]/.test(text[i + name.length] ?? '')) return name
+  }
+  return null
+}
+
+/** The message for a capitalised word that is no element symbol: it may be an abbreviation the file has not defined. */
+function unknownSymbolMessage(text: string, start: number, symbol: string, abbreviations: Abbreviations | undefined): string {
+  const run = /^[A-Z][A-Za-z]*/.exec(text.slice(start))![0]
+  let around = start
+  while (around > 0 && /[A-Za-z]/.test(text[around - 1]!)) around--
+  const whole = /^[A-Za-z]*/.exec(text.slice(around))![0]
+  const elementHint = `'${symbol}' is not an element symbol (element symbols are one capital letter and at most one small one: Cu, Cl, N)`
+  // A defined abbreviation in other letter case (CIT for Cit), standing alone or at the end of the letters.
+  const near = [...(abbreviations?.keys() ?? [])].find((name) => [run, whole].some((w) => w.toLowerCase() === name.toLowerCase()))
+  if (near) return `'${whole.toLowerCase() === near.toLowerCase() ? whole : run}' is neither an element symbol nor an abbreviation of this file: did you mean ${near}? (letter case counts)`
+  if (run.length < 2 || !ABBREVIATION_NAME.test(run)) return elementHint
+  return `'${run}' is neither an element symbol nor an abbreviation of this file: to name a group of atoms, add \`abbreviation ${run} = FORMULA\` above its first use (element symbols are one capital letter and at most one small one: Cu, Cl, N)`
+}
+
+/** Parses the body of a formula (no charge, no phase): element symbols, abbreviations, counts, brackets, hydrate dots. */
+function parseCore(text: string, base: number, abbreviations?: Abbreviations): CoreParse {
   const elements: Record<string, number> = {}
+  const names = abbreviations ? [...abbreviations.keys()].sort((a, b) => b.length - a.length) : []
+  const used: string[] = []
   let i = 0
   let canonical = ''
   const fail = (message: string, code: FormulaProblem['code'], from: number, to: number): CoreParse =>
-    ({ elements, canonical, error: { code, message, from: base + from, to: base + to } })
+    ({ elements, canonical, used, error: { code, message, from: base + from, to: base + to } })
 
   const readCount = (): number | null => {
     let digits = ''
@@ -97,12 +139,18 @@ function parseCore(text: string, base: number): CoreParse {
         i++
         inner = sub as Record<string, number>
         if (Object.keys(inner).length === 0) return fail('empty brackets in a formula', 'P010', start, i)
+      } else if (ch >= 'A' && ch <= 'Z' && abbreviationAt(text, i, names) !== null) {
+        const name = abbreviationAt(text, i, names)!
+        i += name.length
+        canonical += name
+        if (!used.includes(name)) used.push(name)
+        inner = abbreviations!.get(name)!.elements
       } else if (ch >= 'A' && ch <= 'Z') {
         i++
         while (i < text.length && text[i]! >= 'a' && text[i]! <= 'z') i++
         const symbol = text.slice(start, i)
         if (!isElement(symbol)) {
-          return fail(`'${symbol}' is not an element symbol (element symbols are one capital letter and at most one small one: Cu, Cl, N)`, 'P011', start, i)
+          return fail(unknownSymbolMessage(text, start, symbol, abbreviations), 'P011', start, i)
         }
         canonical += symbol
         inner = { [symbol]: 1 }
@@ -135,7 +183,7 @@ function parseCore(text: string, base: number): CoreParse {
     if ('error' in part) return part as CoreParse
     for (const [el, n] of Object.entries(part as Record<string, number>)) elements[el] = (elements[el] ?? 0) + n * (multiplier ?? 1)
   }
-  return { elements, canonical, error: null }
+  return { elements, canonical, used, error: null }
 }
 
 interface ChargeSplit { body: string; charge: number; problem: FormulaProblem | null }
@@ -200,22 +248,34 @@ function splitCharge(body: string, phaseSuffix: string): ChargeSplit {
 }
 
 // The editor recompiles on every keystroke and a file repeats its formulas:
-// results are memoised (they are treated as read-only by every caller).
+// results are memoised (they are treated as read-only by every caller), per
+// table of abbreviations (a compile makes one table and reads it throughout).
 const cache = new Map<string, FormulaResult>()
+const abbreviatedCaches = new WeakMap<Abbreviations, Map<string, FormulaResult>>()
 const CACHE_LIMIT = 20000
 
-/** Parses a formula such as `Cu(NH3)4^2+`, `CaSO4·2H2O(s)` or `SO₄²⁻`. Never throws. Treat the result as read-only. */
-export function parseFormula(text: string): FormulaResult {
-  let r = cache.get(text)
+/**
+ * Parses a formula such as `Cu(NH3)4^2+`, `CaSO4·2H2O(s)` or `SO₄²⁻`, and
+ * with a file's abbreviations `NiCit-` or `Ni(Cit)2^4-` (the name keeps the
+ * abbreviation as written; the composition counts its atoms). Never throws.
+ * Treat the result as read-only.
+ */
+export function parseFormula(text: string, abbreviations?: Abbreviations): FormulaResult {
+  let memo = cache
+  if (abbreviations && abbreviations.size > 0) {
+    memo = abbreviatedCaches.get(abbreviations) ?? new Map()
+    abbreviatedCaches.set(abbreviations, memo)
+  }
+  let r = memo.get(text)
   if (r === undefined) {
-    if (cache.size >= CACHE_LIMIT) cache.clear()
-    r = parseFormulaUncached(text)
-    cache.set(text, r)
+    if (memo.size >= CACHE_LIMIT) memo.clear()
+    r = parseFormulaUncached(text, abbreviations)
+    memo.set(text, r)
   }
   return r
 }
 
-function parseFormulaUncached(text: string): FormulaResult {
+function parseFormulaUncached(text: string, abbreviations?: Abbreviations): FormulaResult {
   let body = text
   let phase: Phase = 'aq'
   let phaseSuffix = ''
@@ -229,7 +289,7 @@ function parseFormulaUncached(text: string): FormulaResult {
   }
   const split = splitCharge(body, phaseSuffix)
   if (split.problem) return { formula: null, problem: split.problem }
-  const core = parseCore(split.body, 0)
+  const core = parseCore(split.body, 0, abbreviations)
   if (core.error) return { formula: null, problem: core.error }
   const tooMany = Object.entries(core.elements).find(([, n]) => !(n <= MAX_ATOM_COUNT))
   if (tooMany) return problem('P010', `${tooMany[0]} is counted more than ${MAX_ATOM_COUNT} times: a formula holds 1 to ${MAX_ATOM_COUNT} atoms of each element`, 0, text.length)
@@ -244,6 +304,7 @@ function parseFormulaUncached(text: string): FormulaResult {
       charge: split.charge,
       phase,
       molarMass: molarMassOf(core.elements),
+      ...(core.used.length ? { abbreviations: core.used } : {}),
     },
     problem: null,
   }

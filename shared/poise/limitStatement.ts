@@ -8,7 +8,7 @@ import type { ModelComponent, ModelLimit } from './model'
 import type { Reporter } from './report'
 import type { Statement } from './statements'
 import { ATOMIC_WEIGHTS, isElement } from './elements'
-import { parseFormula } from './formula'
+import { parseFormula, type Abbreviations } from './formula'
 import { unitInfo, UNIT_HINTS } from './units'
 import { checkRange, formatNumber } from './limits'
 
@@ -21,7 +21,7 @@ export function withoutCharge(name: string): string {
 
 const UNIT_WORDS = UNIT_HINTS.concentration
 
-export function compileLimit(s: LimitStatement, components: ModelComponent[], hasSweep: boolean, report: Reporter): ModelLimit | null {
+export function compileLimit(s: LimitStatement, components: ModelComponent[], hasSweep: boolean, report: Reporter, abbreviations?: Abbreviations): ModelLimit | null {
   const written = s.target.image
   let targetKind: ModelLimit['targetKind']
   let target: string
@@ -42,7 +42,7 @@ export function compileLimit(s: LimitStatement, components: ModelComponent[], ha
     target = written
     grams = ATOMIC_WEIGHTS[written] ?? null
   } else {
-    const name = parseFormula(written).formula?.name ?? written
+    const name = parseFormula(written, abbreviations).formula?.name ?? written
     const j = components.findIndex((c) => c.name === name)
     if (j < 0) {
       report.error('P084', `${written} is neither a component nor an element symbol: write a component of this file (${components.map((c) => c.name).join(', ')}) or an element one of them holds (such as Ni)`, s.target)

@@ -23,7 +23,7 @@ function alternatives(paths: TokenType[][][]): string {
 }
 
 const RULE_NAMES: Record<string, string> = {
-  statement: 'a statement (system, temperature, activity, ionic-strength, ion-size, component, reaction, solid, source, use, sweep, limit, sample volume, titrant or titrate)',
+  statement: 'a statement (system, temperature, activity, ionic-strength, ion-size, abbreviation, component, reaction, solid, source, use, sweep, limit, sample volume, titrant or titrate)',
   componentSpec: 'a component spec (total, free, pH, pressure, balance or excess)',
   sweepVariable: 'a sweep variable (pH, total F, temperature or pressure F)',
   titrateStatement: "'from A to B' or 'to pH X' after titrate",
@@ -51,6 +51,7 @@ class PoiseParser extends CstParser {
     { ALT: () => this.SUBRULE(this.activityStatement) },
     { ALT: () => this.SUBRULE(this.ionicStrengthStatement) },
     { ALT: () => this.SUBRULE(this.ionSizeStatement) },
+    { ALT: () => this.SUBRULE(this.abbreviationStatement) },
     { ALT: () => this.SUBRULE(this.componentStatement) },
     { ALT: () => this.SUBRULE(this.reactionStatement) },
     { ALT: () => this.SUBRULE(this.solidStatement) },
@@ -161,6 +162,14 @@ class PoiseParser extends CstParser {
     this.CONSUME(T.IonSizeKeyword)
     this.CONSUME(T.Formula)
     this.SUBRULE(this.quantity)
+  })
+
+  /** `abbreviation NAME = FORMULA`: a group of atoms named once, written inside later formulas. */
+  private abbreviationStatement = this.RULE('abbreviationStatement', () => {
+    this.CONSUME(T.AbbreviationKeyword)
+    this.CONSUME1(T.Formula)
+    this.CONSUME(T.Equals)
+    this.CONSUME2(T.Formula)
   })
 
   private componentStatement = this.RULE('componentStatement', () => {

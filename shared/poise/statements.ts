@@ -22,6 +22,7 @@ export type Statement = Base & (
   | { kind: 'activity'; model: 'ideal' | 'davies' | 'debye-huckel' }
   | { kind: 'ionicStrength'; quantity: Quantity }
   | { kind: 'ionSize'; formula: Tok; quantity: Quantity }
+  | { kind: 'abbreviation'; name: Tok; formula: Tok }
   | { kind: 'component'; formula: Tok; spec: { mode: 'total' | 'free' | 'pH' | 'pressure' | 'balance' | 'excess'; tok: Tok; quantity: Quantity | null } | null }
   | { kind: 'reaction'; left: Term[]; right: Term[]; arrow: Tok; constantKind: Tok; constantValue: Quantity; enthalpies: { tok: Tok; quantity: Quantity }[]; cites: { tok: Tok; text: string | null; key: Tok | null }[] }
   | { kind: 'solid'; formula: Tok }
@@ -99,6 +100,8 @@ function toStatement(cst: CstNode, from: number, to: number): Statement {
       return { kind: 'ionicStrength', from, to, keyword: kw('IonicStrengthKeyword'), quantity: quantity(node(inner, 'quantity')) }
     case 'ionSizeStatement':
       return { kind: 'ionSize', from, to, keyword: kw('IonSizeKeyword'), formula: tok(token(inner, 'Formula')), quantity: quantity(node(inner, 'quantity')) }
+    case 'abbreviationStatement':
+      return { kind: 'abbreviation', from, to, keyword: kw('AbbreviationKeyword'), name: tok(token(inner, 'Formula', 0)), formula: tok(token(inner, 'Formula', 1)) }
     case 'componentStatement': {
       const specNode = nodes(inner, 'componentSpec')[0]
       let spec: Extract<Statement, { kind: 'component' }>['spec'] = null

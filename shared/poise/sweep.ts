@@ -2,7 +2,7 @@
 import type { ModelComponent, ModelSweep } from './model'
 import type { Reporter } from './report'
 import type { Statement, Quantity } from './statements'
-import { parseFormula } from './formula'
+import { parseFormula, type Abbreviations } from './formula'
 import { convert, unitInfo, UNIT_HINTS, type Dimension } from './units'
 import { checkRange, formatNumber, MAX_SWEEP_POINTS, type LimitName } from './limits'
 
@@ -10,7 +10,7 @@ type SweepStatement = Extract<Statement, { kind: 'sweep' }>
 
 const round = (x: number) => Number(x.toPrecision(12))
 
-export function compileSweep(s: SweepStatement, components: ModelComponent[], report: Reporter): ModelSweep | null {
+export function compileSweep(s: SweepStatement, components: ModelComponent[], report: Reporter, abbreviations?: Abbreviations): ModelSweep | null {
   let component: ModelComponent | null = null
   if (s.variable === 'pH' && !components.some((c) => c.name === 'H+')) {
     report.error('P080', 'a pH sweep needs H+ as a component: add `component H+ balance`', s.variableTok)
@@ -18,7 +18,7 @@ export function compileSweep(s: SweepStatement, components: ModelComponent[], re
   }
   if (s.variable === 'total' || s.variable === 'pressure') {
     const name = s.target!.image
-    component = components.find((c) => c.name === (parseFormula(name).formula?.name ?? name)) ?? null
+    component = components.find((c) => c.name === (parseFormula(name, abbreviations).formula?.name ?? name)) ?? null
     const want = s.variable
     if (!component || component.mode !== want) {
       report.error('P080', `sweep ${want} needs a component declared with \`${want}\`: ${name} is ${component ? `declared with ${component.mode}` : 'not a component'}`, s.target!)

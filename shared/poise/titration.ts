@@ -7,7 +7,7 @@ import type { ModelComponent, ModelTitrant, ModelTitration } from './model'
 import type { Reporter } from './report'
 import type { Statement, Quantity, Tok } from './statements'
 import type { Known } from './reactions'
-import { parseFormula } from './formula'
+import { parseFormula, type Abbreviations } from './formula'
 import { unitInfo, UNIT_HINTS } from './units'
 import { checkRange, formatNumber, MAX_SWEEP_POINTS } from './limits'
 
@@ -46,7 +46,7 @@ function litres(q: Quantity, fallbackUnit: Tok | null, what: string, report: Rep
   return checkRange(report, 'volume', v, q.number, { what }) ? v : null
 }
 
-export function compileTitration(s: TitrationStatements, components: ModelComponent[], known: Map<string, Known>, report: Reporter): ModelTitration | null {
+export function compileTitration(s: TitrationStatements, components: ModelComponent[], known: Map<string, Known>, report: Reporter, abbreviations?: Abbreviations): ModelTitration | null {
   const { sample, titrants, titrate, sweep } = s
   if (!titrate) {
     const first = sample ?? titrants[0]
@@ -86,7 +86,7 @@ export function compileTitration(s: TitrationStatements, components: ModelCompon
   let gross = 0
   const seen = new Set<string>()
   for (const t of titrants) {
-    const parsed = parseFormula(t.formula.image)
+    const parsed = parseFormula(t.formula.image, abbreviations)
     const f = parsed.formula
     if (!f) {
       const p = parsed.problem

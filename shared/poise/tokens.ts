@@ -19,6 +19,8 @@ export const StringLiteral = createToken({ name: 'String', pattern: /"(?:[^"\\\n
 /** An opening quote with no closing one on the same line; the checker reports it. */
 export const UnterminatedString = createToken({ name: 'UnterminatedString', pattern: /"(?:[^"\\\n\r]|\\.)*/ })
 export const Arrow = createToken({ name: 'Arrow', pattern: /<=>|⇌/, label: '<=>' })
+/** Between an abbreviation's name and its formula: `abbreviation Cit = C6H5O7`. */
+export const Equals = createToken({ name: 'Equals', pattern: '=', label: "'='" })
 export const NumberLiteral = createToken({
   name: 'Number',
   pattern: /-?(?:10\^-?\d+(?:\.\d+)?|\d+(?:\.\d*)?(?:[eE][+-]?\d+)?|\.\d+(?:[eE][+-]?\d+)?)/,
@@ -116,6 +118,7 @@ export const SampleKeyword = keyword('SampleKeyword', 'sample')
 export const VolumeKeyword = keyword('VolumeKeyword', 'volume')
 export const TitrantKeyword = keyword('TitrantKeyword', 'titrant')
 export const TitrateKeyword = keyword('TitrateKeyword', 'titrate')
+export const AbbreviationKeyword = keyword('AbbreviationKeyword', 'abbreviation')
 
 /** A chemical formula: starts with an upper-case letter; its inside is checked by formula.ts. */
 export const Formula = createToken({
@@ -132,12 +135,12 @@ export const KEYWORD_TOKENS: TokenType[] = [
   PHKeyword, PressureKeyword, BalanceKeyword, ExcessKeyword, SuppressedKeyword, IdealKeyword,
   DaviesKeyword, DebyeHuckelKeyword, EnthalpyKeyword, CiteKeyword, FromKeyword, ToKeyword,
   StepKeyword, PointsKeyword, LogKeyword, LimitKeyword, DissolvedKeyword,
-  SampleKeyword, VolumeKeyword, TitrantKeyword, TitrateKeyword,
+  SampleKeyword, VolumeKeyword, TitrantKeyword, TitrateKeyword, AbbreviationKeyword,
 ]
 
 /** Order matters: the first pattern that matches wins (keywords before Word, units before Formula). */
 export const allTokens: TokenType[] = [
-  Comment, Newline, Whitespace, StringLiteral, UnterminatedString, Arrow, NumberLiteral, Unit,
+  Comment, Newline, Whitespace, StringLiteral, UnterminatedString, Arrow, Equals, NumberLiteral, Unit,
   ConstantKind, ...KEYWORD_TOKENS, Word, Formula, Plus, At,
 ]
 

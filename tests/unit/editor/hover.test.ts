@@ -114,3 +114,35 @@ describe('hover on the target of a limit', () => {
     expect(found.description.molarMass).toBe('17.031 g/mol (a mass unit counts the whole NH₃)')
   })
 })
+
+describe('hover through an abbreviation', () => {
+  const citrate = `system "Nickel citrate"
+abbreviation Cit = C6H5O7
+component H+ balance
+component Ni^2+ total 1 mmol/L
+component Cit^3- total 2 mmol/L
+reaction H2O <=> H+ + OH- pKw 14.00 cite "from memory"
+reaction Ni^2+ + Cit^3- <=> NiCit^- logbeta 5.4 cite "from memory"
+`
+  function stateOf(text: string) {
+    const state = EditorState.create({ doc: text, extensions: [poiseSymbolsField] })
+    return state.update({ effects: setPoiseSymbols.of(compile(text).symbols) }).state
+  }
+
+  it('on the name in its definition: what it stands for and its molar mass', () => {
+    const found = symbolAt(stateOf(citrate), citrate.indexOf('Cit ='))!
+    expect(found.description.kind).toBe('abbreviation')
+    expect(found.description.formation).toContain('stands for C6H5O7')
+    // IUPAC abridged atomic weights: 6·12.011 + 5·1.008 + 7·15.999 = 189.099 g/mol.
+    expect(found.description.molarMass).toBe('189.099 g/mol')
+  })
+
+  it('on a species written with it: the expanded composition, the charge and the abbreviation used', () => {
+    const found = symbolAt(stateOf(citrate), citrate.indexOf('NiCit^-') + 2)!
+    expect(found.description.kind).toBe('species')
+    expect(found.description.composition).toEqual([{ element: 'Ni', count: 1 }, { element: 'C', count: 6 }, { element: 'H', count: 5 }, { element: 'O', count: 7 }])
+    expect(found.description.charge).toBe('−1')
+    expect(found.description.formation).toContain('log₁₀ β = 5.40')
+    expect(found.description.writtenWith).toBe('Cit = C6H5O7')
+  })
+})
