@@ -8,7 +8,7 @@
 import type { Completion, CompletionContext, CompletionResult } from '@codemirror/autocomplete'
 import type { EditorState } from '@codemirror/state'
 import type { PoiseSymbol } from '../shared/poise/index'
-import { CONSTANT_KINDS, KEYWORDS, UNITS } from '../shared/poise/tokens'
+import { CONSTANT_KINDS, KEYWORDS, UNCERTAINTY_SIGNS, UNITS } from '../shared/poise/tokens'
 import { unitInfo, type Dimension } from '../shared/poise/units'
 import { poiseSymbolsField } from './analysis'
 import { lexLine, type LineToken } from './language'
@@ -17,7 +17,7 @@ import { lexLine, type LineToken } from './language'
 const STATEMENT_WORDS = ['system', 'temperature', 'activity', 'ionic-strength', 'ion-size', 'component', 'reaction', 'solid', 'source', 'use', 'sweep', 'limit', 'sample', 'titrant', 'titrate']
 const COMPONENT_SPECS = ['total', 'free', 'pH', 'pressure', 'balance', 'excess']
 const ACTIVITY_MODELS = ['ideal', 'davies', 'debye-huckel']
-const REACTION_TAIL = ['dH', 'cite']
+const REACTION_TAIL = ['dH', 'cite', 'fit']
 const SWEEP_VARIABLES = ['pH', 'total', 'temperature', 'pressure']
 const SWEEP_WORDS = ['from', 'to', 'step', 'points', 'log']
 const TITRATE_WORDS = ['to', 'step', 'points']
@@ -134,11 +134,19 @@ function planReaction(before: LineToken[], symbols: readonly PoiseSymbol[]): Com
   const last = before[before.length - 1]!
   const kindAt = before.findIndex((t) => t.role === 'constantKind')
   if (kindAt >= 0) {
+    // Each clause once: `fit`, `dH` and `cite` already written are not offered again.
+    const written = new Set(before.map((t) => t.image))
+    const tail = known(REACTION_TAIL, KEYWORDS).filter((word) => !written.has(word))
     if (last.role === 'number') {
       const afterEnthalpy = before[before.length - 2]?.image === 'dH'
-      return afterEnthalpy ? unitsOf(QUANTITY_AFTER.dH!) : { kind: 'keyword', words: known(REACTION_TAIL, KEYWORDS) }
+      if (afterEnthalpy) return unitsOf(QUANTITY_AFTER.dH!)
+      // Right after the constant's value: its uncertainty may follow (`pKa 4.70 ± 0.05`).
+      const afterValue = before.length - 2 === kindAt
+      return { kind: 'keyword', words: afterValue ? [...UNCERTAINTY_SIGNS, ...tail] : tail }
     }
-    return last.role === 'unit' ? { kind: 'keyword', words: known(REACTION_TAIL, KEYWORDS) } : null
+    // After a clause's end: a unit (dH), a citation (text or key), or `fit`.
+    const clauseEnd = last.role === 'unit' || last.image === 'fit' || ((last.role === 'string' || last.role === 'word') && before[before.length - 2]?.image === 'cite')
+    return clauseEnd ? { kind: 'keyword', words: tail } : null
   }
   // Before the constant: species are joined by `+`, a number is a coefficient.
   const hasArrow = before.some((t) => t.role === 'arrow')

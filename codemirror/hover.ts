@@ -8,7 +8,11 @@ import type { EditorState } from '@codemirror/state'
 import type { PoiseSymbol } from '../shared/poise/index'
 import { isWater, parseFormula, type Abbreviations, type ParsedFormula } from '../shared/poise/formula'
 import { poiseSymbolsField } from './analysis'
-import { lexLine } from './language'
+import { lexLine, type LineToken } from './language'
+import type { ConstantKind } from '../shared/poise/model'
+import { logKFromConstant, logKUncertaintyFromConstant } from '../shared/poise/reactions'
+import { formatNumber } from '../shared/poise/limits'
+import { parseNumber } from '../shared/poise/units'
 import { typesetFormula } from '../shared/results/typeset'
 import { withoutCharge } from '../shared/poise/limitStatement'
 
@@ -153,6 +157,59 @@ export function symbolAt(state: EditorState, pos: number): { from: number; to: n
   return { from: line.from + token.from, to: line.from + token.to, description }
 }
 
+/** What hover says about a reaction's constant: its kind, value, log K, the ± and whether it is fitted. */
+export interface ConstantDescription {
+  title: string
+  rows: [string, string][]
+}
+
+/**
+ * The constant of a reaction line, read from the line's own tokens (so hover
+ * works while the file has errors elsewhere), when `offset` is on its kind,
+ * value, ±, uncertainty or `fit`. Null elsewhere.
+ */
+export function constantAt(tokens: readonly LineToken[], offset: number): { from: number; to: number; description: ConstantDescription } | null {
+  if (tokens[0]?.image !== 'reaction') return null
+  const k = tokens.findIndex((t) => t.role === 'constantKind')
+  const valueTok = tokens[k + 1]
+  if (k < 0 || valueTok?.role !== 'number') return null
+  const sign = tokens[k + 2]?.role === 'plusMinus' ? tokens[k + 2]! : null
+  const sigmaTok = sign && tokens[k + 3]?.role === 'number' ? tokens[k + 3]! : null
+  const fitTok = tokens.slice(k + 2).find((t) => t.name === 'FitKeyword') ?? null
+  const parts = [tokens[k]!, valueTok, sign, sigmaTok, fitTok].filter((t): t is LineToken => t !== null)
+  const under = parts.find((t) => t.from <= offset && offset <= t.to)
+  if (!under) return null
+  const kind = tokens[k]!.image as ConstantKind
+  const value = parseNumber(valueTok.image)
+  const logK = logKFromConstant(kind, value)
+  const rows: [string, string][] = [['value', `${kind} ${valueTok.image}`]]
+  if (logK !== null && kind !== 'logK') rows.push(['log₁₀ K', `${formatNumber(logK)} (of the reaction as written)`])
+  if (sigmaTok) {
+    const sigma = parseNumber(sigmaTok.image)
+    const inLog = logK !== null && sigma > 0 ? logKUncertaintyFromConstant(kind, value, sigma) : null
+    const same = inLog !== null && Math.abs(inLog - sigma) < 1e-12
+    rows.push(['uncertainty', `± ${sigmaTok.image}${inLog !== null && !same ? ` (± ${formatNumber(inLog)} in log₁₀ K)` : ''}; answers carry a ± from it`])
+  } else rows.push(['uncertainty', 'none given: write ± after the value (e.g. ± 0.05) to carry it into the answers'])
+  rows.push(['fit', fitTok ? 'to be fitted to a data set (the value is the starting guess)' : 'no: the value is used as written'])
+  const first = parts[0]!
+  const last = parts[parts.length - 1]!
+  return { from: first.from, to: Math.max(last.to, under.to), description: { title: `constant · ${kind}`, rows } }
+}
+
+function renderConstant(description: ConstantDescription): HTMLElement {
+  const dom = document.createElement('div')
+  dom.className = 'cm-poise-hover'
+  const title = dom.appendChild(document.createElement('div'))
+  title.className = 'cm-poise-hover-title'
+  title.textContent = description.title
+  const table = dom.appendChild(document.createElement('dl'))
+  for (const [label, value] of description.rows) {
+    table.appendChild(document.createElement('dt')).textContent = label
+    table.appendChild(document.createElement('dd')).textContent = value
+  }
+  return dom
+}
+
 const KIND_LABEL: Record<SymbolDescription['kind'], string> = {
   component: 'component',
   species: 'species',
@@ -187,6 +244,11 @@ function renderDescription(description: SymbolDescription): HTMLElement {
 }
 
 export const poiseHover = hoverTooltip((view, pos): Tooltip | null => {
+  const line = view.state.doc.lineAt(pos)
+  const constant = constantAt(lexLine(line.text), pos - line.from)
+  if (constant) {
+    return { pos: line.from + constant.from, end: line.from + constant.to, above: true, create: () => ({ dom: renderConstant(constant.description) }) }
+  }
   const found = symbolAt(view.state, pos)
   if (!found) return null
   return {

@@ -21,6 +21,7 @@ export type TokenRole =
   | 'comment'
   | 'arrow'
   | 'plus'
+  | 'plusMinus'
   | 'punctuation'
   | 'invalid'
 
@@ -67,6 +68,7 @@ export const TOKEN_STYLES: Readonly<Record<string, TokenStyle | null>> = {
   TitrantKeyword: statement,
   TitrateKeyword: statement,
   AbbreviationKeyword: statement,
+  FitKeyword: keyword,
   TotalKeyword: keyword,
   FreeKeyword: keyword,
   PHKeyword: keyword,
@@ -87,6 +89,7 @@ export const TOKEN_STYLES: Readonly<Record<string, TokenStyle | null>> = {
   Word: { tag: tags.labelName, role: 'word' },
   Formula: { tag: tags.typeName, role: 'formula' },
   Plus: { tag: tags.arithmeticOperator, role: 'plus' },
+  PlusMinus: { tag: tags.arithmeticOperator, role: 'plusMinus' },
   At: { tag: tags.punctuation, role: 'punctuation' },
 }
 

@@ -3,7 +3,7 @@
  * and gases added or removed, formation constants moved (old → new and the
  * change in log K), totals and conditions changed, a solid allowed to form or
  * suppressed, an ion size of the extended Debye–Hückel model moved, citations
- * changed.
+ * changed, a constant's ± or `fit` mark changed.
  *
  * Constants are compared as the model uses them — the log10 formation
  * constant from components at the reference temperature — so rewriting a
@@ -208,6 +208,20 @@ function citationChanges(a: Model, b: Model): ModelChange[] {
   return changes
 }
 
+/** A constant's ± or its `fit` mark that changed (models stored before uncertainties read as none). */
+function uncertaintyChanges(a: Model, b: Model): ModelChange[] {
+  const before = new Map<string, ModelReaction>(a.reactions.map(r => [r.defines, r]))
+  const words = (r: ModelReaction) => `${r.uncertainty == null ? 'no ±' : `${r.kind} ± ${quantity(r.uncertainty)}`}${r.fit ? ', fit' : ''}`
+  const changes: ModelChange[] = []
+  for (const now of b.reactions) {
+    const old = before.get(now.defines)
+    if (!old || words(old) === words(now)) continue
+    const entity: ModelEntity = b.solids.some(x => x.name === now.defines) ? 'solid' : b.gases.some(x => x.name === now.defines) ? 'gas' : 'species'
+    changes.push({ kind: 'assumption', entity, name: now.defines, from: words(old), to: words(now), size: 0.25, fromLine: old.line, toLine: now.line })
+  }
+  return changes
+}
+
 /**
  * Every change from `a` (the old revision) to `b` (the new), largest first:
  * species appearing or going, then conditions, then constants and totals by
@@ -220,6 +234,7 @@ export function diffModels(a: Model, b: Model): ModelChange[] {
     ...conditionChanges(a, b),
     ...ionSizeChanges(a, b),
     ...citationChanges(a, b),
+    ...uncertaintyChanges(a, b),
   ]
   return changes.sort((x, y) => y.size - x.size || x.name.localeCompare(y.name))
 }

@@ -11,7 +11,7 @@ import { molarMassOf } from './elements'
 import { Reporter } from './report'
 import { parseFile, type Statement, type Tok } from './statements'
 import { checkComponent } from './components'
-import { checkBalance, kindMismatch, logKFromConstant, resolveReactions, type Known, type PreparedReaction, type PreparedTerm, type ReactionStatement } from './reactions'
+import { checkBalance, kindMismatch, logKFromConstant, logKUncertaintyFromConstant, resolveReactions, type Known, type PreparedReaction, type PreparedTerm, type ReactionStatement } from './reactions'
 import { compileSweep } from './sweep'
 import { compileLimit } from './limitStatement'
 import { compileTitration } from './titration'
@@ -246,18 +246,25 @@ export function compileSource(source: string, options: CompileOptions, stack: st
   components.forEach((c, j) => {
     const nu = new Array<number>(width).fill(0)
     nu[j] = 1
-    known.set(c.name, { formation: { nu, logK: 0, dH: 0 }, formula: { name: c.name, elements: c.elements, charge: c.charge, phase: c.phase, molarMass: c.molarMass }, line: c.line, byReaction: null })
+    known.set(c.name, { formation: { nu, logK: 0, dH: 0, weights: new Map() }, formula: { name: c.name, elements: c.elements, charge: c.charge, phase: c.phase, molarMass: c.molarMass }, line: c.line, byReaction: null })
   })
   const water = parseFormula('H2O').formula!
-  known.set('H2O', { formation: { nu: new Array<number>(width).fill(0), logK: 0, dH: 0 }, formula: water, line: 0, byReaction: null })
+  known.set('H2O', { formation: { nu: new Array<number>(width).fill(0), logK: 0, dH: 0, weights: new Map() }, formula: water, line: 0, byReaction: null })
   for (const name of componentTok.keys()) {
     // A component that failed its checks still counts as known, so its reactions do not cascade into errors.
-    if (!known.has(name)) known.set(name, { formation: { nu: new Array<number>(width).fill(0), logK: 0, dH: 0 }, formula: water, line: 0, byReaction: null })
+    if (!known.has(name)) known.set(name, { formation: { nu: new Array<number>(width).fill(0), logK: 0, dH: 0, weights: new Map() }, formula: water, line: 0, byReaction: null })
   }
   const resolution = resolveReactions(prepared, libraryReactions, known, components.map((c) => c.name), report, incomplete)
   for (const { reaction, message } of resolution.libraryRelations) {
     const useStmt = of('use').find((u) => u.name === reaction.library) ?? of('use')[0]
     if (useStmt) report.error('P060', `library "${reaction.library}" line ${reaction.line}: ${message}`, useStmt.nameTok)
+  }
+  // `fit` in a library: the library's constants are shared by every system that uses it, so a system never fits them in place.
+  for (const u of of('use')) {
+    const marked = resolution.used.filter((r) => r.library === u.name && r.fit)
+    if (marked.length === 0) continue
+    const lines = marked.map((r) => r.line).join(', ')
+    report.warning('W111', `library "${u.name}" marks ${marked.length === 1 ? 'a constant' : `${marked.length} constants`} fit (line ${lines}), but a library's constants stay fixed in the systems that use it: to fit ${marked.length === 1 ? 'it' : 'one'} here, copy its reaction into this file with fit after the value (a reaction in the file takes the place of the library's)`, u.nameTok)
   }
 
   // warnings
@@ -369,13 +376,16 @@ export function compileSource(source: string, options: CompileOptions, stack: st
       if (c.phase !== 'aq') return
       const nu = new Array<number>(width).fill(0)
       nu[j] = 1
-      species.push({ name: c.name, charge: c.charge, elements: { ...c.elements }, componentIndex: j, nu, logK: 0, logKRef: 0, dH: 0, line: c.line, ...ionSizeFields(c.name, c.charge) })
+      species.push({ name: c.name, charge: c.charge, elements: { ...c.elements }, componentIndex: j, nu, logK: 0, logKRef: 0, dH: 0, line: c.line, reactionWeights: [], ...ionSizeFields(c.name, c.charge) })
     })
+    const reactionIndex = new Map(resolution.used.map((r, i) => [r, i]))
+    const reactionWeights = (weights: Map<PreparedReaction, number>) =>
+      [...weights].map(([r, weight]) => ({ reaction: reactionIndex.get(r)!, weight })).sort((a, b) => a.reaction - b.reaction)
     for (const r of resolution.used) {
       const name = resolution.defines.get(r)!
       const k = known.get(name)!
       const f = k.formula
-      const formation = { nu: k.formation.nu, logK: vantHoff(k.formation.logK, k.formation.dH, temperatureC), logKRef: k.formation.logK, dH: k.formation.dH, line: r.line }
+      const formation = { nu: k.formation.nu, logK: vantHoff(k.formation.logK, k.formation.dH, temperatureC), logKRef: k.formation.logK, dH: k.formation.dH, line: r.line, reactionWeights: reactionWeights(k.formation.weights) }
       if (f.phase === 's') solids.push({ name, elements: { ...f.elements }, suppressed: suppressed.has(name), ...formation })
       else if (f.phase === 'g') gases.push({ name, elements: { ...f.elements }, ...formation })
       else species.push({ name, charge: f.charge, elements: { ...f.elements }, componentIndex: null, ...formation, ...ionSizeFields(name, f.charge) })
@@ -383,6 +393,7 @@ export function compileSource(source: string, options: CompileOptions, stack: st
     const reactions: ModelReaction[] = resolution.used.map((r) => ({
       equation: `${sideText(r.left)} <=> ${sideText(r.right)}`,
       kind: r.kind, value: r.value, logK: r.logK, dH: r.dH, cite: r.cite,
+      fit: r.fit && r.library === null, uncertainty: r.uncertainty, logKUncertainty: r.logKUncertainty,
       defines: resolution.defines.get(r)!, library: r.library, line: r.line,
     }))
     return {
@@ -449,6 +460,22 @@ function prepareReaction(r: ReactionStatement, report: Reporter, sources: Record
   const logK = logKFromConstant(kind, r.constantValue.value)
   if (logK === null || !Number.isFinite(logK)) { report.error('P041', `${kind} must be a positive, finite number (or write its log with logK)`, r.constantValue.number); return null }
   if (!checkRange(report, 'logK', logK, r.constantValue.number, { what: kind === 'logK' ? 'log K' : `log K (from ${kind} ${r.constantValue.number.image})` })) return null
+  let uncertainty: number | null = null
+  let logKUncertainty: number | null = null
+  if (r.uncertainty) {
+    const u = r.uncertainty.quantity
+    const unitsOf = kind === 'logK' || kind === 'logbeta' || kind === 'logKsp' || kind === 'logKH' ? 'log units' : `${kind} units`
+    if (!(u.value > 0) || !Number.isFinite(u.value)) {
+      report.error('P042', `an uncertainty must be a positive number, the standard uncertainty in ${unitsOf}: write ${kind} ${r.constantValue.number.image} ± 0.05 (or +- 0.05), or leave the ± out when it is not known`, u.number)
+      return null
+    }
+    const sigma = logKUncertaintyFromConstant(kind, r.constantValue.value, u.value)
+    const what = kind === 'logK' ? 'the uncertainty of log K' : `the uncertainty of log K (from ${kind} ${r.constantValue.number.image} ± ${u.number.image})`
+    if (sigma === null || !checkRange(report, 'logKUncertainty', sigma, u.number, { what })) return null
+    uncertainty = u.value
+    logKUncertainty = sigma
+  }
+  for (const f of r.fits.slice(1)) report.error('P004', 'fit is given twice: keep one', f)
   let dH: number | null = null
   for (const e of r.enthalpies.slice(1)) report.error('P004', 'dH is given twice: keep one', e.tok)
   const e = r.enthalpies[0]
@@ -474,5 +501,5 @@ function prepareReaction(r: ReactionStatement, report: Reporter, sources: Record
   } else {
     report.warning('W105', 'this constant has no cite: add cite "where it comes from" (a handbook, a paper, or "from memory")', r.constantKind)
   }
-  return { left, right, kind, value: r.constantValue.value, logK, dH, cite, library: null, line: report.lineOf(r.from), stmt: r }
+  return { left, right, kind, value: r.constantValue.value, logK, dH, cite, library: null, fit: r.fits.length > 0, uncertainty, logKUncertainty, line: report.lineOf(r.from), stmt: r }
 }

@@ -92,6 +92,17 @@ export const LIMITS = {
     usualWhy: 'the largest constants tabulated for reactions in water are near 10^±55: check the sign and the kind (pK or log K)',
   },
   // Reaction enthalpies in water are tens to a few hundred kJ/mol (common practice).
+  // The standard uncertainty of a log K (a `±` after a constant, converted to
+  // log10 units). Tabulated constants are rarely known to better than 0.01 or
+  // worse than a few tenths (common practice); beyond a few log units the
+  // linear propagation and the Monte Carlo bands describe nothing useful.
+  logKUncertainty: {
+    label: 'the uncertainty of log K', unit: '',
+    hard: { min: 0, minOpen: true, max: 20 },
+    hardWhy: 'an uncertainty of more than 20 log units says the constant is not known at all: leave the ± out, or check the kind (for K, Ka, beta and Ksp the ± is in K, not in log K)',
+    usual: { min: 0, max: 3 },
+    usualWhy: 'it spans thousands in K, where the linear ± of the answers means little (the Monte Carlo bands of a sweep still hold); check the kind (for K, Ka, beta and Ksp the ± is in K, not in log K)',
+  },
   enthalpy: {
     label: 'the reaction enthalpy', unit: ' kJ/mol',
     hard: { min: -1000, max: 1000 },

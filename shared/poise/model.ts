@@ -50,6 +50,13 @@ export interface Formation {
   dH: number | null
   /** 1-based source line of the defining reaction (or component statement). */
   line: number
+  /**
+   * How the reactions' constants reach this formation constant: logKRef =
+   * Σ weight × model.reactions[reaction].logK over the reactions it was
+   * chained through, so ∂logK/∂(log K of reaction r) = weight. Empty for a
+   * component's free form; absent in models stored before uncertainties.
+   */
+  reactionWeights?: { reaction: number; weight: number }[]
 }
 
 /** An aqueous species; every component's free form is one too (nu = unit vector, logK = 0). */
@@ -108,6 +115,20 @@ export interface ModelReaction {
   dH: number | null
   /** The citation: the `cite "..."` text, or the full text of `source KEY`; null when none. */
   cite: string | null
+  /**
+   * `fit` was written after the constant: it is to be fitted to measured data.
+   * Always false for a reaction that came from a library through `use` (a
+   * library's marks are its own; write the reaction in the file to fit it).
+   */
+  fit: boolean
+  /** The ± as written (`pKa 4.70 ± 0.05`), in the kind's own units; null when none. */
+  uncertainty: number | null
+  /**
+   * Standard uncertainty of log10 K of the reaction as written: the same
+   * number as `uncertainty` for log and p kinds, σ/(K·ln 10) for K, Ka, beta
+   * and Ksp; null when no ± was written.
+   */
+  logKUncertainty: number | null
   /** The species this reaction defines. */
   defines: string
   /** Library name when the reaction came from `use`; null for the file itself. */

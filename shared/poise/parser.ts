@@ -80,6 +80,7 @@ class PoiseParser extends CstParser {
   private readonly reactionExtraAlts = [
     { ALT: () => this.SUBRULE(this.enthalpy) },
     { ALT: () => this.SUBRULE(this.citation) },
+    { ALT: () => this.CONSUME(T.FitKeyword) },
   ]
   private readonly reactionExtra = () => this.OR(this.reactionExtraAlts)
   private readonly moreTerms = () => {
@@ -87,15 +88,22 @@ class PoiseParser extends CstParser {
     this.SUBRULE2(this.term)
   }
   private readonly coefficient = () => this.CONSUME(T.NumberLiteral)
+  // A source key may be the word `fit` (it was a plain word before `fit` became a keyword).
   private readonly citationAlts = [
     { ALT: () => this.CONSUME(T.StringLiteral) },
     { ALT: () => this.CONSUME(T.Word) },
     { ALT: () => this.CONSUME(T.Formula) },
+    { ALT: () => this.CONSUME(T.FitKeyword) },
   ]
   private readonly sourceKeyAlts = [
     { ALT: () => this.CONSUME(T.Word) },
     { ALT: () => this.CONSUME(T.Formula) },
+    { ALT: () => this.CONSUME(T.FitKeyword) },
   ]
+  private readonly uncertainty = () => {
+    this.CONSUME(T.PlusMinus)
+    this.CONSUME2(T.NumberLiteral)
+  }
   private readonly revision = () => {
     this.CONSUME(T.At)
     this.CONSUME(T.NumberLiteral)
@@ -201,9 +209,11 @@ class PoiseParser extends CstParser {
     this.CONSUME(T.Formula)
   })
 
+  /** `KIND N [± S]`: the ± is the standard uncertainty, in the kind's own units. */
   private constant = this.RULE('constant', () => {
     this.CONSUME(T.ConstantKind)
     this.CONSUME(T.NumberLiteral)
+    this.OPTION(this.uncertainty)
   })
 
   private enthalpy = this.RULE('enthalpy', () => {

@@ -23,14 +23,36 @@ export interface PreparedReaction {
   dH: number | null
   cite: string | null
   library: string | null
+  /** `fit` was written: the constant is to be fitted (always false for a library's reaction in a system using it). */
+  fit: boolean
+  /** The ± as written, in the kind's own units; null when none. */
+  uncertainty: number | null
+  /** Standard uncertainty of log10 K of the reaction as written; null when none. */
+  logKUncertainty: number | null
   line: number
   stmt: ReactionStatement
 }
 
-export interface FormationData { nu: number[]; logK: number; dH: number | null }
+/**
+ * `weights`: log K of the formation as Σ weight × logK of the reactions it was
+ * chained through (empty for a component's free form).
+ */
+export interface FormationData { nu: number[]; logK: number; dH: number | null; weights: Map<PreparedReaction, number> }
 export interface Known { formation: FormationData; formula: ParsedFormula; line: number; byReaction: PreparedReaction | null }
 
 const WATER = 'H2O'
+
+/**
+ * Standard uncertainty of log10 K from a ± in the kind's own units: the same
+ * number for log and p kinds; σ/(K·ln 10) for K, Ka, beta and Ksp (first-order
+ * propagation through log10). Null when K ≤ 0.
+ */
+export function logKUncertaintyFromConstant(kind: ConstantKind, value: number, uncertainty: number): number | null {
+  switch (kind) {
+    case 'logK': case 'logbeta': case 'logKsp': case 'logKH': case 'pK': case 'pKa': case 'pKsp': case 'pKw': return uncertainty
+    case 'K': case 'beta': case 'Ka': case 'Ksp': return value > 0 ? uncertainty / (value * Math.LN10) : null
+  }
+}
 
 /** log10 K of the reaction as written, from the constant's kind and value; null when K ≤ 0. */
 export function logKFromConstant(kind: ConstantKind, value: number): number | null {
@@ -150,16 +172,23 @@ function define(r: PreparedReaction, unknown: string, known: Map<string, Known>,
   const nu = new Array<number>(width).fill(0)
   let logK = r.logK
   let dH: number | null = r.dH
+  const weights = new Map<PreparedReaction, number>([[r, 1]])
   for (const [name, { s }] of net) {
     if (name === unknown) continue
     const k = known.get(name)!.formation
     for (let j = 0; j < width; j++) nu[j]! -= s * k.nu[j]!
     logK -= s * k.logK
     dH = dH === null || k.dH === null ? null : dH - s * k.dH
+    for (const [q, w] of k.weights) weights.set(q, (weights.get(q) ?? 0) - s * w)
   }
   const clean = (x: number) => (Math.abs(x) < 1e-12 ? 0 : x)
+  for (const [q, w] of weights) {
+    const v = clean(w / target.s)
+    if (v === 0) weights.delete(q)
+    else weights.set(q, v)
+  }
   known.set(unknown, {
-    formation: { nu: nu.map((x) => clean(x / target.s)), logK: logK / target.s, dH: dH === null ? null : dH / target.s },
+    formation: { nu: nu.map((x) => clean(x / target.s)), logK: logK / target.s, dH: dH === null ? null : dH / target.s, weights },
     formula: target.term.formula,
     line: r.line,
     byReaction: r,

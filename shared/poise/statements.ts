@@ -24,7 +24,7 @@ export type Statement = Base & (
   | { kind: 'ionSize'; formula: Tok; quantity: Quantity }
   | { kind: 'abbreviation'; name: Tok; formula: Tok }
   | { kind: 'component'; formula: Tok; spec: { mode: 'total' | 'free' | 'pH' | 'pressure' | 'balance' | 'excess'; tok: Tok; quantity: Quantity | null } | null }
-  | { kind: 'reaction'; left: Term[]; right: Term[]; arrow: Tok; constantKind: Tok; constantValue: Quantity; enthalpies: { tok: Tok; quantity: Quantity }[]; cites: { tok: Tok; text: string | null; key: Tok | null }[] }
+  | { kind: 'reaction'; left: Term[]; right: Term[]; arrow: Tok; constantKind: Tok; constantValue: Quantity; uncertainty: { sign: Tok; quantity: Quantity } | null; fits: Tok[]; enthalpies: { tok: Tok; quantity: Quantity }[]; cites: { tok: Tok; text: string | null; key: Tok | null }[] }
   | { kind: 'solid'; formula: Tok }
   | { kind: 'source'; key: Tok; text: string }
   | { kind: 'use'; name: string; nameTok: Tok; revision: Quantity | null }
@@ -121,10 +121,12 @@ function toStatement(cst: CstNode, from: number, to: number): Statement {
         kind: 'reaction', from, to, keyword: kw('ReactionKeyword'),
         left: terms(sides[0]!), right: terms(sides[1]!), arrow: tok(token(inner, 'Arrow')),
         constantKind: tok(token(k, 'ConstantKind')), constantValue: numberQuantity(token(k, 'Number')),
+        uncertainty: maybeToken(k, 'PlusMinus') ? { sign: tok(token(k, 'PlusMinus')), quantity: numberQuantity(token(k, 'Number', 1)) } : null,
+        fits: (inner.children.FitKeyword ?? []).filter((e) => !isNode(e)).map((e) => tok(e as IToken)),
         enthalpies: nodes(inner, 'enthalpy').map((e) => ({ tok: tok(token(e, 'EnthalpyKeyword')), quantity: quantity(node(e, 'quantity')) })),
         cites: nodes(inner, 'citation').map((e) => {
           const s = maybeToken(e, 'String')
-          const key = maybeToken(e, 'Word') ?? maybeToken(e, 'Formula')
+          const key = maybeToken(e, 'Word') ?? maybeToken(e, 'Formula') ?? maybeToken(e, 'FitKeyword')
           return { tok: tok(token(e, 'CiteKeyword')), text: s ? unquote(s.image) : null, key: key ? tok(key) : null }
         }),
       }
@@ -132,7 +134,7 @@ function toStatement(cst: CstNode, from: number, to: number): Statement {
     case 'solidStatement':
       return { kind: 'solid', from, to, keyword: kw('SolidKeyword'), formula: tok(token(inner, 'Formula')) }
     case 'sourceStatement': {
-      const key = maybeToken(inner, 'Word') ?? token(inner, 'Formula')
+      const key = maybeToken(inner, 'Word') ?? maybeToken(inner, 'FitKeyword') ?? token(inner, 'Formula')
       return { kind: 'source', from, to, keyword: kw('SourceKeyword'), key: tok(key), text: unquote(token(inner, 'String').image) }
     }
     case 'useStatement': {

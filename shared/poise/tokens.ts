@@ -119,6 +119,8 @@ export const VolumeKeyword = keyword('VolumeKeyword', 'volume')
 export const TitrantKeyword = keyword('TitrantKeyword', 'titrant')
 export const TitrateKeyword = keyword('TitrateKeyword', 'titrate')
 export const AbbreviationKeyword = keyword('AbbreviationKeyword', 'abbreviation')
+/** `fit` after a reaction's constant: the constant is to be fitted to measured data. */
+export const FitKeyword = keyword('FitKeyword', 'fit')
 
 /** A chemical formula: starts with an upper-case letter; its inside is checked by formula.ts. */
 export const Formula = createToken({
@@ -127,6 +129,9 @@ export const Formula = createToken({
   label: 'a formula',
 })
 export const Plus = createToken({ name: 'Plus', pattern: '+', label: "'+'" })
+/** What may stand before a constant's uncertainty: `±`, or `+-` in plain ASCII. */
+export const UNCERTAINTY_SIGNS: string[] = ['±', '+-']
+export const PlusMinus = createToken({ name: 'PlusMinus', pattern: new RegExp(UNCERTAINTY_SIGNS.map(escape).join('|')), label: "'±' (or +-)" })
 export const At = createToken({ name: 'At', pattern: '@', label: "'@'" })
 
 export const KEYWORD_TOKENS: TokenType[] = [
@@ -135,13 +140,13 @@ export const KEYWORD_TOKENS: TokenType[] = [
   PHKeyword, PressureKeyword, BalanceKeyword, ExcessKeyword, SuppressedKeyword, IdealKeyword,
   DaviesKeyword, DebyeHuckelKeyword, EnthalpyKeyword, CiteKeyword, FromKeyword, ToKeyword,
   StepKeyword, PointsKeyword, LogKeyword, LimitKeyword, DissolvedKeyword,
-  SampleKeyword, VolumeKeyword, TitrantKeyword, TitrateKeyword, AbbreviationKeyword,
+  SampleKeyword, VolumeKeyword, TitrantKeyword, TitrateKeyword, AbbreviationKeyword, FitKeyword,
 ]
 
 /** Order matters: the first pattern that matches wins (keywords before Word, units before Formula). */
 export const allTokens: TokenType[] = [
   Comment, Newline, Whitespace, StringLiteral, UnterminatedString, Arrow, Equals, NumberLiteral, Unit,
-  ConstantKind, ...KEYWORD_TOKENS, Word, Formula, Plus, At,
+  ConstantKind, ...KEYWORD_TOKENS, Word, Formula, PlusMinus, Plus, At,
 ]
 
 /** Words offered by completion. */

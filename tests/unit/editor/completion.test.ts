@@ -65,7 +65,16 @@ describe('Poise completion', () => {
 
   it('offers enthalpy units after dH and the tail keywords after the constant', () => {
     expect(offered('reaction NH4+ <=> NH3 + H+ pKa 9.24 dH 52.2 |')!.sort()).toEqual(['J/mol', 'kJ/mol', 'kcal/mol'])
-    expect(offered('reaction NH4+ <=> NH3 + H+ pKa 9.24 |')).toEqual(['dH', 'cite'])
+    expect(offered('reaction NH4+ <=> NH3 + H+ pKa 9.24 |')).toEqual(['±', '+-', 'dH', 'cite', 'fit'])
+  })
+
+  it('offers the uncertainty only right after the value, and each clause once', () => {
+    expect(offered('reaction NH4+ <=> NH3 + H+ pKa 9.24 ± 0.05 |')).toEqual(['dH', 'cite', 'fit'])
+    expect(offered('reaction NH4+ <=> NH3 + H+ pKa 9.24 +- 0.05 fit |')).toEqual(['dH', 'cite'])
+    expect(offered('reaction NH4+ <=> NH3 + H+ pKa 9.24 fit cite "x" |')).toEqual(['dH'])
+    expect(offered('reaction NH4+ <=> NH3 + H+ pKa 9.24 dH 52.2 kJ/mol |')).toEqual(['cite', 'fit'])
+    // After `cite` comes its text, not another clause.
+    expect(offered('reaction NH4+ <=> NH3 + H+ pKa 9.24 cite |')).toBeNull()
   })
 
   it('offers statement words at the start of a line and specifications after a component', () => {
