@@ -1,5 +1,5 @@
 /**
- * `equipoise`, the command line: local `check` and `solve`, and `login`,
+ * `equipoise`, the command line: local `check`, `solve` and `fit`, and `login`,
  * `labs`, `systems`, `pull`, `push`, `run`, `history` against a server with
  * an API token. Bundled by scripts/build-cli.mjs into dist/equipoise.mjs
  * (bin/equipoise.mjs runs it); the language and solver are loaded only by
@@ -45,6 +45,17 @@ const COMMANDS: Record<string, Command> = {
     async run(_files, _values, raw) {
       const { runSolveCommand } = await import('./local')
       return runSolveCommand(raw)
+    },
+  },
+  fit: {
+    usage: 'fit FILE.poise DATA.csv [--json] [--weight COLUMN=W]…',
+    summary: 'fit the constants FILE marks `fit` to the measurements in DATA',
+    details: 'DATA is a CSV: the first column the study variable (volume mL, volume L, pH, or total X UNIT), each further column a measurement (pH, X UNIT, log X, dissolved X UNIT). Prints each fitted constant with its standard error, the correlations and the residual standard deviation; --json prints them as JSON. --weight "pH=2" weighs a column (1 by default, in its own units).\nExit 0 converged, 1 not converged, 2 a missing file, errors in FILE, problems in DATA (DATA:LINE:COLUMN on stderr) or nothing to fit.',
+    options: { ...JSON_OPTION, weight: { type: 'string', multiple: true } },
+    positionals: [2, 2],
+    async run([file, data], values) {
+      const { runFit } = await import('./fit')
+      return runFit(file!, data!, { json: Boolean(values.json), weights: (values.weight as unknown as string[] | undefined) ?? [] })
     },
   },
   login: {

@@ -21,42 +21,50 @@ export function withoutCharge(name: string): string {
 
 const UNIT_WORDS = UNIT_HINTS.concentration
 
+/**
+ * What a dissolved total of X sums, for a limit and for a measured data
+ * column (shared/fit): an element counts each component's atoms of it (a
+ * mass unit as the element), a component itself alone (its formula mass).
+ * Otherwise why not: in water itself (H, O), held by no component, neither
+ * an element nor a component, or H+.
+ */
+export function dissolvedTarget(written: string, components: ModelComponent[], abbreviations?: Abbreviations):
+  | { targetKind: ModelLimit['targetKind']; target: string; weights: number[]; grams: number | null }
+  | 'water' | 'unheld' | 'unknown' | 'proton' {
+  if (isElement(written)) {
+    if (written === 'H' || written === 'O') return 'water'
+    const weights = components.map((c) => c.elements[written] ?? 0)
+    if (!weights.some((w) => w > 0)) return 'unheld'
+    return { targetKind: 'element', target: written, weights, grams: ATOMIC_WEIGHTS[written] ?? null }
+  }
+  const name = parseFormula(written, abbreviations).formula?.name ?? written
+  const j = components.findIndex((c) => c.name === name)
+  if (j < 0) return 'unknown'
+  if (name === 'H+') return 'proton'
+  return { targetKind: 'component', target: name, weights: components.map((_, k) => (k === j ? 1 : 0)), grams: components[j]!.molarMass > 0 ? components[j]!.molarMass : null }
+}
+
 export function compileLimit(s: LimitStatement, components: ModelComponent[], hasSweep: boolean, report: Reporter, abbreviations?: Abbreviations): ModelLimit | null {
   const written = s.target.image
-  let targetKind: ModelLimit['targetKind']
-  let target: string
-  let weights: number[]
-  let grams: number | null
-  if (isElement(written)) {
-    if (written === 'H' || written === 'O') {
-      report.error('P084', `${written} is in water itself, so it has no dissolved total of its own: limit a component that holds it instead (such as \`limit dissolved NH3 …\`)`, s.target)
-      return null
-    }
-    weights = components.map((c) => c.elements[written] ?? 0)
-    if (!weights.some((w) => w > 0)) {
-      const held = [...new Set(components.flatMap((c) => Object.keys(c.elements)).filter((e) => e !== 'H' && e !== 'O'))]
-      report.error('P084', `no component holds ${written}: limit ${held.length ? `an element of the components (${held.join(', ')}) or ` : ''}a component such as ${components.find((c) => c.name !== 'H+')?.name ?? 'Ni^2+'}`, s.target)
-      return null
-    }
-    targetKind = 'element'
-    target = written
-    grams = ATOMIC_WEIGHTS[written] ?? null
-  } else {
-    const name = parseFormula(written, abbreviations).formula?.name ?? written
-    const j = components.findIndex((c) => c.name === name)
-    if (j < 0) {
-      report.error('P084', `${written} is neither a component nor an element symbol: write a component of this file (${components.map((c) => c.name).join(', ')}) or an element one of them holds (such as Ni)`, s.target)
-      return null
-    }
-    if (name === 'H+') {
-      report.error('P084', 'H+ has no dissolved total (OH- holds −1 of it): limit another component, or the pH with a sweep', s.target)
-      return null
-    }
-    weights = components.map((_, k) => (k === j ? 1 : 0))
-    targetKind = 'component'
-    target = name
-    grams = components[j]!.molarMass > 0 ? components[j]!.molarMass : null
+  const found = dissolvedTarget(written, components, abbreviations)
+  if (found === 'water') {
+    report.error('P084', `${written} is in water itself, so it has no dissolved total of its own: limit a component that holds it instead (such as \`limit dissolved NH3 …\`)`, s.target)
+    return null
   }
+  if (found === 'unheld') {
+    const held = [...new Set(components.flatMap((c) => Object.keys(c.elements)).filter((e) => e !== 'H' && e !== 'O'))]
+    report.error('P084', `no component holds ${written}: limit ${held.length ? `an element of the components (${held.join(', ')}) or ` : ''}a component such as ${components.find((c) => c.name !== 'H+')?.name ?? 'Ni^2+'}`, s.target)
+    return null
+  }
+  if (found === 'unknown') {
+    report.error('P084', `${written} is neither a component nor an element symbol: write a component of this file (${components.map((c) => c.name).join(', ')}) or an element one of them holds (such as Ni)`, s.target)
+    return null
+  }
+  if (found === 'proton') {
+    report.error('P084', 'H+ has no dissolved total (OH- holds −1 of it): limit another component, or the pH with a sweep', s.target)
+    return null
+  }
+  const { targetKind, target, weights, grams } = found
 
   const q = s.quantity
   if (!q.unit) {

@@ -153,6 +153,10 @@ export const MIN_NONZERO_TOTAL = 1e-300
 
 /** At most this many points in one sweep or titration; the compiler and the server's request limits both use it. */
 export const MAX_SWEEP_POINTS = 5000
+/** A data set for fitting (shared/fit/dataset.ts) has at most this many rows of data: each is an exact solve at every step of a fit. */
+export const MAX_DATASET_ROWS = 500
+/** …and at most this many columns (the study variable and the measurements). */
+export const MAX_DATASET_COLUMNS = 16
 /** At most this many atoms of one element in a formula. */
 export const MAX_ATOM_COUNT = 1000
 /** Largest charge of a species. */

@@ -63,6 +63,22 @@ export function logKFromConstant(kind: ConstantKind, value: number): number | nu
   }
 }
 
+/**
+ * The inverse of logKFromConstant: the number written after the kind for a
+ * log10 K, and how a standard error of log10 K reads in the kind (the same
+ * for log and p kinds; ln 10 · K · σ for K, β, Ka and Ksp, to first order).
+ */
+export function constantFromLogK(kind: ConstantKind, logK: number, logKError = 0): { value: number; error: number } {
+  switch (kind) {
+    case 'logK': case 'logbeta': case 'logKsp': case 'logKH': return { value: logK, error: logKError }
+    case 'pK': case 'pKa': case 'pKsp': case 'pKw': return { value: -logK, error: logKError }
+    case 'K': case 'beta': case 'Ka': case 'Ksp': {
+      const value = Math.pow(10, logK)
+      return { value, error: Math.LN10 * value * logKError }
+    }
+  }
+}
+
 /** Element counts and charge of the left side minus the right side. */
 function imbalance(left: PreparedTerm[], right: PreparedTerm[]): { elements: Map<string, number>; leftCharge: number; rightCharge: number } {
   const elements = new Map<string, number>()
