@@ -61,11 +61,16 @@ function concentrationUnit(word: string | undefined): string | null {
   return info && (info.dimension === 'concentration' || info.dimension === 'mass-concentration') ? word : null
 }
 
-/** A species or component as the language writes it, in caret form; null when the text is not a formula. */
+/**
+ * A species or component as the language writes it, in caret form; a name
+ * the file may define with `abbreviation` (NiCit-) is kept as written, and
+ * the fit checks it against the model. Null when the text is not a name.
+ */
 function formulaName(text: string | undefined): string | null {
   if (!text) return null
   const f = parseFormula(text)
-  return f.formula && !f.problem ? f.formula.name : null
+  if (f.formula && !f.problem) return f.formula.name
+  return /^[A-Z][A-Za-z0-9()[\]]*(\^?\d*[+-])?(\((aq|s|g)\))?$/.test(text) ? text : null
 }
 
 /** Reads the first column's header; a string is the problem. */
