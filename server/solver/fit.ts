@@ -2,11 +2,10 @@
  * Fitting constants to a data set (shared/fit/dataset.ts) by
  * Levenberg–Marquardt on exact solves.
  *
- * - Parameters: log10 K of each fitted reaction as written. The species,
- *   solids and gases a reaction defines (and those built on them) move
- *   linearly with it, so the text is compiled once per fitted constant with
- *   that constant moved by one log unit, and every later model is the first
- *   one with its formation constants shifted (no recompiling in the loop).
+ * - Parameters: log10 K of each reaction the file marks `fit`, as written.
+ *   Every formation constant moves linearly with them, by the compiler's
+ *   `reactionWeights`, so each model of the loop is the compiled one with
+ *   its formation constants shifted (no recompiling).
  * - Each evaluation solves the study at the data's variable values: the
  *   titration at the data's added volumes (titration.ts), or a sweep of pH
  *   or of a total at the data's values (index.ts), continued from point to
@@ -25,7 +24,7 @@ import { unitInfo } from '../../shared/poise/units'
 import { molarMassOf } from '../../shared/poise/elements'
 import { dissolvedTarget } from '../../shared/poise/limitStatement'
 import type { DataSet, MeasuredColumn } from '../../shared/fit/dataset'
-import { constantSpan, withConstant } from '../../shared/fit/constants'
+import { constantSpan } from '../../shared/fit/constants'
 import type { Result } from '../../shared/types/result'
 import { sweep, titration, type SolveOptions } from './index'
 
@@ -46,8 +45,6 @@ export const UNDETERMINED_LOG_ERROR = 1
 const CURVE_POINTS = 80
 
 export interface FitOptions {
-  /** Lines of the reactions to fit; default: those the file marks `fit`. */
-  lines?: number[]
   /** Weight of each measured column by its header; 1 when not given. */
   weights?: Record<string, number>
   /** Resolves `use` for the recompiles (as for compile). */
@@ -111,7 +108,7 @@ type Reader = (model: Model, r: Result) => number | null
 
 interface Shift { species: number[]; solids: number[]; gases: number[] }
 
-/** Fits the constants marked `fit` (or those on options.lines) of `source` to `data`. Never throws. */
+/** Fits the constants `source` marks `fit` to `data`. Never throws. */
 export function fitConstants(source: string, data: DataSet, options: FitOptions = {}): FitOutcome {
   try {
     return fitUnguarded(source, data, options)
@@ -126,7 +123,7 @@ function fitUnguarded(source: string, data: DataSet, options: FitOptions): FitOu
   const errors = compiled.diagnostics.filter((d) => d.severity === 'error')
   if (!model || errors.length) return { ok: false, message: `The model has errors; fix them first (line ${errors[0]?.range.line ?? 1}: ${errors[0]?.message ?? 'it does not compile'}).` }
 
-  const fitted = chooseReactions(model, options.lines)
+  const fitted = chooseReactions(model)
   if (typeof fitted === 'string') return { ok: false, message: fitted }
 
   const readers: Reader[] = []
@@ -148,17 +145,11 @@ function fitUnguarded(source: string, data: DataSet, options: FitOptions): FitOu
   const p = fitted.length
   if (n <= p) return { ok: false, message: `${p} constant${p === 1 ? '' : 's'} to fit need${p === 1 ? 's' : ''} more than ${p} measured value${p === 1 ? '' : 's'}; the data set has ${n}. Add measurements, or fit fewer constants.` }
 
-  // How the formation constants move with each fitted log K.
-  const shifts: Shift[] = []
-  for (const r of fitted) {
-    const moved = withConstant(source, r.line, r.logK + 1)
-    const other = moved === null ? null : compile(moved, options.compileOptions).model
-    if (!other || other.species.length !== model.species.length || other.solids.length !== model.solids.length || other.gases.length !== model.gases.length) {
-      return { ok: false, message: `Line ${r.line}: the constant of this reaction could not be moved for the fit; write it as \`reaction … KIND NUMBER\`.` }
-    }
-    const diff = <T extends { logK: number }>(a: T[], b: T[]) => a.map((x, i) => b[i]!.logK - x.logK)
-    shifts.push({ species: diff(model.species, other.species), solids: diff(model.solids, other.solids), gases: diff(model.gases, other.gases) })
-  }
+  // How the formation constants move with each fitted log K (the compiler's reactionWeights).
+  const indexOf = fitted.map((r) => model.reactions.indexOf(r))
+  const weightsOf = <T extends { reactionWeights?: { reaction: number; weight: number }[] }>(list: T[], k: number) =>
+    list.map((x) => x.reactionWeights?.find((w) => w.reaction === indexOf[k])?.weight ?? 0)
+  const shifts: Shift[] = fitted.map((_, k) => ({ species: weightsOf(model.species, k), solids: weightsOf(model.solids, k), gases: weightsOf(model.gases, k) }))
   const modelAt = (delta: number[]): Model => {
     const move = <T extends { logK: number; logKRef: number }>(list: T[], key: keyof Shift): T[] => list.map((x, i) => {
       let d = 0
@@ -373,21 +364,10 @@ function adviceFor(c: FittedConstant): string {
   }
 }
 
-/** The reactions to fit: those on `lines`, or those the file marks `fit`. A string says why none. */
-function chooseReactions(model: Model, lines: number[] | undefined): ModelReaction[] | string {
-  const own = model.reactions.filter((r) => r.library === null)
-  if (lines) {
-    const chosen: ModelReaction[] = []
-    for (const line of lines) {
-      const r = own.find((x) => x.line === line)
-      if (!r) return `Line ${line} holds no reaction of this file to fit.`
-      chosen.push(r)
-    }
-    if (chosen.length) return chosen
-  } else {
-    const marked = own.filter((r) => (r as ModelReaction & { fit?: boolean }).fit === true)
-    if (marked.length) return marked
-  }
+/** The reactions the file marks `fit` (a library's marks stay its own); a string says why there are none. */
+function chooseReactions(model: Model): ModelReaction[] | string {
+  const marked = model.reactions.filter((r) => r.fit && r.library === null)
+  if (marked.length) return marked
   return 'No constant is marked to fit: write `fit` after the value of each constant the data should determine, as in `reaction HA <=> A- + H+  pKa 4.70 fit`.'
 }
 
