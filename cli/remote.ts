@@ -141,7 +141,7 @@ export async function run(target: string | undefined, options: { revision?: stri
     const text = await client.get<{ source: string }>(`/api/labs/${encodeURIComponent(lab)}/libraries/${encodeURIComponent(used.name)}/revisions/${used.revision}`)
     libraries.set(used.name, { source: text.source, revision: used.revision })
   }
-  note(`Run ${stored.id} of ${target}, revision ${stored.revision}: ${stored.status}`)
+  note(`Run ${stored.number} of ${target}, revision ${stored.revision}: ${stored.status}`)
   out(formatRun(revision.source, libraries, stored, { unit, asElement: Boolean(options.asElement) }))
   return code
 }

@@ -8,7 +8,8 @@
  */
 import { findUses } from '../shared/poise/index'
 import { labLibraryPreloader, type GetJson, type LibraryTexts } from './libraryTexts'
-import { latestRunOf, type SavedRevision, type StoredRun } from './workbench'
+import type { RevisionView, RunListAnswer, RunView } from '../shared/types/system'
+import { latestRunOf } from './workbench'
 
 export interface ReportChoice {
   run: number | null
@@ -29,29 +30,29 @@ export interface ReportData {
   /** The revision number the report is of. */
   number: number
   /** Its text and author; null when the system has no such revision. */
-  revision: SavedRevision | null
+  revision: RevisionView | null
   /** The run reported; null when that revision has no stored run (or the run asked for is not this system's). */
-  run: StoredRun | null
+  run: RunView | null
   /** For a run stored before models were: the library texts its `use` lines reach, pinned to the revisions the run used. */
   libraries: LibraryTexts
 }
 
 /** Loads what the report of `choice` needs, given the system's latest revision. */
-export async function loadReport(get: GetJson, lab: string, system: string, latest: SavedRevision, choice: ReportChoice): Promise<ReportData> {
+export async function loadReport(get: GetJson, lab: string, system: string, latest: RevisionView, choice: ReportChoice): Promise<ReportData> {
   const base = `/api/labs/${encodeURIComponent(lab)}/systems/${encodeURIComponent(system)}`
-  let run: StoredRun | null = null
+  let run: RunView | null = null
   let number = choice.revision ?? latest.number
   if (choice.run !== null) {
-    run = await get<StoredRun>(`${base}/runs/${choice.run}`).catch(() => null)
+    run = await get<RunView>(`${base}/runs/${choice.run}`).catch(() => null)
     if (run) number = run.revision
   } else {
-    const { runs } = await get<{ runs: StoredRun[] }>(`${base}/runs`)
+    const { runs } = await get<RunListAnswer>(`${base}/runs`)
     const newest = latestRunOf(runs, number)
-    run = newest ? await get<StoredRun>(`${base}/runs/${newest.id}`).catch(() => null) : null
+    run = newest ? await get<RunView>(`${base}/runs/${newest.id}`).catch(() => null) : null
   }
   const revision = number === latest.number
     ? latest
-    : await get<{ revision: SavedRevision }>(`${base}/revisions/${number}`).then((a) => a.revision, () => null)
+    : await get<{ revision: RevisionView }>(`${base}/revisions/${number}`).then((a) => a.revision, () => null)
   // Only a run stored before models were needs the library texts: its model is rebuilt from its text.
   const libraries = revision && !run?.model && findUses(revision.source).length
     ? await labLibraryPreloader(lab, get)(revision.source, run?.libraries ?? []).catch(() => ({}))

@@ -18,72 +18,15 @@ import { compile } from '../shared/poise/index'
 import type { Diagnostic } from '../shared/poise/diagnostics'
 import type { Model } from '../shared/poise/model'
 import type { AnswerKind, Result, SweepResult, TitrationResult } from '../shared/types/result'
+import type { PreviewAnswer, RevisionView, RunListAnswer, RunView, SystemAnswer } from '../shared/types/system'
 import { titrationAsSweep } from '../shared/results/titration'
 import { distributableComponents, type StoichiometryModel } from '../shared/results/share'
 import { diagramPrefsKey, parseDiagramPrefs } from '../shared/results/diagramPrefs'
-import { labRoleAtLeast, type LabRole } from '../shared/utils/roles'
+import { labRoleAtLeast } from '../shared/utils/roles'
 import { RUN_STORE_ROLE } from '../shared/utils/run-rules'
 import type { ResolveLibrary } from '../shared/utils/library-preload'
 import { labLibraryPreloader, resolverFrom } from './libraryTexts'
 import { browserStorage } from '../utils/storage'
-
-export interface SavedRevision {
-  number: number
-  sha256: string
-  source: string
-  message: string
-  author: string | null
-  createdAt: string
-}
-
-/** GET /api/labs/:lab/systems/:system */
-export interface SystemAnswer {
-  lab: { slug: string; name: string }
-  role: LabRole
-  system: { slug: string; title: string; isLibrary: boolean; latest: SavedRevision }
-}
-
-/** A run as the runs routes return it (`result` only from the single-run routes). */
-export interface StoredRun {
-  id: number
-  revision: number
-  status: 'ok' | 'failed' | 'diverged'
-  kind: AnswerKind
-  solverVersion: string
-  /** The compiler version of the stored model; null for a run stored before models were. */
-  compilerVersion: string | null
-  /** False for a run stored before models were (no `model`). */
-  storedModel: boolean
-  /** Bytes the run takes in the lab's run storage budget. */
-  storedBytes: number
-  timingMs: number
-  createdAt: string
-  createdBy: string | null
-  failedPoints: number
-  /** The library revisions the run was solved with. */
-  libraries?: { name: string; revision: number }[]
-  result?: Result | SweepResult | TitrationResult
-  /** The model that was solved (single-run routes); null for a run stored before models were. */
-  model?: Model | null
-}
-
-/** The lab's run storage, from GET …/runs. */
-export interface RunStorage {
-  usedBytes: number
-  budgetBytes: number
-}
-
-/** POST /api/labs/:lab/solve */
-export interface PreviewAnswer {
-  kind: AnswerKind
-  solverVersion: string
-  compilerVersion: string
-  /** The model that was solved. */
-  model: Model
-  elapsedMs: number
-  diagnostics: Diagnostic[]
-  result: Result | SweepResult | TitrationResult
-}
 
 interface ShownBase {
   kind: AnswerKind
@@ -99,7 +42,7 @@ interface ShownBase {
   at: string
 }
 /** A preview carries `ofRevision` when it solved the saved text of that revision (a viewer's Run). */
-export type ShownRun = (ShownBase & { origin: 'stored'; run: StoredRun }) | (ShownBase & { origin: 'preview'; ofRevision: number | null })
+export type ShownRun = (ShownBase & { origin: 'stored'; run: RunView }) | (ShownBase & { origin: 'preview'; ofRevision: number | null })
 
 /** A refusal from the server, in a shape the page can show. */
 export interface ServerProblem {
@@ -111,7 +54,7 @@ export interface ServerProblem {
 /** A save refused because someone saved after the revision being edited. */
 export interface SaveConflict {
   mine: string
-  theirs: SavedRevision
+  theirs: RevisionView
 }
 
 export type RunPlan = 'stored' | 'preview'
@@ -133,7 +76,7 @@ export function problemFrom(error: unknown): ServerProblem {
 }
 
 /** The newest run of the given revision from a newest-first list, or null. */
-export function latestRunOf(runs: StoredRun[], revision: number): StoredRun | null {
+export function latestRunOf(runs: RunView[], revision: number): RunView | null {
   return runs.find((run) => run.revision === revision) ?? null
 }
 
@@ -178,7 +121,7 @@ export const useWorkbenchStore = defineStore('workbench', () => {
   const diagnostics = shallowRef<Diagnostic[]>([])
   const shown = shallowRef<ShownRun | null>(null)
   /** Runs stored for this system exist, but none of the latest revision. */
-  const olderRun = shallowRef<StoredRun | null>(null)
+  const olderRun = shallowRef<RunView | null>(null)
   /** For a sweep: which point the tables show. */
   const pointIndex = ref(0)
   const running = ref(false)
@@ -257,7 +200,7 @@ export const useWorkbenchStore = defineStore('workbench', () => {
     shownLibraries.value = undefined
   }
 
-  function showStored(run: StoredRun, solvedSource: string) {
+  function showStored(run: RunView, solvedSource: string) {
     if (!run.result) return
     shown.value = {
       origin: 'stored',
@@ -282,7 +225,7 @@ export const useWorkbenchStore = defineStore('workbench', () => {
   }
 
   /** For a run stored before models were: load the library revisions it used; until then (or if that fails) the editor's libraries stand in. */
-  async function pinLibraries(run: StoredRun, solvedSource: string) {
+  async function pinLibraries(run: RunView, solvedSource: string) {
     const lab = answer.value?.lab.slug
     if (!lab) return
     try {
@@ -298,13 +241,13 @@ export const useWorkbenchStore = defineStore('workbench', () => {
     const saved = latest.value
     if (!saved || shown.value) return
     try {
-      const { runs } = await request<{ runs: StoredRun[] }>(`${base.value}/runs`)
+      const { runs } = await request<RunListAnswer>(`${base.value}/runs`)
       const mine = latestRunOf(runs, saved.number)
       if (!mine) {
         olderRun.value = runs[0] ?? null
         return
       }
-      const full = await request<StoredRun>(`${base.value}/runs/${mine.id}`)
+      const full = await request<RunView>(`${base.value}/runs/${mine.id}`)
       if (latest.value?.number === saved.number && !shown.value) showStored(full, saved.source)
     } catch (error) {
       runProblem.value = problemFrom(error)
@@ -321,7 +264,7 @@ export const useWorkbenchStore = defineStore('workbench', () => {
     runProblem.value = null
     try {
       if (how === 'stored') {
-        const stored = await request<StoredRun>(`${base.value}/runs`, { method: 'POST', body: { revision: saved.number } })
+        const stored = await request<RunView>(`${base.value}/runs`, { method: 'POST', body: { revision: saved.number } })
         if (ticket === runTicket) showStored(stored, text)
       } else {
         const preview = await request<PreviewAnswer>(`/api/labs/${answer.value!.lab.slug}/solve`, { method: 'POST', body: { source: text } })

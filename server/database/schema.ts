@@ -10,6 +10,7 @@ import {
 } from 'drizzle-orm/mysql-core'
 import { LAB_ROLES } from '../../shared/utils/roles'
 import { API_TOKEN_SCOPES } from '../../shared/utils/token-schemas'
+import { REVIEW_STATES } from '../../shared/types/review'
 
 const createdAt = datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`)
 
@@ -47,6 +48,8 @@ export const systems = mysqlTable('systems', {
   title: varchar('title', { length: 200 }).notNull(),
   /** A library system holds curated constants that other systems import. */
   isLibrary: boolean('is_library').notNull().default(false),
+  /** The number of the system's newest stored run (runs count per system: 1, 2, 3 …; a deleted number is not given again). */
+  lastRunNumber: int('last_run_number').notNull().default(0),
   createdBy: int('created_by').references(() => users.id, { onDelete: 'set null' }),
   createdAt,
 }, (t) => [uniqueIndex('systems_lab_slug_unique').on(t.labId, t.slug)])
@@ -67,6 +70,8 @@ export const revisions = mysqlTable('revisions', {
 export const runs = mysqlTable('runs', {
   id: int('id').autoincrement().primaryKey(),
   revisionId: int('revision_id').notNull().references(() => revisions.id, { onDelete: 'cascade' }),
+  /** The run's number within its system (1 for the system's first run); `id` stays the key in URLs. */
+  number: int('number').notNull().default(0),
   solverVersion: varchar('solver_version', { length: 40 }).notNull(),
   /** COMPILER_VERSION of shared/poise that compiled `model`; null for runs stored before models were. */
   compilerVersion: varchar('compiler_version', { length: 40 }),
@@ -129,7 +134,6 @@ export type Revision = typeof revisions.$inferSelect
 export type Run = typeof runs.$inferSelect
 
 /** One asks a member (reviewer or higher) to review revision `to` of a system against revision `from`. */
-export const REVIEW_STATES = ['open', 'approved', 'changes_requested'] as const
 
 export const reviews = mysqlTable('reviews', {
   id: int('id').autoincrement().primaryKey(),

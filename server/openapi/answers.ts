@@ -5,10 +5,9 @@
  * when a route's answer changes and its description does not.
  */
 import { z } from 'zod'
-import type { RunStorage, RunView } from '../utils/runs'
-import type { RevisionSummary } from '../utils/revision-history'
-import type { revisionView } from '../utils/revisions'
+import type { RevisionListAnswer as RevisionList, RevisionSummary, RevisionView, RunStorage, RunView, SystemAnswer as SystemView } from '../../shared/types/system'
 import { LAB_ROLES } from '../../shared/utils/roles'
+import { REVIEW_STATES } from '../../shared/types/review'
 
 type IsAny<T> = 0 extends 1 & T ? true : false
 /** True when some property of T is `any` (or T is): such a type would match any schema. */
@@ -27,7 +26,7 @@ export const RevisionAnswer = z.object({
   author: z.string().nullable(),
   createdAt: datetime,
 })
-const revisionChecked: Same<z.infer<typeof RevisionAnswer>, ReturnType<typeof revisionView>> = true
+const revisionChecked: Same<z.infer<typeof RevisionAnswer>, RevisionView> = true
 
 export const RevisionSummaryAnswer = z.object({
   number: z.int(),
@@ -36,14 +35,15 @@ export const RevisionSummaryAnswer = z.object({
   message: z.string(),
   author: z.string().nullable(),
   createdAt: datetime,
-  run: z.object({ id: z.int(), status: z.enum(RUN_STATUSES), solverVersion: z.string(), createdAt: datetime }).nullable()
+  run: z.object({ id: z.int(), number: z.int(), status: z.enum(RUN_STATUSES), solverVersion: z.string(), createdAt: datetime }).nullable()
     .meta({ description: 'The newest run of this revision, or null' }),
-  reviews: z.array(z.object({ id: z.int(), state: z.string(), against: z.int(), reviewer: z.string().nullable() })),
+  reviews: z.array(z.object({ id: z.int(), state: z.enum(REVIEW_STATES), against: z.int(), reviewer: z.string().nullable() })),
 })
 const summaryChecked: Same<z.infer<typeof RevisionSummaryAnswer>, RevisionSummary> = true
 
 export const RunAnswer = z.object({
-  id: z.int(),
+  id: z.int().meta({ description: 'The run\'s key in URLs (…/runs/:id, the report\'s ?run=)' }),
+  number: z.int().meta({ description: 'The run\'s number within its system: 1 for the system\'s first run' }),
   revision: z.int(),
   status: z.enum(RUN_STATUSES),
   kind: z.enum(['single', 'sweep', 'titration']),
@@ -77,6 +77,7 @@ export const SystemAnswer = z.object({
   role: z.enum(LAB_ROLES),
   system: z.object({ slug: z.string(), title: z.string(), isLibrary: z.boolean(), latest: RevisionAnswer }),
 })
+const systemChecked: Same<z.infer<typeof SystemAnswer>, SystemView> = true
 
 export const SystemListAnswer = z.object({
   systems: z.array(z.object({
@@ -100,6 +101,7 @@ export const RevisionListAnswer = z.object({
   role: z.enum(LAB_ROLES),
   revisions: z.array(RevisionSummaryAnswer),
 })
+const revisionListChecked: Same<z.infer<typeof RevisionListAnswer>, RevisionList> = true
 
 // Referenced so the compile-time checks above are not reported as unused.
-export const ANSWERS_CHECKED = revisionChecked && summaryChecked && runChecked && storageChecked
+export const ANSWERS_CHECKED = revisionChecked && summaryChecked && runChecked && storageChecked && systemChecked && revisionListChecked

@@ -6,40 +6,7 @@
  */
 import { and, asc, desc, eq, inArray, type SQL } from 'drizzle-orm'
 import { alias } from 'drizzle-orm/mysql-core'
-import type { Review } from '../database/schema'
-
-export type ReviewState = Review['state']
-
-export interface ReviewView {
-  id: number
-  lab: { slug: string; name: string }
-  system: { slug: string; title: string }
-  from: number
-  to: number
-  state: ReviewState
-  note: string
-  decisionNote: string
-  decidedAt: string | null
-  createdAt: string
-  requester: { id: number; name: string } | null
-  reviewer: { id: number; name: string; email: string }
-}
-
-export interface ReviewCommentView {
-  id: number
-  side: 'from' | 'to'
-  line: number
-  body: string
-  author: string | null
-  createdAt: string
-}
-
-/** Plain words for a review's state, as the pages and mails say it. */
-export const REVIEW_STATE_WORDS: Record<ReviewState, string> = {
-  open: 'waiting for review',
-  approved: 'approved',
-  changes_requested: 'changes requested',
-}
+import { REVIEW_STATE_WORDS, type ReviewCommentView, type ReviewState, type ReviewView } from '../../shared/types/review'
 
 async function selectReviews(where: SQL | undefined, limit = 200): Promise<ReviewView[]> {
   const requester = alias(tables.users, 'requester')
@@ -113,7 +80,17 @@ export async function findReview(labId: number, id: number): Promise<ReviewView>
   return review
 }
 
+/** The comments of a review in the order made, each quoting the line it is about (revisions never change, so the quote is read from the text). */
 export async function listComments(reviewId: number): Promise<ReviewCommentView[]> {
+  const fromRevision = alias(tables.revisions, 'from_revision')
+  const toRevision = alias(tables.revisions, 'to_revision')
+  const [sides] = await useDb()
+    .select({ from: fromRevision.source, to: toRevision.source })
+    .from(tables.reviews)
+    .innerJoin(fromRevision, eq(fromRevision.id, tables.reviews.fromRevisionId))
+    .innerJoin(toRevision, eq(toRevision.id, tables.reviews.toRevisionId))
+    .where(eq(tables.reviews.id, reviewId))
+  const lines = { from: (sides?.from ?? '').split('\n'), to: (sides?.to ?? '').split('\n') }
   const rows = await useDb()
     .select({ comment: tables.reviewComments, author: tables.users.name })
     .from(tables.reviewComments)
@@ -121,7 +98,13 @@ export async function listComments(reviewId: number): Promise<ReviewCommentView[
     .where(eq(tables.reviewComments.reviewId, reviewId))
     .orderBy(asc(tables.reviewComments.id))
   return rows.map(({ comment, author }) => ({
-    id: comment.id, side: comment.side, line: comment.line, body: comment.body, author, createdAt: comment.createdAt.toISOString(),
+    id: comment.id,
+    side: comment.side,
+    line: comment.line,
+    quote: lines[comment.side][comment.line - 1] ?? '',
+    body: comment.body,
+    author,
+    createdAt: comment.createdAt.toISOString(),
   }))
 }
 

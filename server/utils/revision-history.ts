@@ -5,21 +5,8 @@
 import { desc, eq, inArray } from 'drizzle-orm'
 import { alias } from 'drizzle-orm/mysql-core'
 import type { Revision } from '../database/schema'
-import type { RunStatus } from './runs'
+import type { RevisionSummary } from '../../shared/types/system'
 import type { Transaction } from './db'
-
-export interface RevisionSummary {
-  number: number
-  parent: number | null
-  sha256: string
-  message: string
-  author: string | null
-  createdAt: string
-  /** The newest run of this revision, or null when it was never solved. */
-  run: { id: number; status: RunStatus; solverVersion: string; createdAt: string } | null
-  /** Reviews of this revision (as the newer side), newest first. */
-  reviews: { id: number; state: string; against: number; reviewer: string | null }[]
-}
 
 export async function listRevisions(systemId: number): Promise<RevisionSummary[]> {
   const db = useDb()
@@ -34,11 +21,11 @@ export async function listRevisions(systemId: number): Promise<RevisionSummary[]
   const ids = rows.map(r => r.revision.id)
   if (!ids.length) return []
 
-  const runs = await db.select({ id: tables.runs.id, revisionId: tables.runs.revisionId, status: tables.runs.status, solverVersion: tables.runs.solverVersion, createdAt: tables.runs.createdAt })
+  const runs = await db.select({ id: tables.runs.id, number: tables.runs.number, revisionId: tables.runs.revisionId, status: tables.runs.status, solverVersion: tables.runs.solverVersion, createdAt: tables.runs.createdAt })
     .from(tables.runs).where(inArray(tables.runs.revisionId, ids)).orderBy(desc(tables.runs.id))
   const newestRun = new Map<number, RevisionSummary['run']>()
   for (const run of runs) {
-    if (!newestRun.has(run.revisionId)) newestRun.set(run.revisionId, { id: run.id, status: run.status, solverVersion: run.solverVersion, createdAt: run.createdAt.toISOString() })
+    if (!newestRun.has(run.revisionId)) newestRun.set(run.revisionId, { id: run.id, number: run.number, status: run.status, solverVersion: run.solverVersion, createdAt: run.createdAt.toISOString() })
   }
 
   const against = alias(tables.revisions, 'against')

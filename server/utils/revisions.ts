@@ -5,6 +5,7 @@
 import { createHash } from 'node:crypto'
 import { eq } from 'drizzle-orm'
 import type { Revision } from '../database/schema'
+import type { RevisionView } from '../../shared/types/system'
 import type { Transaction } from './db'
 
 export function sha256Hex(text: string): string {
@@ -26,7 +27,7 @@ export async function addRevision(tx: Transaction, input: {
 }
 
 /** The public shape of a revision in API answers. */
-export function revisionView(revision: Revision, authorName: string | null) {
+export function revisionView(revision: Revision, authorName: string | null): RevisionView {
   return {
     number: revision.number,
     sha256: revision.sha256,

@@ -13,38 +13,15 @@ import type { H3Event } from 'h3'
 import { desc, eq, and, sql } from 'drizzle-orm'
 import type { Revision, Run } from '../database/schema'
 import type { Model } from '../../shared/poise/model'
-import type { AnswerKind, Result, SweepResult, TitrationResult } from '../../shared/types/result'
+import type { AnswerKind } from '../../shared/types/result'
+import type { RunStatus, RunStorage, RunView } from '../../shared/types/system'
 import { COMPILER_VERSION } from '../../shared/poise/version'
 import { formatBytes } from '../../shared/utils/bytes'
 import type { SolveTaskOutput } from '../workers/solve.worker'
 import type { DbExecutor } from './db'
 
-export type RunStatus = 'ok' | 'failed' | 'diverged'
-
 export function runStatusOf(output: SolveTaskOutput): RunStatus {
   return output.failedPoints === 0 ? 'ok' : 'diverged'
-}
-
-export interface RunView {
-  id: number
-  revision: number
-  status: RunStatus
-  kind: AnswerKind
-  solverVersion: string
-  /** The compiler version that made the stored model; null for a run stored before models were. */
-  compilerVersion: string | null
-  /** False for a run stored before models were: it can only be shown through a recompile of its text. */
-  storedModel: boolean
-  /** Bytes it takes in the lab's run storage budget. */
-  storedBytes: number
-  timingMs: number
-  createdAt: string
-  createdBy: string | null
-  failedPoints: number
-  libraries: { name: string; revision: number }[]
-  result?: Result | SweepResult | TitrationResult
-  /** The model that was solved (single-run routes only); null for a run stored before models were. */
-  model?: Model | null
 }
 
 interface StoredOptions {
@@ -60,6 +37,7 @@ export function runView(run: Omit<Run, 'model' | 'result'>, revisionNumber: numb
   const options = (run.options ?? {}) as StoredOptions
   return {
     id: run.id,
+    number: run.number,
     revision: revisionNumber,
     status: run.status,
     kind: options.kind ?? 'single',
@@ -86,11 +64,6 @@ export function sendRunWithResult(event: H3Event, run: Run, revisionNumber: numb
 export function runStorageBudgetBytes(): number {
   const mb = Number(useRuntimeConfig().runStorageBudgetMb)
   return Math.max(0, Number.isFinite(mb) ? mb : 0) * 1_000_000
-}
-
-export interface RunStorage {
-  usedBytes: number
-  budgetBytes: number
 }
 
 /** Bytes the stored runs of a lab take. */
@@ -139,8 +112,12 @@ export async function storeRun(labId: number, revision: Revision, userId: number
     await tx.select({ id: tables.labs.id }).from(tables.labs).where(eq(tables.labs.id, labId)).for('update')
     const used = await labRunBytes(labId, tx)
     if (used + bytes > budget) overBudget(used, budget, bytes)
+    // Runs count per system; the lab row lock above keeps two runs from taking one number.
+    await tx.update(tables.systems).set({ lastRunNumber: sql`${tables.systems.lastRunNumber} + 1` }).where(eq(tables.systems.id, revision.systemId))
+    const [counter] = await tx.select({ number: tables.systems.lastRunNumber }).from(tables.systems).where(eq(tables.systems.id, revision.systemId))
     const [inserted] = await tx.insert(tables.runs).values({
       revisionId: revision.id,
+      number: counter!.number,
       solverVersion: output.solverVersion,
       compilerVersion: COMPILER_VERSION,
       options: { kind: output.kind, libraries: model.libraries, failedPoints: output.failedPoints },
@@ -168,6 +145,7 @@ export async function findRevision(systemId: number, number: number): Promise<Re
 /** Run columns without the large JSON ones, for lists. */
 const runSummaryColumns = {
   id: tables.runs.id,
+  number: tables.runs.number,
   revisionId: tables.runs.revisionId,
   solverVersion: tables.runs.solverVersion,
   compilerVersion: tables.runs.compilerVersion,
@@ -181,12 +159,12 @@ const runSummaryColumns = {
 
 export async function listRuns(systemId: number, limit = 50): Promise<RunView[]> {
   const rows = await useDb()
-    .select({ run: runSummaryColumns, bytes: runBytes, number: tables.revisions.number, author: tables.users.name })
+    .select({ run: runSummaryColumns, bytes: runBytes, revision: tables.revisions.number, author: tables.users.name })
     .from(tables.runs)
     .innerJoin(tables.revisions, eq(tables.revisions.id, tables.runs.revisionId))
     .leftJoin(tables.users, eq(tables.users.id, tables.runs.createdBy))
     .where(eq(tables.revisions.systemId, systemId))
     .orderBy(desc(tables.runs.id))
     .limit(limit)
-  return rows.map(r => runView(r.run, r.number, r.author, r.bytes))
+  return rows.map(r => runView(r.run, r.revision, r.author, r.bytes))
 }

@@ -63,9 +63,10 @@ describe('reviews', () => {
     const onNew = await api(url, { method: 'POST', cookie: reviewer.cookie, body: { side: 'to', line: 2, body: 'Why pH 8 and not 7.5?' } })
     expect(onNew.status).toBe(201)
     const reply = await api(url, { method: 'POST', cookie: editor.cookie, body: { side: 'from', line: 2, body: 'The new line needs 8.' } })
-    expect(reply.body.comments.map((c: any) => [c.side, c.line, c.body, c.author])).toEqual([
-      ['to', 2, 'Why pH 8 and not 7.5?', reviewer.user.name],
-      ['from', 2, 'The new line needs 8.', editor.user.name],
+    // Each comment quotes the line it is about, from its own side's text.
+    expect(reply.body.comments.map((c: any) => [c.side, c.line, c.quote, c.body, c.author])).toEqual([
+      ['to', 2, 'component H+ pH 8.5', 'Why pH 8 and not 7.5?', reviewer.user.name],
+      ['from', 2, 'component H+ pH 7', 'The new line needs 8.', editor.user.name],
     ])
     expect((await api(url, { method: 'POST', cookie: viewer.cookie, body: { side: 'to', line: 1, body: 'me too' } })).status).toBe(403)
     const past = await api(url, { method: 'POST', cookie: reviewer.cookie, body: { side: 'from', line: 9, body: 'x' } })

@@ -79,6 +79,25 @@ describe('runs', () => {
     expect((await api(system('/runs'), { method: 'POST', cookie: editor.cookie, body: { revision: 99 } })).status).toBe(404)
   })
 
+  it('numbers runs per system (1, 2, 3 …), never giving a deleted run\'s number again', async () => {
+    const numbers = (await api(system('/runs'), { cookie: viewer.cookie })).body.runs.map((r: { number: number }) => r.number)
+    expect(numbers).toEqual([3, 2, 1])
+    // Another system of the lab starts at run 1, whatever the lab's other systems have stored.
+    const other = await api(`/api/labs/${lab}/systems`, { method: 'POST', cookie: editor.cookie, body: { title: 'Second rinse', slug: 'second-rinse', source: strongAcid } })
+    expect(other.status).toBe(201)
+    const first = await api(`/api/labs/${lab}/systems/second-rinse/runs`, { method: 'POST', cookie: editor.cookie, body: {} })
+    expect(first.status).toBe(201)
+    expect(first.body.number).toBe(1)
+    expect(first.body.id).not.toBe(1)
+    // Deleting the newest run does not hand its number to the next one.
+    const newest = (await api(system('/runs'), { cookie: viewer.cookie })).body.runs[0]
+    expect((await api(system(`/runs/${newest.id}`), { method: 'DELETE', cookie: editor.cookie })).status).toBe(200)
+    const next = await api(system('/runs'), { method: 'POST', cookie: editor.cookie, body: {} })
+    expect(next.body.number).toBe(4)
+    const history = await api(system('/revisions'), { cookie: viewer.cookie })
+    expect(history.body.revisions[0].run).toMatchObject({ id: next.body.id, number: 4 })
+  })
+
   it('refuses a viewer the save (403) and keeps the revision', async () => {
     const refused = await api(system(), { method: 'PATCH', cookie: viewer.cookie, body: { source: '# mine', baseRevision: 2 } })
     expect(refused.status).toBe(403)

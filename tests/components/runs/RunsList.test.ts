@@ -3,13 +3,12 @@
 import { describe, expect, it } from 'vitest'
 import { mount } from '@vue/test-utils'
 import RunsList from '../../../components/runs/RunsList.vue'
-import type { StoredRun } from '../../../stores/workbench'
+import type { RunView } from '../../../shared/types/system'
+import { runFixture } from '../../fixtures/answers'
 
 const stubs = { NuxtLink: { props: ['to'], template: '<a :href="to.path + \'?run=\' + to.query.run"><slot /></a>' } }
-const run = (id: number, extra: Partial<StoredRun> = {}): StoredRun => ({
-  id, revision: 2, status: 'ok', kind: 'sweep', solverVersion: '1.0.0', compilerVersion: '1.0.0', storedModel: true, storedBytes: 13_800_000,
-  timingMs: 900, createdAt: '2026-12-01T10:05:00.000Z', createdBy: 'Ann', failedPoints: 0, ...extra,
-})
+const run = (id: number, extra: Partial<RunView> = {}) =>
+  runFixture(id, { revision: 2, kind: 'sweep', compilerVersion: '1.0.0', storedModel: true, storedBytes: 13_800_000, timingMs: 900, ...extra })
 const storage = { usedBytes: 241_300_000, budgetBytes: 250_000_000 }
 
 describe('RunsList', () => {

@@ -10,6 +10,7 @@ import WorkbenchRunNote from '../../../components/workbench/WorkbenchRunNote.vue
 import WorkbenchConflict from '../../../components/workbench/WorkbenchConflict.vue'
 import WorkbenchExamplePicker from '../../../components/workbench/WorkbenchExamplePicker.vue'
 import type { SweepResult } from '../../../shared/types/result'
+import { runFixture } from '../../fixtures/answers'
 
 let wrapper: VueWrapper | null = null
 afterEach(() => {
@@ -98,7 +99,8 @@ describe('WorkbenchRunNote', () => {
   const result = { converged: true, iterations: 3, temperatureC: 25, pH: 3, ionicStrength: 1e-3, species: [], solids: [], components: [], residuals: { maxScaled: 0 } } as never
   const stored = {
     origin: 'stored' as const, kind: 'single' as const, source: '', result, model: null, solverVersion: '1.0.0', compilerVersion: '1.0.0', solverMs: 4, at: '2026-12-01T10:05:00.000Z',
-    run: { id: 12, revision: 3, status: 'ok' as const, kind: 'single' as const, solverVersion: '1.0.0', compilerVersion: '1.0.0', storedModel: true, storedBytes: 400, timingMs: 4, createdAt: '2026-12-01T10:05:00.000Z', createdBy: 'Ann', failedPoints: 0 },
+    // Run 12 of the system, stored as row 4031 of the lab's server.
+    run: runFixture(4031, { number: 12, revision: 3, compilerVersion: '1.0.0', storedModel: true }),
   }
 
   it('names the solver and compiler of a stored run, and says nothing of a recompile when it kept its model', () => {

@@ -6,7 +6,8 @@ import { mount } from '@vue/test-utils'
 import { nextTick } from 'vue'
 import { createPinia, setActivePinia } from 'pinia'
 import WorkbenchResults from '../../../components/workbench/WorkbenchResults.vue'
-import { useWorkbenchStore, type SystemAnswer } from '../../../stores/workbench'
+import { useWorkbenchStore } from '../../../stores/workbench'
+import { revisionFixture, systemFixture } from '../../fixtures/answers'
 import type { Result, SweepResult } from '../../../shared/types/result'
 
 // Demo system and numbers (invented).
@@ -18,11 +19,7 @@ component H2PO4- total 100 mmol/L
 reaction H2O <=> H+ + OH- pKw 14.00 cite "from memory"
 reaction H2PO4- <=> HPO4^2- + H+ pKa 7.20 cite "from memory"
 `
-const answer: SystemAnswer = {
-  lab: { slug: 'demo', name: 'Demo' },
-  role: 'editor',
-  system: { slug: 'buffer', title: 'Buffer', isLibrary: false, latest: { number: 2, sha256: '0'.repeat(64), source, message: '', author: 'Ann', createdAt: '2026-12-01T10:00:00.000Z' } },
-}
+const answer = systemFixture(revisionFixture(2, source), 'editor', { slug: 'buffer', title: 'Buffer' }, { slug: 'demo', name: 'Demo' })
 const point = (pH: number): Result => ({
   converged: true, iterations: 3, temperatureC: 25, pH, ionicStrength: 0.2, components: [], solids: [], residuals: { maxScaled: 1e-12 },
   species: [

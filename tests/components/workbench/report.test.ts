@@ -1,14 +1,13 @@
 // Which run and which revision's text the printable report shows.
 import { describe, expect, it, vi } from 'vitest'
 import { loadReport, reportChoice } from '../../../stores/report'
-import type { SavedRevision, StoredRun } from '../../../stores/workbench'
+import type { RunView } from '../../../shared/types/system'
+import { revisionFixture, runFixture } from '../../fixtures/answers'
 
 // Demo systems (invented numbers).
 const text = (n: number, extra = '') => `system "Rinse tank"\n${extra}component H+ total ${n} mmol/L\n`
-const revision = (number: number, source = text(number)): SavedRevision => ({ number, sha256: String(number).repeat(64).slice(0, 64), source, message: '', author: 'Ann', createdAt: '2026-12-01T10:00:00.000Z' })
-const run = (id: number, rev: number, libraries: StoredRun['libraries'] = []): StoredRun => ({
-  id, revision: rev, status: 'ok', kind: 'single', solverVersion: '1.0.0', compilerVersion: null, storedModel: false, storedBytes: 300, timingMs: 3, createdAt: '2026-12-01T11:00:00.000Z', createdBy: 'Ann', failedPoints: 0, libraries,
-})
+const revision = (number: number, source = text(number)) => revisionFixture(number, source)
+const run = (id: number, rev: number, libraries: RunView['libraries'] = []) => runFixture(id, { revision: rev, libraries })
 const base = '/api/labs/demo/systems/rinse'
 /** A fake API: runs 9 (revision 3) and 7, 5 (revision 2, newest first); revisions 1–3. */
 function api(routes: Record<string, unknown> = {}) {

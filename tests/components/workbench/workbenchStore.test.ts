@@ -3,7 +3,9 @@
 import { beforeEach, describe, expect, it, vi } from 'vitest'
 import { createPinia, setActivePinia } from 'pinia'
 import { compile } from '../../../shared/poise/index'
-import { latestRunOf, problemFrom, richestComponent, runPlan, useWorkbenchStore, type StoredRun, type SystemAnswer } from '../../../stores/workbench'
+import { latestRunOf, problemFrom, richestComponent, runPlan, useWorkbenchStore } from '../../../stores/workbench'
+import type { SystemAnswer } from '../../../shared/types/system'
+import { revisionFixture, runFixture, systemFixture } from '../../fixtures/answers'
 
 // Demo system (invented numbers).
 const saved = `system "Strike bath"
@@ -14,18 +16,11 @@ reaction H2O <=> H+ + OH- pKw 14.00 cite "from memory"
 `
 
 function answer(role: SystemAnswer['role'] = 'editor', number = 4, source = saved): SystemAnswer {
-  return {
-    lab: { slug: 'plating', name: 'Plating' },
-    role,
-    system: { slug: 'strike', title: 'Strike bath', isLibrary: false, latest: { number, sha256: 'ab'.repeat(32), source, message: '', author: 'Ann', createdAt: '2026-12-01T10:00:00.000Z' } },
-  }
+  return systemFixture(revisionFixture(number, source), role)
 }
 
 const result = { converged: true, iterations: 3, temperatureC: 25, pH: 3, ionicStrength: 1e-3, species: [], solids: [], components: [], residuals: { maxScaled: 0 } }
-const run = (id: number, revision: number, withResult = true): StoredRun => ({
-  id, revision, status: 'ok', kind: 'single', solverVersion: '1.0.0', compilerVersion: null, storedModel: false, storedBytes: 400, timingMs: 4, createdAt: '2026-12-01T10:05:00.000Z', createdBy: 'Ann', failedPoints: 0,
-  ...(withResult ? { result } : {}),
-})
+const run = (id: number, revision: number, withResult = true) => runFixture(id, { revision, ...(withResult ? { result } : {}) })
 /** The model a run stored: today's compile of `saved` with pKw moved, as if compiled by an older compiler. */
 function storedModel() {
   const model = structuredClone(compile(saved).model!)

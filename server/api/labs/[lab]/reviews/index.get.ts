@@ -2,14 +2,14 @@
 import { z } from 'zod'
 import { and, eq } from 'drizzle-orm'
 import { LabParams, SlugSchema } from '#shared/utils/lab-schemas'
-import { REVIEW_STATES } from '../../../../database/schema'
+import { REVIEW_STATES, type ReviewListAnswer } from '#shared/types/review'
 
 export const Query = z.object({
   system: SlugSchema.optional(),
   state: z.enum(REVIEW_STATES, { error: `state is one of ${REVIEW_STATES.join(', ')}` }).optional(),
 })
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<ReviewListAnswer> => {
   const params = validateParams(event, LabParams)
   const { lab } = await requireLabRole(event, params.lab, 'viewer')
   const query = validateQuery(event, Query)

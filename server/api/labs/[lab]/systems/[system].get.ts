@@ -1,8 +1,9 @@
 import { eq } from 'drizzle-orm'
 import { SystemParams } from '#shared/utils/lab-schemas'
+import type { SystemAnswer } from '#shared/types/system'
 
 /** A system with its latest revision. */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<SystemAnswer> => {
   const params = validateParams(event, SystemParams)
   const { system, latest, role, lab } = await requireSystem(event, params.lab, params.system, 'viewer')
   const [author] = latest.authorId

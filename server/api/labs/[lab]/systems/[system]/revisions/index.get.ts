@@ -1,7 +1,8 @@
 /** GET /api/labs/:lab/systems/:system/revisions — every revision, newest first, with author, run status and reviews. */
 import { SystemParams } from '#shared/utils/lab-schemas'
+import type { RevisionListAnswer } from '#shared/types/system'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<RevisionListAnswer> => {
   const params = validateParams(event, SystemParams)
   const { system, role, lab } = await requireSystem(event, params.lab, params.system, 'viewer')
   return {
