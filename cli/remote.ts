@@ -3,7 +3,7 @@
  * run, history. Each takes its parsed options and returns an exit code, or
  * throws a CliError (main.ts prints it).
  */
-import type { AnswerKind } from '../shared/types/result'
+import type { RevisionListAnswer, RevisionView, RunView } from '../shared/types/system'
 import { existsSync, readFileSync, writeFileSync } from 'node:fs'
 import { Client, normaliseServer, parseTarget } from './client'
 import { currentLogin, pulledRevision, rememberPull, saveLogin } from './config'
@@ -11,7 +11,7 @@ import { CliError, EXIT } from './exit-codes'
 import type { Model } from '../shared/poise/model'
 
 interface Me { user: { name: string, email: string } }
-interface Revision { number: number, source: string, message: string, author: string | null, createdAt: string }
+type Revision = RevisionView
 
 const out = (text: string) => process.stdout.write(text.endsWith('\n') ? text : `${text}\n`)
 const note = (text: string) => process.stderr.write(`${text}\n`)
@@ -112,16 +112,8 @@ export async function push(file: string | undefined, target: string | undefined,
   return EXIT.ok
 }
 
-interface RunAnswer {
-  id: number
-  revision: number
-  status: 'ok' | 'failed' | 'diverged'
-  kind: AnswerKind
-  libraries: { name: string, revision: number }[]
-  result: unknown
-  /** The model that was solved; null for a run stored before models were. */
-  model: Model | null
-}
+/** POST …/runs answers with the run's result and model. */
+type RunAnswer = RunView & { result: NonNullable<RunView['result']>; model: Model | null }
 
 export async function run(target: string | undefined, options: { revision?: string, json?: boolean, units?: string, asElement?: boolean }): Promise<number> {
   const { lab, path } = parseTarget(target)
@@ -148,7 +140,7 @@ export async function run(target: string | undefined, options: { revision?: stri
 
 export async function history(target: string | undefined, options: { json?: boolean }): Promise<number> {
   const { path } = parseTarget(target)
-  const answer = await new Client(currentLogin()).get<{ revisions: { number: number, message: string, author: string | null, createdAt: string, run: { status: string } | null }[] }>(`${path}/revisions`)
+  const answer = await new Client(currentLogin()).get<RevisionListAnswer>(`${path}/revisions`)
   if (options.json) out(JSON.stringify(answer.revisions, null, 2))
   else out(table([['REV', 'SAVED (UTC)', 'AUTHOR', 'RUN', 'MESSAGE'], ...answer.revisions.map((r) => [
     String(r.number), r.createdAt.slice(0, 16).replace('T', ' '), r.author ?? '—', r.run?.status ?? '—', r.message,

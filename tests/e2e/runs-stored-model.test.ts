@@ -91,7 +91,7 @@ it('lists the stored runs with the lab\'s run storage in the history, and lets t
   await screenshot(page, 'history-stored-runs')
   page.once('dialog', (dialog) => void dialog.accept())
   await list.locator(`[data-test=delete-run-${older.body.id}]`).click()
-  await page.getByRole('status').getByText(`Run ${older.body.id} deleted.`).waitFor()
+  await page.getByRole('status').getByText(`Run ${older.body.number} deleted.`).waitFor()
   await list.locator(`tr[data-run="${older.body.id}"]`).waitFor({ state: 'detached' })
   await expect(list.locator('tbody tr').count()).resolves.toBe(1)
   expect((await api(`${path}/runs`, { cookie: owner.cookie })).body.runs.map((r: { id: number }) => r.id)).toEqual([newer.body.id])
