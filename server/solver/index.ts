@@ -22,9 +22,10 @@ function withShortcut(model: Model, result: Result): Result {
   return shortcut ? { ...result, shortcut } : result
 }
 import { bufferCapacity } from './sensitivity'
+import { attachLinearUncertainty } from './uncertainty'
 
 /** Stored with every run, so a result can be traced to the solver that made it. */
-export const SOLVER_VERSION = '1.1.0'
+export const SOLVER_VERSION = '1.2.0'
 
 /** Hard ceilings the server may rely on whatever a caller asks for. */
 export const SOLVER_LIMITS = { maxIterations: 2000, timeBudgetMs: 60_000 } as const
@@ -342,7 +343,10 @@ export function solve(model: Model, options?: SolveOptions): Result {
     const limits = { maxIterations: iterationsOf(options), ...guardOf(options) }
     const state = newState(built.problem)
     const out = solveProblem(ws, state, limits, [])
-    if (out.ok) out.result.bufferCapacity = bufferCapacity(ws, state)
+    if (out.ok) {
+      out.result.bufferCapacity = bufferCapacity(ws, state)
+      attachLinearUncertainty(ws, state, out.result)
+    }
     return withShortcut(model, out.result)
   } catch (error) {
     return internalFailure(model, error)

@@ -6,7 +6,7 @@
  * display.
  */
 
-import type { Result, SweepResult, TitrationCurveResult, TitrationResult } from '../types/result'
+import type { AnswerUncertainty, Result, SweepResult, TitrationCurveResult, TitrationResult } from '../types/result'
 import { dissolvedText, hasDissolvedTotal } from './names'
 import { MOLAR_SCALE, type UnitScale } from './units'
 import { titrationAsSweep } from './titration'
@@ -47,12 +47,18 @@ export function resultCsv(result: Result, scale: UnitScale = MOLAR_SCALE): strin
   const rows: string[][] = [RESULT_HEADER]
   const add = (section: string, name: string, quantity: string, value: string, unit = '') =>
     rows.push([section, name, quantity, value, unit])
+  /** `QUANTITY ±` (one standard uncertainty, in the quantity's unit) and the constant behind most of it. */
+  const addUncertainty = (section: string, name: string, quantity: string, u: AnswerUncertainty, factor: number | null, unit: string) => {
+    add(section, name, `${quantity} ±`, scaled(u.sigma, factor), unit)
+    if (u.main) add(section, name, `${quantity} ± mostly from`, u.main.reaction, `${csvNumber(u.main.share)} of the variance`)
+  }
 
   add('conditions', '', 'converged', String(result.converged))
   if (result.reason) add('conditions', '', 'reason', result.reason)
   add('conditions', '', 'iterations', String(result.iterations))
   add('conditions', '', 'temperature', csvNumber(result.temperatureC), '°C')
   add('conditions', '', 'pH', csvNumber(result.pH))
+  if (result.pHUncertainty) addUncertainty('conditions', '', 'pH', result.pHUncertainty, 1, '')
   add('conditions', '', 'ionic strength', csvNumber(result.ionicStrength), 'mol/L')
   add('conditions', '', 'max scaled residual', csvNumber(result.residuals.maxScaled))
   for (const s of result.species) {
@@ -60,6 +66,7 @@ export function resultCsv(result: Result, scale: UnitScale = MOLAR_SCALE): strin
     const factor = scale.species(s.name)
     add('species', s.name, 'concentration', scaled(s.concentration, factor), scale.unit)
     add('species', s.name, 'log10 concentration', csvNumber(s.log10), 'log10(mol/L)')
+    if (s.log10Uncertainty) addUncertainty('species', s.name, 'log10 concentration', s.log10Uncertainty, 1, 'log10(mol/L)')
     add('species', s.name, 'activity', scaled(s.activity, factor), scale.unit)
     add('species', s.name, 'activity coefficient', csvNumber(s.gamma))
     if (s.none) add('species', s.name, 'none', s.none)
@@ -70,12 +77,14 @@ export function resultCsv(result: Result, scale: UnitScale = MOLAR_SCALE): strin
     if (s.precipitated !== undefined) add('solid', s.name, 'precipitated', csvNumber(s.precipitated), 'mol/L')
     if (s.dissolved !== undefined) add('solid', s.name, 'dissolved', csvNumber(s.dissolved), 'mol/L')
     add('solid', s.name, 'saturation index', csvNumber(s.saturationIndex))
+    if (s.saturationIndexUncertainty) addUncertainty('solid', s.name, 'saturation index', s.saturationIndexUncertainty, 1, '')
     if (s.suppressed) add('solid', s.name, 'suppressed', 'true')
     if (s.none) add('solid', s.name, 'none', s.none)
   }
   for (const g of result.gases ?? []) {
     add('gas', g.name, 'partial pressure', csvNumber(g.pressure), 'atm')
     add('gas', g.name, 'log10 partial pressure', csvNumber(g.log10), 'log10(atm)')
+    if (g.log10Uncertainty) addUncertainty('gas', g.name, 'log10 partial pressure', g.log10Uncertainty, 1, 'log10(atm)')
     if (g.none) add('gas', g.name, 'none', g.none)
   }
   for (const c of result.components) {
@@ -89,6 +98,11 @@ export function resultCsv(result: Result, scale: UnitScale = MOLAR_SCALE): strin
     if (c.freeConcentration !== undefined) add('component', c.name, 'free concentration', scaled(c.freeConcentration, factor), unit)
     if (c.freeActivity !== undefined) add('component', c.name, 'free activity', fixed ? csvNumber(c.freeActivity) : scaled(c.freeActivity, factor), fixed ? '' : unit)
     if (c.dissolved !== undefined) add('component', c.name, 'dissolved', scaled(c.dissolved, factor), unit)
+    if (c.dissolvedUncertainty) addUncertainty('component', c.name, 'dissolved', c.dissolvedUncertainty, factor, unit)
+  }
+  if (result.uncertainty) {
+    add('conditions', '', 'uncertainty method', result.uncertainty.method)
+    for (const k of result.uncertainty.constants) add('constant', k.reaction, `${k.kind} uncertainty in log10 K`, csvNumber(k.logKUncertainty))
   }
   for (const w of result.warnings ?? []) add('conditions', '', 'warning', w)
   return csvLines(rows)

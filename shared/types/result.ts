@@ -8,12 +8,49 @@
  * and the entry's `none` field says why.
  */
 
+/**
+ * The ± of one answer from the uncertainties of the model's constants (the
+ * `± S` written after them; see Result.uncertainty for how it was found).
+ */
+export interface AnswerUncertainty {
+  /**
+   * Standard uncertainty in the quantity's own units: log10 units for log10 c,
+   * pH, a saturation index and log10 p; mol/L for a dissolved total. For a
+   * Monte Carlo, half the 2.5–97.5 % range divided by 1.96.
+   */
+  sigma: number
+  /**
+   * Linear propagation: the constant that contributes most to σ², as its
+   * reaction is written in the model (`ModelReaction.equation`), with its
+   * share of σ² (0–1); null when σ is 0.
+   */
+  main?: { reaction: string; share: number } | null
+  /** Monte Carlo: the median and the 2.5 % and 97.5 % quantiles over the draws. */
+  median?: number
+  low?: number
+  high?: number
+}
+
+/** How the ± of an answer were found; present only when some constant carries a ±. */
+export interface UncertaintySummary {
+  /** `linear`: first-order propagation through the solver's sensitivities (one solve); `monte-carlo`: constants drawn and solved again (sweeps, titrations). */
+  method: 'linear' | 'monte-carlo'
+  /** The constants that carry a ±: the reaction as written, its kind and σ of its log10 K. */
+  constants: { reaction: string; kind: string; logKUncertainty: number }[]
+  /** Monte Carlo: draws made, the seed of the generator, and draws whose solve did not converge (left out of the bands). */
+  samples?: number
+  seed?: number
+  failed?: number
+}
+
 export interface SpeciesResult {
   name: string
   charge: number
   concentration: number
   /** log10 of the concentration; null when there is none (see `none`). */
   log10: number | null
+  /** ± of log10 (log10 units); only when some constant carries a ± and log10 is not null. */
+  log10Uncertainty?: AnswerUncertainty
   activity: number
   gamma: number
   /** Why a value above is null (e.g. a component of the species has a total of 0). */
@@ -35,6 +72,8 @@ export interface SolidResult {
   dissolved?: number
   /** log10 of the saturation ratio; null when it has none (see `none`). */
   saturationIndex: number | null
+  /** ± of the saturation index; only when some constant carries a ± (0 for a solid present at equilibrium). */
+  saturationIndexUncertainty?: AnswerUncertainty
   suppressed?: boolean
   /** Why a value above is null. */
   none?: string
@@ -46,6 +85,8 @@ export interface GasResult {
   pressure: number
   /** log10 of the pressure; null when there is none (see `none`). */
   log10: number | null
+  /** ± of log10 of the pressure; only when some constant carries a ±. */
+  log10Uncertainty?: AnswerUncertainty
   /** Why a value above is null. */
   none?: string
 }
@@ -67,6 +108,8 @@ export interface ComponentResult {
   freeActivity?: number
   /** Total dissolved (aqueous species only), mol/L. */
   dissolved?: number
+  /** ± of `dissolved`, mol/L; only when some constant carries a ±. */
+  dissolvedUncertainty?: AnswerUncertainty
 }
 
 /**
@@ -105,6 +148,10 @@ export interface Result {
    * is held or the pH does not move with the base (a solid fixes it).
    */
   bufferCapacity?: number | null
+  /** ± of the pH; only when some constant carries a ± and H+ is solved for. */
+  pHUncertainty?: AnswerUncertainty
+  /** How the ± of this answer were found; absent when no constant carries a ±. */
+  uncertainty?: UncertaintySummary
 }
 
 /**
