@@ -14,9 +14,10 @@ export { poiseLanguage } from './language'
 export { toEditorDiagnostics } from './editorDiagnostics'
 export { poiseLinter, type PoiseLinterOptions, type PoiseCompileOptions, type PoiseCompileResult } from './lint'
 export { poiseHighlightStyle, poiseEditorTheme } from './theme'
-export { RUN_KEY, SAVE_KEY, shortcutLabel } from './shortcuts'
+export { RUN_KEY, SAVE_KEY, REFERENCE_KEY, shortcutLabel } from './shortcuts'
+export { statementAt, referenceAt, poiseReference } from './reference'
 
-/** Poise with highlighting, completion of keywords, units, constant kinds and declared species, and hover on species. */
+/** Poise with highlighting, completion of keywords, units, constant kinds and declared species, and hover (the editor adds `poiseReference()`: the reference key and link). */
 export function poise(): LanguageSupport {
   return new LanguageSupport(poiseLanguage, [
     poiseLanguage.data.of({ autocomplete: poiseCompletionSource }),

@@ -89,8 +89,9 @@ export const ROUTES: RouteDoc[] = [
   { method: 'post', path: '/api/invitations/register', tag: 'Invitations', access: 'anyone', body: InvitationRegisterBody, summary: 'Create an account from an invitation link and join the lab', ok: { status: 201, description: '`{ user, lab, role }`; sets the session cookie' }, errors: { 404: 'The link is unknown, used, withdrawn or expired', 409: 'The address already has an account: sign in and accept' } },
 
   // Examples and stateless checks
-  { method: 'get', path: '/api/examples', tag: 'Examples', access: 'signed-in', summary: 'The shipped example systems', ok: { status: 200, description: '`{ examples }`' } },
-  { method: 'get', path: '/api/examples/{example}', tag: 'Examples', access: 'signed-in', params: ExampleParams, summary: "One example's text", ok: { status: 200, description: 'The example with its text' }, errors: { 404: 'No such example' } },
+  { method: 'get', path: '/api/examples', tag: 'Examples', access: 'anyone', summary: 'The shipped example systems', ok: { status: 200, description: '`{ examples }`' } },
+  { method: 'get', path: '/api/examples/{example}', tag: 'Examples', access: 'anyone', params: ExampleParams, summary: "One example's text", ok: { status: 200, description: 'The example with its text' }, errors: { 404: 'No such example' } },
+  { method: 'get', path: '/api/examples/{example}/result', tag: 'Examples', access: 'anyone', params: ExampleParams, summary: 'An example solved: its model and its answer (kept until the server restarts)', ok: { status: 200, description: '`{ slug, title, kind, solverVersion, compilerVersion, model, result }`' }, errors: { 404: 'No such example', 503: 'The solver is busy; ask again' } },
   { method: 'post', path: '/api/check', tag: 'Solve', access: 'signed-in', body: SourceBody, summary: 'Check Poise text (no libraries)', ok: { status: 200, description: '`{ ok, diagnostics, summary }`' } },
   { method: 'post', path: '/api/solve', tag: 'Solve', access: 'signed-in', body: SourceBody, summary: 'Solve Poise text (no libraries), stored nowhere', ok: { status: 200, description: SOURCE_ANSWER }, errors: { 413: 'A sweep with too many points', 429: TOO_MANY_SOLVES, 503: 'The solver is busy; try again' } },
 

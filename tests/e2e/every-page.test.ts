@@ -85,6 +85,32 @@ describe('every page is clean', () => {
     expect(problems).toEqual([])
   })
 
+  it('signed out: the language reference, the examples and one example', async () => {
+    const pages: [string, string][] = [
+      ['/reference', 'reference'],
+      ['/examples', 'examples'],
+      ['/examples/copper-rinse-tank', 'example-copper'],
+    ]
+    const problems: string[] = []
+    for (const [path, name] of pages) problems.push(...await problemsOn(path, name))
+    expect(problems).toEqual([])
+  }, 120_000)
+
+  it('the reference, the examples and an example\'s answer are readable signed out', async () => {
+    const page = await openPage('/reference#component')
+    await expect(page.getByRole('heading', { level: 1 }).textContent()).resolves.toContain('Poise language reference')
+    // Each statement has its anchor and its syntax diagram under the heading.
+    await expect(page.locator('h3#component').count()).resolves.toBe(1)
+    await expect(page.locator('h3#abbreviation + figure svg.railroad-diagram').count()).resolves.toBe(1)
+    const home = await openPage('/')
+    // The answer of a shipped example, computed by the server: the diagram of its sweep is drawn.
+    await home.locator('section[aria-label="Result of the example"] section[aria-label="Diagram"] svg').first().waitFor({ timeout: 60_000 })
+    const examples = await api('/api/examples/copper-rinse-tank/result')
+    expect(examples.status).toBe(200)
+    expect(examples.body.kind).toBe('sweep')
+    expect(examples.body.result.points.length).toBe(51)
+  })
+
   it('refuses with its own message: a bogus reset link is invalid, no field names, a 401 is not a server error', async () => {
     // A token not even of the form of one: the page says so before a password is typed.
     const page = await openPage('/password/reset?token=not-a-real-token')

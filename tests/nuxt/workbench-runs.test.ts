@@ -152,6 +152,24 @@ describe('examples', () => {
     const missing = await api('/api/examples/no-such-thing', { cookie: viewer.cookie })
     expect(missing.status).toBe(404)
     expect(missing.body.message).toBe('There is no example called "no-such-thing"')
-    expect((await api('/api/examples')).status).toBe(401)
+    // The examples are readable signed out (the /examples pages and the home page show them).
+    const signedOut = await api('/api/examples')
+    expect(signedOut.status).toBe(200)
+    expect(signedOut.body.examples.map((e: { slug: string }) => e.slug)).toContain('copper-rinse-tank')
+  })
+
+  it('solves an example for anyone, once, and names it as written', async () => {
+    const first = await api('/api/examples/nickel-rinse-discharge/result')
+    expect(first.status).toBe(200)
+    expect(first.body.kind).toBe('sweep')
+    expect(first.body.model.title).toBe('Nickel rinse water before discharge')
+    // pH from 7 to 13 step 0.1: 61 points, every one converged.
+    expect(first.body.result.points).toHaveLength(61)
+    expect(first.body.result.points.every((p: { converged: boolean }) => p.converged)).toBe(true)
+    const again = await api('/api/examples/nickel-rinse-discharge/result')
+    expect(again.body).toEqual(first.body)
+    const missing = await api('/api/examples/no-such-thing/result')
+    expect(missing.status).toBe(404)
+    expect((await api('/api/examples/Not_A_Name/result')).status).toBe(400)
   })
 })

@@ -5,13 +5,9 @@
  */
 import { z } from 'zod'
 
-export interface ExampleView {
-  slug: string
-  title: string
-  /** The opening comment lines, joined: what the example is about. */
-  summary: string
-  source: string
-}
+import type { ExampleView } from '#shared/types/examples'
+
+export type { ExampleView }
 
 export const Params = z.object({ example: z.string().regex(/^[a-z0-9-]+$/, { error: 'Name an example by its address, e.g. copper-rinse-tank' }) })
 
@@ -55,7 +51,6 @@ export async function readExamples(): Promise<ExampleView[]> {
 }
 
 export default defineEventHandler(async (event) => {
-  await requireUser(event)
   const { example } = validateParams(event, Params)
   const found = (await readExamples()).find((e) => e.slug === example)
   if (!found) throw createError({ statusCode: 404, message: `There is no example called "${example}"` })
