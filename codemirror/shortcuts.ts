@@ -20,3 +20,15 @@ export function shortcutLabel(key: string, apple: boolean = isApplePlatform()): 
     .map((part) => (part === 'Mod' ? (apple ? '⌘' : 'Ctrl') : part.length === 1 ? part.toUpperCase() : part))
     .join(apple ? ' ' : '+')
 }
+
+/**
+ * True when a key press is one of the keys above (`Mod-Enter`, `Mod-s`): Ctrl,
+ * or ⌘ on Apple keyboards, with no other modifier, so the page can answer
+ * them outside the editor too (the note field, a button, the results).
+ */
+export function matchesShortcut(event: Pick<KeyboardEvent, 'key' | 'ctrlKey' | 'metaKey' | 'altKey' | 'shiftKey'>, key: string, apple: boolean = isApplePlatform()): boolean {
+  const [modifier, name] = key.split('-')
+  if (modifier !== 'Mod' || !name || event.altKey || event.shiftKey) return false
+  const mod = apple ? event.metaKey && !event.ctrlKey : event.ctrlKey && !event.metaKey
+  return mod && event.key.toLowerCase() === name.toLowerCase()
+}

@@ -41,8 +41,16 @@ interface ShownBase {
   /** ISO time the answer arrived (stored runs: when the server made it). */
   at: string
 }
-/** A preview carries `ofRevision` when it solved the saved text of that revision (a viewer's Run). */
-export type ShownRun = (ShownBase & { origin: 'stored'; run: RunView }) | (ShownBase & { origin: 'preview'; ofRevision: number | null })
+/**
+ * Why a preview was made: `unsaved` edits; a `viewer`'s Run (viewers store
+ * nothing); or `opened`, the saved revision solved on opening because no run
+ * of it is stored yet.
+ */
+export type PreviewReason = 'unsaved' | 'viewer' | 'opened'
+/** A preview carries `ofRevision` when it solved the saved text of that revision. */
+export type ShownRun =
+  | (ShownBase & { origin: 'stored'; run: RunView })
+  | (ShownBase & { origin: 'preview'; ofRevision: number | null; reason: PreviewReason })
 
 /** A refusal from the server, in a shape the page can show. */
 export interface ServerProblem {
@@ -236,30 +244,40 @@ export const useWorkbenchStore = defineStore('workbench', () => {
     }
   }
 
-  /** On opening: the newest stored run of the latest revision, if there is one. */
+  /**
+   * On opening, results at once: the newest stored run of the latest
+   * revision, or when there is none a preview of the saved text (stored
+   * nowhere, and labelled so).
+   */
   async function loadLastRun() {
     const saved = latest.value
     if (!saved || shown.value) return
+    let mine: RunView | null = null
     try {
       const { runs } = await request<RunListAnswer>(`${base.value}/runs`)
-      const mine = latestRunOf(runs, saved.number)
-      if (!mine) {
-        olderRun.value = runs[0] ?? null
+      mine = latestRunOf(runs, saved.number)
+      if (!mine) olderRun.value = runs[0] ?? null
+      else {
+        const full = await request<RunView>(`${base.value}/runs/${mine.id}`)
+        if (latest.value?.number === saved.number && !shown.value) showStored(full, saved.source)
         return
       }
-      const full = await request<RunView>(`${base.value}/runs/${mine.id}`)
-      if (latest.value?.number === saved.number && !shown.value) showStored(full, saved.source)
     } catch (error) {
       runProblem.value = problemFrom(error)
+      return
     }
+    if (latest.value?.number === saved.number && !shown.value && !running.value) await run('preview', true)
   }
 
-  async function run() {
+  /**
+   * Solve: a stored run or a preview as `plan` says (or as asked). `opening`
+   * marks the preview made on opening a system with no stored run.
+   */
+  async function run(how: RunPlan = plan.value, opening = false) {
     const saved = latest.value
     if (!saved) return
     const ticket = ++runTicket
-    const how = plan.value
-    const text = how === 'stored' ? saved.source : source.value
+    const text = how === 'stored' || opening ? saved.source : source.value
     running.value = true
     runProblem.value = null
     try {
@@ -272,6 +290,7 @@ export const useWorkbenchStore = defineStore('workbench', () => {
           shown.value = {
             origin: 'preview',
             ofRevision: text === saved.source ? saved.number : null,
+            reason: opening ? 'opened' : text === saved.source ? 'viewer' : 'unsaved',
             kind: preview.kind,
             source: text,
             result: preview.result,

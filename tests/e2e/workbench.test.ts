@@ -38,6 +38,9 @@ describe('the workbench', () => {
     const page = await openSignedIn('/labs/demo/systems/phosphate-buffer-recipe', editor.cookie)
     await openWorkbench(page)
     await page.getByRole('navigation', { name: 'Breadcrumb' }).getByText('revision 1').waitFor()
+    // No run of revision 1 is stored: opening shows a preview of it at once, and says it is not stored.
+    await page.locator('[data-test=preview-label]').getByText('Preview of revision 1 — not stored. No run of this revision is stored yet, so it was solved on opening.').waitFor()
+    await page.locator('[data-test=summary-ph]').waitFor()
     await screenshot(page, 'workbench-opened')
 
     // Break a reaction: the message appears in a block under its line, and the status line counts it.
@@ -65,13 +68,14 @@ describe('the workbench', () => {
     await page.getByTestId('status-errors').getByText('0 errors').waitFor()
     await expect(page.locator('[data-test=run-hint]').textContent()).resolves.toMatch(/preview, not stored/)
 
+    // Ctrl+S and Ctrl+Enter work in the note field too (not only in the editor).
     await page.locator('[data-test=revision-message]').fill('ideal solution, one point')
-    await page.locator('[data-test=save]').click()
+    await page.locator('[data-test=revision-message]').press('Control+s')
     await page.locator('[data-test=saved-note]').getByText('Saved as revision 2.').waitFor()
     await page.getByRole('navigation', { name: 'Breadcrumb' }).getByText('revision 2').waitFor()
 
-    await page.locator('[data-test=run]').click()
-    await page.locator('[data-test=run-note]').getByText(/of revision 2/).waitFor()
+    await page.locator('[data-test=revision-message]').press('Control+Enter')
+    await page.locator('[data-test=run-note]').getByText(/^\s*Run \d+ of revision 2/).waitFor()
     // Equal NaH2PO4 and Na2HPO4: pH = pKa2 + log10([HPO4²⁻]/[H2PO4⁻]) (Henderson–Hasselbalch), with
     // Na 3.449 g/L / 22.990 g/mol (IUPAC atomic weight) = 150.02 mmol/L, so HPO4²⁻ 50.02 and H2PO4⁻ 49.98 mmol/L.
     const pH = Number(await page.locator('[data-test=summary-ph]').textContent())
@@ -135,8 +139,9 @@ describe('the workbench', () => {
     await expect(page.locator('.cm-content').getAttribute('contenteditable')).resolves.toBe('false')
     await expect(page.locator('[data-test=save]').count()).resolves.toBe(0)
     await expect(page.locator('[data-test=run-hint]').textContent()).resolves.toMatch(/You are viewer here: the text is read-only\. Run solves revision 1 as a preview; viewers' runs are not stored\./)
+    await page.locator('[data-test=preview-label]').getByText(/solved on opening/).waitFor()
     await page.locator('[data-test=run]').click()
-    await page.locator('[data-test=preview-label]').getByText('Preview of revision 1 — not stored.').waitFor()
+    await page.locator('[data-test=preview-label]').getByText('Preview of revision 1 — not stored. Viewers\' runs are previews: nothing is kept.').waitFor()
     await page.locator('[data-test=sweep-point]').waitFor()
     expect((await api('/api/labs/demo/systems/copper-rinse-tank/runs', { cookie: viewer.cookie })).body.runs.length).toBe(runsBefore)
     await screenshot(page, 'workbench-viewer')

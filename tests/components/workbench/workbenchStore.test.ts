@@ -193,7 +193,7 @@ describe('useWorkbenchStore', () => {
     expect(store.running).toBe(false)
   })
 
-  it('loads the newest run of the latest revision on opening, and notes an older one otherwise', async () => {
+  it('loads the newest run of the latest revision on opening, and otherwise shows a preview of the saved text at once, storing nothing', async () => {
     const store = useWorkbenchStore()
     store.open(answer())
     fetcher.mockResolvedValueOnce({ runs: [run(8, 4, false), run(7, 3, false)] }).mockResolvedValueOnce(run(8, 4))
@@ -204,10 +204,15 @@ describe('useWorkbenchStore', () => {
     setActivePinia(createPinia())
     const other = useWorkbenchStore()
     other.open(answer())
+    other.source = saved + '# an edit not yet saved\n'
     fetcher.mockResolvedValueOnce({ runs: [run(7, 3, false)] })
+      .mockResolvedValueOnce({ kind: 'single', solverVersion: '1.0.0', compilerVersion: '1.0.0', elapsedMs: 2, diagnostics: [], libraries: [], result, model: compile(saved).model })
     await other.loadLastRun()
-    expect(other.shown).toBeNull()
     expect(other.olderRun?.revision).toBe(3)
+    // The saved revision, not the edit, through the preview route that stores nothing.
+    expect(fetcher).toHaveBeenLastCalledWith('/api/labs/plating/solve', { method: 'POST', body: { source: saved } })
+    expect(fetcher.mock.calls.filter(([url, options]) => options?.method === 'POST' && String(url).endsWith('/runs'))).toEqual([])
+    expect(other.shown).toMatchObject({ origin: 'preview', ofRevision: 4, reason: 'opened', source: saved })
   })
 
   it('on a 409 keeps my text and shows theirs, and saves mine on top only when asked', async () => {
