@@ -117,8 +117,14 @@ describe('WorkbenchRunNote', () => {
 
   it('labels a viewer\'s preview of the saved revision as not stored', () => {
     const { run: _run, ...rest } = stored
-    wrapper = mount(WorkbenchRunNote, { props: { shown: { ...rest, origin: 'preview' as const, ofRevision: 3 }, stale: false } })
-    expect(wrapper.find('[data-test=preview-label]').text()).toMatch(/^Preview of revision 3 — not stored\. Viewers' runs are previews: nothing is kept\./)
+    wrapper = mount(WorkbenchRunNote, { props: { shown: { ...rest, origin: 'preview' as const, ofRevision: 3, reason: 'viewer' as const }, stale: false } })
+    expect(wrapper.find('[data-test=preview-label]').text()).toMatch(/^Preview of revision 3 — not stored\. Viewers' runs are previews: nothing is kept\.\s+\(1 Dec 2026/)
+  })
+
+  it('says a preview made on opening was solved because no run of the revision is stored', () => {
+    const { run: _run, ...rest } = stored
+    wrapper = mount(WorkbenchRunNote, { props: { shown: { ...rest, origin: 'preview' as const, ofRevision: 3, reason: 'opened' as const }, stale: false } })
+    expect(wrapper.find('[data-test=preview-label]').text()).toMatch(/^Preview of revision 3 — not stored\. No run of this revision is stored yet, so it was solved on opening\.\s+\(/)
   })
 })
 
