@@ -14,7 +14,7 @@ import { poiseSymbolsField } from './analysis'
 import { lexLine, type LineToken } from './language'
 
 /** Words that open a statement, in the order a file usually has them. */
-const STATEMENT_WORDS = ['system', 'temperature', 'activity', 'ionic-strength', 'ion-size', 'component', 'reaction', 'solid', 'source', 'use', 'sweep', 'limit', 'sample', 'titrant', 'titrate']
+const STATEMENT_WORDS = ['system', 'temperature', 'activity', 'ionic-strength', 'ion-size', 'component', 'reaction', 'solid', 'source', 'use', 'sweep', 'map', 'limit', 'sample', 'titrant', 'titrate']
 const COMPONENT_SPECS = ['total', 'free', 'pH', 'pressure', 'balance', 'excess']
 const ACTIVITY_MODELS = ['ideal', 'davies', 'debye-huckel']
 const REACTION_TAIL = ['dH', 'cite', 'fit']
@@ -88,13 +88,17 @@ export function planCompletion(before: LineToken[], symbols: readonly PoiseSymbo
     case 'solid':
       if (before.length === 1) return { kind: 'symbol', words: symbolNames(symbols, ['solid']) }
       return before.length === 2 ? { kind: 'keyword', words: known(['suppressed'], KEYWORDS) } : null
-    case 'sweep': {
-      if (before.length === 1) return { kind: 'keyword', words: known(SWEEP_VARIABLES, KEYWORDS) }
-      if (last.image === 'total' || last.image === 'pressure') return { kind: 'symbol', words: symbolNames(symbols, ['component']) }
-      const quantity = QUANTITY_AFTER[before[1]!.image]
-      const countsPoints = before[before.length - 2]?.image === 'points'
-      if (last.role === 'number' && quantity && !countsPoints) return unitsOf(quantity)
-      return { kind: 'keyword', words: known(SWEEP_WORDS, KEYWORDS) }
+    case 'sweep':
+      return planAxis(before, symbols, SWEEP_WORDS)
+    case 'map': {
+      // `map AXIS by AXIS`: each axis as a sweep's; `by` once the first axis has its spacing.
+      const by = before.findIndex((t) => t.image === 'by')
+      if (by >= 0) return planAxis(before.slice(by), symbols, SWEEP_WORDS)
+      const spaced = before.some((t) => t.image === 'step' || t.image === 'points') && last.role === 'number'
+      const plan = planAxis(before, symbols, SWEEP_WORDS)
+      if (spaced && before[before.length - 2]?.image === 'points') return { kind: 'keyword', words: known(['log', 'by'], KEYWORDS) }
+      if (last.image === 'log') return { kind: 'keyword', words: known(['by'], KEYWORDS) }
+      return spaced && plan?.kind === 'keyword' ? { kind: 'keyword', words: known([...plan.words, 'by'], KEYWORDS) } : plan
     }
     case 'limit': {
       // `limit dissolved X N UNIT`: X a component (not H+) or an element one of them holds (not H or O).
@@ -121,6 +125,17 @@ export function planCompletion(before: LineToken[], symbols: readonly PoiseSymbo
     default:
       return null
   }
+}
+
+/** Within `sweep …` or one axis of `map … by …` (`before` starts at the word before the variable). */
+function planAxis(before: LineToken[], symbols: readonly PoiseSymbol[], words: string[]): CompletionPlan | null {
+  const last = before[before.length - 1]!
+  if (before.length === 1) return { kind: 'keyword', words: known(SWEEP_VARIABLES, KEYWORDS) }
+  if (last.image === 'total' || last.image === 'pressure') return { kind: 'symbol', words: symbolNames(symbols, ['component']) }
+  const quantity = QUANTITY_AFTER[before[1]!.image]
+  const countsPoints = before[before.length - 2]?.image === 'points'
+  if (last.role === 'number' && quantity && !countsPoints) return unitsOf(quantity)
+  return { kind: 'keyword', words: known(words, KEYWORDS) }
 }
 
 /** What a `limit dissolved` may name: the elements the components hold (H and O aside), then the components (H+ aside). */

@@ -61,6 +61,8 @@ export const TOKEN_STYLES: Readonly<Record<string, TokenStyle | null>> = {
   SourceKeyword: statement,
   UseKeyword: statement,
   SweepKeyword: statement,
+  MapKeyword: statement,
+  ByKeyword: keyword,
   LimitKeyword: statement,
   DissolvedKeyword: keyword,
   SampleKeyword: statement,

@@ -151,8 +151,15 @@ function componentChanges(a: Model, b: Model): ModelChange[] {
 }
 
 function sweepText(model: Model): string | null {
-  const s = model.sweep
-  if (!s) return null
+  return model.sweep ? axisText(model.sweep) : null
+}
+
+/** A map in words: its two axes. */
+function mapText(model: Model): string | null {
+  return model.map ? `${axisText(model.map.x)} by ${axisText(model.map.y)}` : null
+}
+
+function axisText(s: NonNullable<Model['sweep']>): string {
   const first = s.values[0]
   const last = s.values[s.values.length - 1]
   const what = s.component ? `${s.variable} of ${s.component}` : s.variable
@@ -169,6 +176,7 @@ function conditionChanges(a: Model, b: Model): ModelChange[] {
   const ionic = (m: Model) => m.fixedIonicStrength === null ? 'from the species' : `${quantity(m.fixedIonicStrength)} mol/L`
   condition('ionic strength', ionic(a), ionic(b), CONDITION_SIZE)
   condition('sweep', sweepText(a), sweepText(b), 1)
+  condition('map', mapText(a), mapText(b), 1)
   // Which library revisions the constants came from: a moved library can change many constants at once.
   const libraries = (m: Model) => m.libraries.map(l => `${l.name} @ ${l.revision}`).sort().join(', ') || 'none'
   condition('libraries used', libraries(a), libraries(b), CONDITION_SIZE)

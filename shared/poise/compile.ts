@@ -3,7 +3,7 @@
  * problem becomes a diagnostic; nothing here throws to the caller (index.ts
  * turns even an internal bug into a diagnostic).
  */
-import type { Model, ModelComponent, ModelGas, ModelLimit, ModelReaction, ModelSolid, ModelSpecies, ModelSweep, ModelTitration, ActivityModelName, ConstantKind } from './model'
+import type { Model, ModelComponent, ModelGas, ModelLimit, ModelMap, ModelReaction, ModelSolid, ModelSpecies, ModelSweep, ModelTitration, ActivityModelName, ConstantKind } from './model'
 import type { Diagnostic, SourceRange } from './diagnostics'
 import { parseFormula, type Abbreviations, type ParsedFormula } from './formula'
 import { compileAbbreviations } from './abbreviations'
@@ -13,6 +13,7 @@ import { parseFile, type Statement, type Tok } from './statements'
 import { checkComponent } from './components'
 import { checkBalance, kindMismatch, logKFromConstant, logKUncertaintyFromConstant, resolveReactions, type Known, type PreparedReaction, type PreparedTerm, type ReactionStatement } from './reactions'
 import { compileSweep } from './sweep'
+import { compileMap } from './map'
 import { compileLimit } from './limitStatement'
 import { compileTitration } from './titration'
 import { convert, unitInfo, UNIT_HINTS } from './units'
@@ -137,7 +138,7 @@ export function compileSource(source: string, options: CompileOptions, stack: st
   if (systems.length === 0 && !parsed.problems.length) report.error('P003', 'a file starts with `system "TITLE"`: add it as the first line', { from: 0, to: 0 })
   if (systems.length > 0 && st[0] !== systems[0]) report.error('P003', '`system` must be the first statement of the file', systems[0]!.keyword)
   for (const dup of systems.slice(1)) report.error('P004', '`system` is given twice: keep one', dup.keyword)
-  for (const kind of ['temperature', 'activity', 'ionicStrength', 'sweep', 'sampleVolume', 'titrate'] as const) {
+  for (const kind of ['temperature', 'activity', 'ionicStrength', 'sweep', 'map', 'sampleVolume', 'titrate'] as const) {
     const word = kind === 'sampleVolume' ? 'sample volume' : null
     for (const dup of of(kind).slice(1)) report.error('P004', `\`${word ?? dup.keyword.image}\` is given twice: keep one (one ${word ?? dup.keyword.image} a file)`, dup.keyword)
   }
@@ -335,15 +336,19 @@ export function compileSource(source: string, options: CompileOptions, stack: st
   }
   const sweepStmt = of('sweep')[0]
   const withoutDH = resolution.used.filter((r) => r.dH === null)
-  if (withoutDH.length > 0 && (Math.abs(temperatureC - REFERENCE_TEMPERATURE_C) > 1e-9 || sweepStmt?.variable === 'temperature')) {
+  const mapStmt = of('map')[0]
+  const mapsTemperature = mapStmt !== undefined && (mapStmt.x.variable === 'temperature' || mapStmt.y.variable === 'temperature')
+  if (withoutDH.length > 0 && (Math.abs(temperatureC - REFERENCE_TEMPERATURE_C) > 1e-9 || sweepStmt?.variable === 'temperature' || mapsTemperature)) {
     const lines = withoutDH.map((r) => (r.library ? `${r.library}:${r.line}` : String(r.line))).join(', ')
-    const at = sweepStmt?.variable === 'temperature' ? sweepStmt.keyword : tStmt!.keyword
+    const at = sweepStmt?.variable === 'temperature' ? sweepStmt.keyword : mapsTemperature ? mapStmt!.keyword : tStmt!.keyword
     report.warning('W103', `${withoutDH.length} reaction${withoutDH.length > 1 ? 's have' : ' has'} no dH, so ${withoutDH.length > 1 ? 'their constants stay' : 'its constant stays'} at the 25 C value (line ${lines}): add dH to move ${withoutDH.length > 1 ? 'them' : 'it'} with temperature`, at)
   }
 
   let sweep: ModelSweep | null = null
   // With a component missing, a sweep check would only add confusing errors.
   if (sweepStmt && !incomplete) sweep = compileSweep(sweepStmt, components, report, abbreviations)
+  let map: ModelMap | null = null
+  if (mapStmt && !incomplete) map = compileMap(mapStmt, components, { sweep: sweepStmt, titrate: of('titrate')[0] }, report, abbreviations)
   let titration: ModelTitration | null = null
   if (!incomplete) {
     titration = compileTitration({ sample: of('sampleVolume')[0], titrants: of('titrant'), titrate: of('titrate')[0], sweep: sweepStmt }, components, known, report, abbreviations)
@@ -401,6 +406,7 @@ export function compileSource(source: string, options: CompileOptions, stack: st
       components, species, solids, gases, reactions, sweep, sources, libraries,
       ...(limits.length ? { limits } : {}),
       ...(titration ? { titration } : {}),
+      ...(map ? { map } : {}),
     }
   }
 

@@ -157,6 +157,12 @@ export const MAX_SWEEP_POINTS = 5000
 export const MAX_DATASET_ROWS = 500
 /** …and at most this many columns (the study variable and the measurements). */
 export const MAX_DATASET_COLUMNS = 16
+/**
+ * At most this many cells (points of the first axis × points of the second)
+ * in one `map`; each axis also keeps to MAX_SWEEP_POINTS. The compiler and
+ * the server's request limits both use it.
+ */
+export const MAX_MAP_CELLS = 40_000
 /** At most this many atoms of one element in a formula. */
 export const MAX_ATOM_COUNT = 1000
 /** Largest charge of a species. */
@@ -243,6 +249,7 @@ export function limitsTable(): string {
     `| any number written | 0, or ${formatNumber(NUMBER_MIN)} to ${formatNumber(NUMBER_MAX)} in size | — |`,
     `| sweep points | 2 to ${MAX_SWEEP_POINTS} | — |`,
     `| titration points | 2 to ${MAX_SWEEP_POINTS} | — |`,
+    `| map cells (points of the first axis × points of the second) | 4 to ${MAX_MAP_CELLS} (each axis 2 to ${MAX_SWEEP_POINTS}) | — |`,
     `| atoms of one element in a formula | 1 to ${MAX_ATOM_COUNT} | — |`,
     `| charge of a species | −${MAX_CHARGE} to +${MAX_CHARGE} | — |`,
   ].join('\n')

@@ -149,6 +149,18 @@ export interface ModelSweep {
 }
 
 /**
+ * `map X-AXIS by Y-AXIS`: a grid of solves, each axis a ModelSweep (the
+ * first axis, x, runs along a row; the second, y, from row to row). Cell
+ * (row i, column j) is the model with y at y.values[i] and x at x.values[j].
+ */
+export interface ModelMap {
+  x: ModelSweep
+  y: ModelSweep
+  /** 1-based line of the `map` statement. */
+  line: number
+}
+
+/**
  * `limit dissolved X N UNIT`: a ceiling on a dissolved total, read along the
  * sweep. The quantity in mol/L at an answer is Σ_j weights[j] ×
  * components[j].dissolved: for an element, how many of its atoms each
@@ -218,6 +230,8 @@ export interface Model {
   sweep: ModelSweep | null
   /** The titration the file declares; absent when none (and in models stored before titrations existed). */
   titration?: ModelTitration
+  /** The map the file declares; absent when none (and in models stored before maps existed). */
+  map?: ModelMap
   /** `limit` statements of the file; absent when it has none (and in models stored before limits existed). */
   limits?: ModelLimit[]
   /** `source KEY "text"` entries, the file's and its libraries'. */

@@ -23,7 +23,7 @@ function alternatives(paths: TokenType[][][]): string {
 }
 
 const RULE_NAMES: Record<string, string> = {
-  statement: 'a statement (system, temperature, activity, ionic-strength, ion-size, abbreviation, component, reaction, solid, source, use, sweep, limit, sample volume, titrant or titrate)',
+  statement: 'a statement (system, temperature, activity, ionic-strength, ion-size, abbreviation, component, reaction, solid, source, use, sweep, map, limit, sample volume, titrant or titrate)',
   componentSpec: 'a component spec (total, free, pH, pressure, balance or excess)',
   sweepVariable: 'a sweep variable (pH, total F, temperature or pressure F)',
   titrateStatement: "'from A to B' or 'to pH X' after titrate",
@@ -58,6 +58,7 @@ class PoiseParser extends CstParser {
     { ALT: () => this.SUBRULE(this.sourceStatement) },
     { ALT: () => this.SUBRULE(this.useStatement) },
     { ALT: () => this.SUBRULE(this.sweepStatement) },
+    { ALT: () => this.SUBRULE(this.mapStatement) },
     { ALT: () => this.SUBRULE(this.limitStatement) },
     { ALT: () => this.SUBRULE(this.sampleVolumeStatement) },
     { ALT: () => this.SUBRULE(this.titrantStatement) },
@@ -246,6 +247,25 @@ class PoiseParser extends CstParser {
 
   private sweepStatement = this.RULE('sweepStatement', () => {
     this.CONSUME(T.SweepKeyword)
+    this.SUBRULE(this.sweepVariable)
+    this.CONSUME(T.FromKeyword)
+    this.SUBRULE1(this.quantity)
+    this.CONSUME(T.ToKeyword)
+    this.SUBRULE2(this.quantity)
+    this.OR(this.sweepSpacingAlts)
+    this.OPTION(this.logSpacing)
+  })
+
+  /** `map AXIS by AXIS`: a sweep with a second axis (x after `map`, y after `by`). */
+  private mapStatement = this.RULE('mapStatement', () => {
+    this.CONSUME(T.MapKeyword)
+    this.SUBRULE1(this.mapAxis)
+    this.CONSUME(T.ByKeyword)
+    this.SUBRULE2(this.mapAxis)
+  })
+
+  /** One axis of a map, written as a sweep is: `VARIABLE from A to B (step D | points N) [log]`. */
+  private mapAxis = this.RULE('mapAxis', () => {
     this.SUBRULE(this.sweepVariable)
     this.CONSUME(T.FromKeyword)
     this.SUBRULE1(this.quantity)

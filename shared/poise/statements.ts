@@ -32,8 +32,23 @@ export type Statement = Base & (
   | { kind: 'sampleVolume'; volume: Tok; quantity: Quantity }
   | { kind: 'titrant'; formula: Tok; quantity: Quantity }
   | { kind: 'titrate'; start: Quantity | null; end: Quantity | null; step: Quantity | null; points: Quantity | null; targetPH: Quantity | null }
-  | { kind: 'sweep'; variable: 'pH' | 'total' | 'temperature' | 'pressure'; variableTok: Tok; target: Tok | null; start: Quantity; end: Quantity; step: Quantity | null; points: Quantity | null; log: boolean }
+  | ({ kind: 'sweep' } & SweepAxis)
+  | { kind: 'map'; x: SweepAxis; y: SweepAxis; by: Tok }
 )
+
+/** What a `sweep` line, and each axis of a `map` line, says: the variable, its ends and spacing (`from`/`to`: the span of the axis). */
+export interface SweepAxis {
+  from: number
+  to: number
+  variable: 'pH' | 'total' | 'temperature' | 'pressure'
+  variableTok: Tok
+  target: Tok | null
+  start: Quantity
+  end: Quantity
+  step: Quantity | null
+  points: Quantity | null
+  log: boolean
+}
 
 export interface SyntaxProblem { code: 'P001' | 'P002' | 'P050' | 'P082'; message: string; from: number; to: number; fixes?: Fix[] }
 
@@ -73,6 +88,25 @@ function quantity(n: CstNode): Quantity {
 
 function numberQuantity(t: IToken): Quantity {
   return { value: parseNumber(t.image), number: tok(t), unit: null }
+}
+
+/** A sweep's variable, ends and spacing: the `sweep` statement's own node or a map's `mapAxis` node. */
+function sweepAxis(n: CstNode): SweepAxis {
+  const v = node(n, 'sweepVariable')
+  const vKey = Object.keys(v.children).find((k) => k.endsWith('Keyword'))!
+  const vTok = token(v, vKey)
+  const qs = nodes(n, 'quantity')
+  const pts = maybeToken(n, 'Number')
+  const target = maybeToken(v, 'Formula')
+  const log = maybeToken(n, 'LogKeyword')
+  const variable = vTok.image === 'pH' ? 'pH' : (vTok.image as 'total' | 'temperature' | 'pressure')
+  const step = qs[2] ? quantity(qs[2]) : null
+  const points = pts ? numberQuantity(pts) : null
+  const last = log ? tok(log) : points ? points.number : (step!.unit ?? step!.number)
+  return {
+    from: vTok.startOffset, to: last.to, variable, variableTok: tok(vTok), target: target ? tok(target) : null,
+    start: quantity(qs[0]!), end: quantity(qs[1]!), step, points, log: log !== null,
+  }
 }
 
 function terms(side: CstNode): Term[] {
@@ -163,19 +197,11 @@ function toStatement(cst: CstNode, from: number, to: number): Statement {
         step: qs[2] ? quantity(qs[2]) : null, points: pts ? numberQuantity(pts) : null, targetPH: null,
       }
     }
-    case 'sweepStatement': {
-      const v = node(inner, 'sweepVariable')
-      const vKey = Object.keys(v.children).find((k) => k.endsWith('Keyword'))!
-      const vTok = token(v, vKey)
-      const qs = nodes(inner, 'quantity')
-      const pts = maybeToken(inner, 'Number')
-      const target = maybeToken(v, 'Formula')
-      const variable = vTok.image === 'pH' ? 'pH' : (vTok.image as 'total' | 'temperature' | 'pressure')
-      return {
-        kind: 'sweep', from, to, keyword: kw('SweepKeyword'), variable, variableTok: tok(vTok), target: target ? tok(target) : null,
-        start: quantity(qs[0]!), end: quantity(qs[1]!), step: qs[2] ? quantity(qs[2]) : null,
-        points: pts ? numberQuantity(pts) : null, log: maybeToken(inner, 'LogKeyword') !== null,
-      } as Statement
+    case 'sweepStatement':
+      return { kind: 'sweep', keyword: kw('SweepKeyword'), ...sweepAxis(inner), from, to } as Statement
+    case 'mapStatement': {
+      const [x, y] = nodes(inner, 'mapAxis')
+      return { kind: 'map', from, to, keyword: kw('MapKeyword'), by: kw('ByKeyword'), x: sweepAxis(x!), y: sweepAxis(y!) }
     }
   }
   throw new Error(`internal: unknown statement ${inner.name}`)

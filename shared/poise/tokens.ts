@@ -121,6 +121,8 @@ export const TitrateKeyword = keyword('TitrateKeyword', 'titrate')
 export const AbbreviationKeyword = keyword('AbbreviationKeyword', 'abbreviation')
 /** `fit` after a reaction's constant: the constant is to be fitted to measured data. */
 export const FitKeyword = keyword('FitKeyword', 'fit')
+export const MapKeyword = keyword('MapKeyword', 'map')
+export const ByKeyword = keyword('ByKeyword', 'by')
 
 /** A chemical formula: starts with an upper-case letter; its inside is checked by formula.ts. */
 export const Formula = createToken({
@@ -140,7 +142,7 @@ export const KEYWORD_TOKENS: TokenType[] = [
   PHKeyword, PressureKeyword, BalanceKeyword, ExcessKeyword, SuppressedKeyword, IdealKeyword,
   DaviesKeyword, DebyeHuckelKeyword, EnthalpyKeyword, CiteKeyword, FromKeyword, ToKeyword,
   StepKeyword, PointsKeyword, LogKeyword, LimitKeyword, DissolvedKeyword,
-  SampleKeyword, VolumeKeyword, TitrantKeyword, TitrateKeyword, AbbreviationKeyword, FitKeyword,
+  SampleKeyword, VolumeKeyword, TitrantKeyword, TitrateKeyword, AbbreviationKeyword, FitKeyword, MapKeyword, ByKeyword,
 ]
 
 /** Order matters: the first pattern that matches wins (keywords before Word, units before Formula). */
