@@ -4,8 +4,8 @@
  * used) for the names and units; the numbers are the run's own.
  */
 import { compile, type Model } from '../shared/poise/index'
-import type { AnswerKind, Result, SweepResult, TitrationResult } from '../shared/types/result'
-import { formatResultTable, formatSweepTable, formatTitrationTable } from '../server/solver/table'
+import type { AnswerKind, MapAnswer, Result, SweepResult, TitrationResult } from '../shared/types/result'
+import { formatMapTable, formatResultTable, formatSweepTable, formatTitrationTable } from '../server/solver/table'
 import { OUTPUT_UNITS, parseOutputUnit, unitScale, type OutputUnit } from '../shared/results/units'
 import { CliError, EXIT } from './exit-codes'
 
@@ -27,6 +27,7 @@ export function formatRun(
   if (!model || run.result === null) return JSON.stringify(run.result, null, 2)
   const scale = unitScale(model, choice)
   if (run.kind === 'titration') return formatTitrationTable(model, run.result as TitrationResult)
+  if (run.kind === 'map') return formatMapTable(model, run.result as MapAnswer, scale)
   return run.kind === 'sweep'
     ? formatSweepTable(model, run.result as SweepResult, scale)
     : formatResultTable(model, run.result as Result, scale)

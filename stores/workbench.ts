@@ -17,7 +17,7 @@ import { computed, ref, shallowRef } from 'vue'
 import { compile } from '../shared/poise/index'
 import type { Diagnostic } from '../shared/poise/diagnostics'
 import type { Model } from '../shared/poise/model'
-import type { AnswerKind, Result, SweepResult, TitrationResult } from '../shared/types/result'
+import type { Answer, AnswerKind, Result, SweepResult, TitrationResult } from '../shared/types/result'
 import type { PreviewAnswer, RevisionView, RunListAnswer, RunView, SystemAnswer } from '../shared/types/system'
 import { titrationAsSweep } from '../shared/results/titration'
 import { distributableComponents, type StoichiometryModel } from '../shared/results/share'
@@ -32,7 +32,7 @@ interface ShownBase {
   kind: AnswerKind
   /** The text that was solved, so the tables and diagrams use its model. */
   source: string
-  result: Result | SweepResult | TitrationResult
+  result: Answer
   /** The model the server solved; null for a run stored before models were (then recompiled from `source`). */
   model: Model | null
   solverVersion: string

@@ -46,7 +46,7 @@ export const RunAnswer = z.object({
   number: z.int().meta({ description: 'The run\'s number within its system: 1 for the system\'s first run' }),
   revision: z.int(),
   status: z.enum(RUN_STATUSES),
-  kind: z.enum(['single', 'sweep', 'titration']),
+  kind: z.enum(['single', 'sweep', 'titration', 'map']),
   solverVersion: z.string(),
   compilerVersion: z.string().nullable().meta({ description: 'The compiler version that made the stored model; null for a run stored before models were' }),
   storedModel: z.boolean().meta({ description: 'False for a run stored before models were: it has no `model`' }),
@@ -60,7 +60,7 @@ export const RunAnswer = z.object({
 const runChecked: Same<z.infer<typeof RunAnswer>, Omit<RunView, 'result' | 'model'>> = true
 
 export const RunWithResultAnswer = RunAnswer.extend({
-  result: z.object({}).loose().meta({ description: 'The Result (a sweep or a titration: its points), as the workbench shows it; concentrations in mol/L' }),
+  result: z.object({}).loose().meta({ description: 'The Result (a sweep or a titration: its points; a map: `{ format: "map-columns", x, y, cells, cellsDone, failedCells, cancelled }`, its cells by columns), as the workbench shows it; concentrations in mol/L' }),
   model: z.object({}).loose().nullable().meta({ description: 'The compiled model that was solved (constants, conditions, `libraries`), as stored with the run; null for a run stored before models were' }),
 })
 

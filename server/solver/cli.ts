@@ -4,15 +4,17 @@
  * mg/L, µg/L or ug/L) sets the unit of the tables; `--as-element` counts
  * components in a mass unit as their element (Ni as Ni, NH3 as N). The JSON
  * is the Result as the solver wrote it, always in mol/L; for a titration
- * it is the TitrationResult (volumes in mL).
+ * it is the TitrationResult (volumes in mL); for a map, `{ x, y, points }`
+ * with one row of Results per y value (MapResult).
  * Exit codes: 0 solved, 1 a solve (or a sweep point) did not converge,
  * 2 the file could not be read or compiled (diagnostics on stderr).
  */
 import { existsSync, readFileSync } from 'node:fs'
 import { compile } from '../../shared/poise/index'
 import type { Result, SweepResult } from '../../shared/types/result'
-import { solve, sweep, titration } from './index'
-import { formatResultTable, formatSweepTable, formatTitrationTable } from './table'
+import { SOLVER_LIMITS, solve, solveMap, sweep, titration } from './index'
+import { toMapResult } from '../../shared/results/map-columns'
+import { formatMapTable, formatResultTable, formatSweepTable, formatTitrationTable } from './table'
 import { OUTPUT_UNITS, parseOutputUnit, unitScale } from '../../shared/results/units'
 
 const USAGE = 'usage: npm run -s cli -- solve FILE.poise [--json] [--units UNIT] [--as-element]'
@@ -48,6 +50,11 @@ export async function runSolveCommand(args: string[]): Promise<number> {
   }
   const model = compiled.model
   if (!model || compiled.diagnostics.some((d) => d.severity === 'error')) return 2
+  if (model.map) {
+    const out = solveMap(model, { timeBudgetMs: SOLVER_LIMITS.timeBudgetMs })
+    console.log(json ? JSON.stringify(toMapResult(out), null, 2) : formatMapTable(model, out))
+    return out.failedCells === 0 ? 0 : 1
+  }
   if (model.titration) {
     const out = titration(model)
     console.log(json ? JSON.stringify(out, null, 2) : formatTitrationTable(model, out))

@@ -16,7 +16,7 @@ import { limitWindows } from './limits'
 import { shortcutOf } from '../../shared/results/shortcut'
 
 /** The hand method's estimate beside a converged answer (shared/results/shortcut.ts); the answer itself is untouched. */
-function withShortcut(model: Model, result: Result): Result {
+export function withShortcut(model: Model, result: Result): Result {
   if (!result.converged) return result
   const shortcut = shortcutOf(model, result)
   return shortcut ? { ...result, shortcut } : result
@@ -354,7 +354,7 @@ export function solve(model: Model, options?: SolveOptions): Result {
 }
 
 /** A converged sweep point: its unknowns and where along the sweep it lies. */
-interface SweepPoint { state: SolverState; at: number }
+export interface SweepPoint { state: SolverState; at: number }
 
 /**
  * Predictor for continuation: extrapolates the unknowns to position t
@@ -364,7 +364,7 @@ interface SweepPoint { state: SolverState; at: number }
  * step less than after a secant), else the secant through two. False when
  * the points cannot define a line or t is far beyond them.
  */
-function predict(out: SolverState, t: number, points: SweepPoint[]): boolean {
+export function predict(out: SolverState, t: number, points: SweepPoint[]): boolean {
   const [last, before, oldest] = points
   const span = last.at - before.at
   if (!Number.isFinite(span) || span === 0 || !Number.isFinite(t)) return false
@@ -395,7 +395,7 @@ function predict(out: SolverState, t: number, points: SweepPoint[]): boolean {
 }
 
 /** Moves the problem to sweep value v; returns why it cannot, or null. */
-function applySweepValue(p: Problem, variable: string, j: number, v: number): string | null {
+export function applySweepValue(p: Problem, variable: string, j: number, v: number): string | null {
   if (!Number.isFinite(v)) return `the sweep value ${v} is not a number`
   switch (variable) {
     case 'pH':
@@ -420,7 +420,11 @@ function applySweepValue(p: Problem, variable: string, j: number, v: number): st
 }
 
 function sweepComponentIndex(model: Model): { index: number } | { error: string } {
-  const sw = model.sweep!
+  return axisComponentIndex(model, model.sweep!)
+}
+
+/** The component an axis sets (−1 for temperature), or why it cannot be found. */
+export function axisComponentIndex(model: Model, sw: { variable: string; component: string | null }): { index: number } | { error: string } {
   if (sw.variable === 'temperature') return { index: -1 }
   const name = sw.variable === 'pH' ? 'H+' : sw.component
   const index = model.components.findIndex((c) => c.name === name)
@@ -538,4 +542,5 @@ export function sweep(model: Model, options?: SweepOptions): SweepResult {
 }
 
 export { titration } from './titration'
+export { solveMap, type MapOptions } from './map'
 export type { Result, SweepResult }

@@ -3,7 +3,8 @@
  * numbers in engineering-friendly exponent form.
  */
 import type { Model } from '../../shared/poise/model'
-import type { Result, SweepResult, TitrationResult } from '../../shared/types/result'
+import type { MapAnswer, MapAxis, Result, SweepResult, TitrationResult } from '../../shared/types/result'
+import { mapCell } from '../../shared/results/map-columns'
 import { doseSentence, endPointSentences, formatVolume, titrationAsSweep, volumeInUnit } from '../../shared/results/titration'
 import { dissolvedText } from '../../shared/results/names'
 import { MOLAR_SCALE, type UnitScale } from '../../shared/results/units'
@@ -76,6 +77,25 @@ export function formatSweepTable(model: Model, s: SweepResult, scale: UnitScale 
   })
   const limits = (s.limits ?? []).flatMap((w) => [`limit: ${limitSentence(s, w)}`, ...(w.note ? [`  (${w.note})`] : [])])
   return [model.title, '', align(rows), ...(limits.length ? ['', ...limits] : [])].join('\n')
+}
+
+/** A map, one line a cell (row after row): both axes' values, pH, I, the dissolved totals, the solids present, the status. */
+export function formatMapTable(model: Model, m: MapAnswer, scale: UnitScale = MOLAR_SCALE): string {
+  const label = (a: MapAxis) => (a.component ? `${a.variable} ${a.component}` : a.variable)
+  const solidNames = model.solids.map((x) => x.name)
+  const totals = model.components.filter((c) => c.mode === 'total' && c.name !== 'H+').map((c) => c.name)
+  const rows = [[label(m.y), label(m.x), 'pH', 'I mol/L', ...totals.map((n) => `${dissolvedText(n)} ${scale.componentUnit(n)}`), 'solids present', 'status']]
+  m.y.values.forEach((yv, i) => m.x.values.forEach((xv, j) => {
+    const p = mapCell(m, i, j)
+    const present = p.solids.filter((x) => x.present && solidNames.includes(x.name)).map((x) => x.name).join(' ') || '-'
+    const dissolved = totals.map((n) => {
+      const d = p.converged ? p.components.find((c) => c.name === n)?.dissolved : undefined
+      return d === undefined ? '-' : scaledExp(d, scale.component(n))
+    })
+    rows.push([String(yv), String(xv), p.converged ? fixed(p.pH, 3) : '-', p.converged ? exp(p.ionicStrength) : '-', ...dissolved, present, p.converged ? 'ok' : `failed: ${p.reason ?? ''}`])
+  }))
+  const failed = m.failedCells ? [`${m.failedCells} of ${m.x.values.length * m.y.values.length} cells did not converge`] : []
+  return [model.title, `map over ${label(m.x)} (${m.x.values.length} points) by ${label(m.y)} (${m.y.values.length} points)`, '', align(rows), ...(failed.length ? ['', ...failed] : [])].join('\n')
 }
 
 /** A titration: the curve (volume in the file's unit, pH, dpH/dV, β, solids present) and its end points, or the dose. */

@@ -3,13 +3,15 @@
  * huge sweep from occupying the pool; the messages say what to change.
  */
 import type { Model } from '../../shared/poise/model'
-import { MAX_SWEEP_POINTS } from '../../shared/poise/limits'
+import { MAX_MAP_CELLS, MAX_SWEEP_POINTS } from '../../shared/poise/limits'
 
 export const SOLVE_LIMITS = {
   /** Largest Poise source accepted, in characters. */
   maxSourceChars: 200_000,
   /** The language's own limit: a compiled model never exceeds it; a stored or hand-made one is checked again. */
   maxSweepPoints: MAX_SWEEP_POINTS,
+  /** The language's own limit on a map's cells, checked again for a stored or hand-made model. */
+  maxMapCells: MAX_MAP_CELLS,
   maxSpecies: 500,
   maxSolids: 60,
   /** Wall-clock budget of one run (a whole sweep) inside the worker. */
@@ -24,6 +26,13 @@ export function modelLimitProblem(model: Model): string | null {
   const points = model.sweep?.values.length ?? 0
   if (points > SOLVE_LIMITS.maxSweepPoints) {
     return `The sweep has ${points} points; at most ${SOLVE_LIMITS.maxSweepPoints} are allowed. Use a larger step or fewer points.`
+  }
+  if (model.map) {
+    const nx = model.map.x?.values?.length ?? 0
+    const ny = model.map.y?.values?.length ?? 0
+    if (nx > SOLVE_LIMITS.maxSweepPoints || ny > SOLVE_LIMITS.maxSweepPoints || nx * ny > SOLVE_LIMITS.maxMapCells) {
+      return `The map has ${nx} × ${ny} = ${nx * ny} cells; at most ${SOLVE_LIMITS.maxMapCells} are allowed, and ${SOLVE_LIMITS.maxSweepPoints} points on an axis. Use fewer points on an axis.`
+    }
   }
   const titrationPoints = model.titration?.values?.length ?? 0
   if (titrationPoints > SOLVE_LIMITS.maxSweepPoints) {

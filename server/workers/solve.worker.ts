@@ -16,7 +16,8 @@
  */
 import Piscina from 'piscina'
 import type { Model } from '../../shared/poise/model'
-import { solve, sweep, titration, SOLVER_VERSION, type SolveOptions } from '../solver/index'
+import { solve, solveMap, sweep, titration, SOLVER_VERSION, type SolveOptions } from '../solver/index'
+import { mapAnswerJson } from '../../shared/results/map-columns'
 import { failedTitrationPoints, type AnswerKind, type Result, type SweepResult } from '../../shared/types/result'
 
 export interface SolveTask {
@@ -27,7 +28,7 @@ export interface SolveTask {
 /** What the worker posts back. */
 export interface SolveTaskAnswer {
   kind: AnswerKind
-  /** The Result (single), SweepResult (sweep) or TitrationResult (titration) as UTF-8 JSON. */
+  /** The Result (single), SweepResult (sweep), TitrationResult (titration) or MapAnswer (map) as UTF-8 JSON. */
   resultBytes: Uint8Array
   /** Points that did not converge (0 or 1 for a single solve). */
   failedPoints: number
@@ -153,6 +154,16 @@ export function solveSweepToBytes(model: Model, options: SolveOptions): { bytes:
 export function solveTask(task: SolveTask): SolveTaskAnswer {
   const started = performance.now()
   const options = { timeBudgetMs: task.timeBudgetMs }
+  if (task.model.map) {
+    const result = solveMap(task.model, options)
+    return {
+      kind: 'map',
+      resultBytes: encoder.encode(mapAnswerJson(result)),
+      failedPoints: result.failedCells,
+      solverVersion: SOLVER_VERSION,
+      elapsedMs: performance.now() - started,
+    }
+  }
   if (task.model.titration) {
     const result = titration(task.model, options)
     return {

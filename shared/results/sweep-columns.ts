@@ -11,7 +11,9 @@
  * order, so the same JSON); `sweepView` is the SweepResult contract (points
  * with species objects) over the columns, making points only when read.
  */
-import type { Result, SweepResult } from '../types/result'
+import type { PointColumns, Result, SweepResult } from '../types/result'
+
+export type { PointColumns }
 
 /** Stands for a number in a template (never a string a Result holds). */
 const SLOT = '\u0000#'
@@ -34,58 +36,75 @@ export interface SweepColumns {
   rows: number[]
 }
 
-/** The columns of a sweep answer. */
-export function toSweepColumns(sweep: SweepResult): SweepColumns {
-  const index = new Map<string, number>()
-  const templates: unknown[] = []
-  const numbers: number[][][] = []
-  const n = sweep.points.length
-  const templateOf = new Uint16Array(n)
-  const rowOf = new Uint32Array(n)
-  for (let i = 0; i < n; i++) {
+/**
+ * Columns written one point at a time, so a caller that solves point by
+ * point (a map's cells) never holds every point's objects: `add` keeps the
+ * point's numbers and lets its objects go; `build` gives the columns.
+ */
+export class ColumnsBuilder {
+  private readonly index = new Map<string, number>()
+  private readonly templates: unknown[] = []
+  /** For each template, its rows' numbers one row after the other (row r, slot s at r × slots + s). */
+  private readonly numbers: number[][] = []
+  private readonly slots: number[] = []
+  private readonly counts: number[] = []
+  private readonly templateOf: number[] = []
+  private readonly rowOf: number[] = []
+
+  get length(): number { return this.templateOf.length }
+
+  add(point: Result): void {
     const found: number[] = []
-    const key = JSON.stringify(sweep.points[i], (_k, v) => {
+    const key = JSON.stringify(point, (_k, v) => {
       if (typeof v === 'number') { found.push(v); return SLOT }
       return v
     })
-    let t = index.get(key)
+    let t = this.index.get(key)
     if (t === undefined) {
-      if (templates.length === 0xffff) throw new Error('a sweep answer with more than 65535 shapes of point')
-      t = templates.length
-      index.set(key, t)
-      templates.push(JSON.parse(key))
-      numbers.push([])
+      if (this.templates.length === 0xffff) throw new Error('an answer with more than 65535 shapes of point')
+      t = this.templates.length
+      this.index.set(key, t)
+      this.templates.push(JSON.parse(key))
+      this.numbers.push([])
+      this.slots.push(found.length)
+      this.counts.push(0)
     }
-    templateOf[i] = t
-    rowOf[i] = numbers[t].length
-    numbers[t].push(found)
+    this.templateOf.push(t)
+    this.rowOf.push(this.counts[t]++)
+    const rowsOfT = this.numbers[t]
+    for (const v of found) rowsOfT.push(v)
   }
-  const columns = numbers.map((rowsOfT) => {
-    const rows = rowsOfT.length
-    const slots = rowsOfT[0]?.length ?? 0
-    const col = new Float64Array(slots * rows)
-    for (let r = 0; r < rows; r++) {
-      const row = rowsOfT[r]
-      for (let s = 0; s < slots; s++) col[s * rows + r] = row[s]
-    }
-    return col
-  })
-  const out: SweepColumns = {
-    format: 'sweep-columns', variable: sweep.variable, component: sweep.component, values: sweep.values,
-    templates, templateOf, rowOf, columns, rows: numbers.map(r => r.length),
+
+  build(): Omit<SweepColumns, 'format' | 'variable' | 'component' | 'values' | 'limits'> {
+    const rows = [...this.counts]
+    const columns = this.numbers.map((flat, t) => {
+      const n = rows[t]
+      const slots = this.slots[t]
+      const col = new Float64Array(slots * n)
+      for (let r = 0; r < n; r++) for (let s = 0; s < slots; s++) col[s * n + r] = flat[r * slots + s]
+      return col
+    })
+    return { templates: this.templates, templateOf: Uint16Array.from(this.templateOf), rowOf: Uint32Array.from(this.rowOf), columns, rows }
   }
+}
+
+/** The columns of a sweep answer. */
+export function toSweepColumns(sweep: SweepResult): SweepColumns {
+  const builder = new ColumnsBuilder()
+  for (const point of sweep.points) builder.add(point)
+  const out: SweepColumns = { format: 'sweep-columns', variable: sweep.variable, component: sweep.component, values: sweep.values, ...builder.build() }
   if (sweep.limits !== undefined) out.limits = sweep.limits
   return out
 }
 
 /** The Result of point i, made from the columns. */
-export function sweepPoint(columns: SweepColumns, i: number): Result {
+export function sweepPoint(columns: PointColumns, i: number): Result {
   const t = columns.templateOf[i]
   const rows = columns.rows[t]
   const col = columns.columns[t]
   let s = 0
   const fill = (v: unknown): unknown => {
-    if (v === SLOT) return col[(s++) * rows + columns.rowOf[i]]
+    if (v === SLOT) return toNumber(col[(s++) * rows + columns.rowOf[i]])
     if (Array.isArray(v)) return v.map(fill)
     if (v !== null && typeof v === 'object') {
       const o: Record<string, unknown> = {}
@@ -130,16 +149,24 @@ export function fromSweepColumns(columns: SweepColumns): SweepResult {
  * indexed by name), `['pH']`. NaN at points whose shape lacks it or holds
  * null there.
  */
-export function sweepQuantity(columns: SweepColumns, path: (string | number)[]): Float64Array {
+export function sweepQuantity(columns: PointColumns, path: (string | number)[]): Float64Array {
   const n = columns.templateOf.length
   const out = new Float64Array(n).fill(Number.NaN)
   const slotOf = columns.templates.map(template => slotAt(template, path))
   for (let i = 0; i < n; i++) {
     const t = columns.templateOf[i]
     const s = slotOf[t]
-    if (s >= 0) out[i] = columns.columns[t][s * columns.rows[t] + columns.rowOf[i]]
+    if (s >= 0) out[i] = columns.columns[t][s * columns.rows[t] + columns.rowOf[i]] ?? Number.NaN
   }
   return out
+}
+
+/**
+ * Columns that came as JSON hold null where the solver's number was NaN
+ * (JSON has no NaN): as the point's own JSON would have it.
+ */
+function toNumber(v: number | null): number {
+  return v === null ? (null as unknown as number) : v
 }
 
 /** The slot number of a path in a template, or −1. */

@@ -224,13 +224,78 @@ export interface TitrationDoseResult {
 
 export type TitrationResult = TitrationCurveResult | TitrationDoseResult
 
-/** What a run answers: one solve, a sweep or a titration (stored with each run). */
-export type AnswerKind = 'single' | 'sweep' | 'titration'
+/** One axis of a map: the model's axis (ModelSweep without its line). */
+export interface MapAxis {
+  variable: 'pH' | 'total' | 'temperature' | 'pressure'
+  /** Component name for `total` and `pressure`, else null. */
+  component: string | null
+  /** pH units; mol/L; °C; atm. */
+  values: number[]
+  log: boolean
+}
+
+/**
+ * A map with every cell a Result: what `solve --json` prints for a map.
+ * `points[i][j]` is the cell at y.values[i] and x.values[j].
+ */
+export interface MapResult {
+  x: MapAxis
+  y: MapAxis
+  /** One row per y value, each with one Result per x value. */
+  points: Result[][]
+}
+
+/**
+ * Points by columns (shared/results/sweep-columns.ts reads and writes them):
+ * each shape of point once as a template (its numbers replaced by a
+ * marker), and each number of that shape one column over the points that
+ * have it. In JSON the columns are arrays of numbers (null where the number
+ * was NaN).
+ */
+export interface PointColumns {
+  templates: unknown[]
+  /** For each point, the index of its template. */
+  templateOf: ArrayLike<number>
+  /** For each point, its row among the points of its template. */
+  rowOf: ArrayLike<number>
+  /** For each template, its numbers by column: slot s of row r is columns[t][s * rows[t] + r]. */
+  columns: ArrayLike<number>[]
+  /** For each template, how many points have it. */
+  rows: number[]
+}
+
+/**
+ * A map as the API answers and stores it: the cells by columns, row after
+ * row (cell k is row ⌊k / x.values.length⌋, column k mod x.values.length).
+ * `mapCell` (shared/results/map-columns.ts) makes the Result of one cell.
+ */
+export interface MapAnswer {
+  format: 'map-columns'
+  x: MapAxis
+  y: MapAxis
+  cells: PointColumns
+  /** Cells solved before the map ended (all of them unless it was cancelled). */
+  cellsDone: number
+  /** Cells that did not converge, those not reached after a cancel included. */
+  failedCells: number
+  /** True when the map was cancelled: cells after `cellsDone` are marked not solved. */
+  cancelled: boolean
+}
+
+/** What a run answers: one solve, a sweep, a titration or a map (stored with each run). */
+export type AnswerKind = 'single' | 'sweep' | 'titration' | 'map'
 
 /** Points of a titration answer that did not converge; a dose that is "not reachable" is an answer, not a failure. */
 export function failedTitrationPoints(t: TitrationResult): number {
   if ('points' in t) return t.points.filter((p) => !p.converged).length
   return t.volume === null && !/not reachable with this titrant/.test(t.reason ?? '') ? 1 : 0
+}
+
+/** What a solve answers, as the API sends it and a run stores it: by AnswerKind, in that order. */
+export type Answer = Result | SweepResult | TitrationResult | MapAnswer
+
+export function isMapAnswer(r: unknown): r is MapAnswer {
+  return typeof r === 'object' && r !== null && (r as { format?: unknown }).format === 'map-columns'
 }
 
 export function isTitrationResult(r: unknown): r is TitrationResult {

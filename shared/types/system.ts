@@ -6,7 +6,7 @@
 import type { Diagnostic } from '../poise/diagnostics'
 import type { Model } from '../poise/model'
 import type { LabRole } from '../utils/roles'
-import type { AnswerKind, Result, SweepResult, TitrationResult } from './result'
+import type { Answer, AnswerKind } from './result'
 import type { ReviewState } from './review'
 
 /** A saved revision with its text (GET …/systems/:system's `latest`, GET …/revisions/:n's `revision`). */
@@ -50,7 +50,7 @@ export interface RunView {
   failedPoints: number
   /** The library revisions the run was solved with. */
   libraries: { name: string; revision: number }[]
-  result?: Result | SweepResult | TitrationResult
+  result?: Answer
   /** The model that was solved (single-run routes only); null for a run stored before models were. */
   model?: Model | null
 }
@@ -76,7 +76,7 @@ export interface PreviewAnswer {
   diagnostics: Diagnostic[]
   /** The library revisions the model used. */
   libraries: { name: string; revision: number }[]
-  result: Result | SweepResult | TitrationResult
+  result: Answer
   /** The model that was solved. */
   model: Model
 }

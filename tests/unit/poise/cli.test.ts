@@ -104,3 +104,38 @@ describe('cli solve of a sweep with a limit', { timeout: 120_000 }, () => {
     expect(text.stdout).toMatch(/dissolved Ni mg\/L/)
   })
 })
+
+describe('cli solve on a map', { timeout: 120_000 }, () => {
+  const text = readFileSync(join(root, 'examples/copper-hydroxide-carbonate-map.poise'), 'utf8')
+    .replace(/^map .*$/m, 'map pH from 4 to 10 points 4 by total Cu^2+ from 1e-5 to 1e-3 mol/L points 3 log')
+  const p = file('copper-map.poise', text)
+
+  it('prints { x: {variable, values}, y: {variable, values}, points: [row per y: [Result per x]] } with --json', () => {
+    const r = run(['solve', p, '--json'])
+    expect(r.code).toBe(0)
+    const out = JSON.parse(r.stdout) as { x: { variable: string; component: string | null; values: number[] }; y: { variable: string; component: string | null; values: number[] }; points: Result[][] }
+    expect(Object.keys(out)).toEqual(['x', 'y', 'points'])
+    expect(out.x).toMatchObject({ variable: 'pH', values: [4, 6, 8, 10] })
+    expect(out.y).toMatchObject({ variable: 'total', component: 'Cu^2+', values: [1e-5, 1e-4, 1e-3] })
+    expect(out.points).toHaveLength(3)
+    for (const [i, row] of out.points.entries()) {
+      expect(row).toHaveLength(4)
+      for (const [j, cell] of row.entries()) {
+        expect(cell.converged).toBe(true)
+        expect(cell.pH).toBeCloseTo(out.x.values[j]!, 9)
+        // Copper's total is the row's y value (dissolved plus what a solid holds).
+        const copper = cell.components.find((c) => c.name === 'Cu^2+')!
+        expect(copper.total).toBeCloseTo(out.y.values[i]!, 15)
+      }
+    }
+  })
+
+  it('prints one line a cell without --json, both axes first', () => {
+    const r = run(['solve', p])
+    expect(r.code).toBe(0)
+    expect(r.stdout).toContain('map over pH (4 points) by total Cu^2+ (3 points)')
+    const rows = r.stdout.split('\n').filter((l) => /^\d/.test(l))
+    expect(rows).toHaveLength(12)
+    expect(rows[0]!.trim().split(/\s+/).slice(0, 3)).toEqual(['0.00001', '4', '4.000'])
+  })
+})

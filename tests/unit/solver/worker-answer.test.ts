@@ -2,7 +2,8 @@
 // decoded, it is exactly what solve() and sweep() return.
 import { describe, expect, it } from 'vitest'
 import { compile } from '../../../shared/poise/index'
-import { solve, sweep } from '../../../server/solver/index'
+import { solve, solveMap, sweep } from '../../../server/solver/index'
+import { mapCell } from '../../../shared/results/map-columns'
 import { readdirSync, readFileSync } from 'node:fs'
 import { resolve } from 'node:path'
 import { encodeSweep, solveSweepToBytes, solveTask } from '../../../server/workers/solve.worker'
@@ -19,6 +20,17 @@ describe('solveTask', () => {
     expect(answer.kind).toBe('single')
     expect(answer.failedPoints).toBe(0)
     expect(withoutTimes(decode(answer.resultBytes))).toEqual(withoutTimes(solve(model)))
+  })
+
+  it('answers a map with the bytes of its MapAnswer: cells by columns, each cell the Result solveMap made', () => {
+    const model = compile(benchSystemSource('map pH from 4 to 12 points 9 by temperature from 15 C to 35 C points 3')).model!
+    const answer = solveTask({ model, timeBudgetMs: 10_000 })
+    expect(answer.kind).toBe('map')
+    const decoded = decode(answer.resultBytes)
+    expect(decoded).toMatchObject({ format: 'map-columns', cellsDone: 27, cancelled: false, failedCells: answer.failedPoints })
+    expect(Array.isArray(decoded.cells.columns[0])).toBe(true)
+    const direct = solveMap(model)
+    for (const [i, j] of [[0, 0], [1, 4], [2, 8]]) expect(withoutTimes(mapCell(decoded, i, j))).toEqual(withoutTimes(mapCell(direct, i, j)))
   })
 
   it('answers a sweep with the bytes of its SweepResult, in a buffer of its own (safe to transfer)', () => {
