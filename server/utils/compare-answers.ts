@@ -38,31 +38,31 @@ export async function answerForRevision(labId: number, revision: Revision, userI
     const answer = JSON.parse(stored.result) as SolvedAnswer
     if (stored.model) {
       return {
-        side: { origin: 'stored', runId: stored.id, solverVersion: stored.solverVersion, compilerVersion: stored.compilerVersion, model: 'stored' },
+        side: { origin: 'stored', runId: stored.id, runNumber: stored.number, solverVersion: stored.solverVersion, compilerVersion: stored.compilerVersion, model: 'stored' },
         model: JSON.parse(stored.model) as Model,
         answer,
       }
     }
-    problems.push(`Run ${stored.id} of revision ${revision.number} predates stored models: its answer is as stored, but its model (constants, conditions) is today's compile of its text, which may differ from what was solved.`)
+    problems.push(`Run ${stored.number} of revision ${revision.number} predates stored models: its answer is as stored, but its model (constants, conditions) is today's compile of its text, which may differ from what was solved.`)
     return {
-      side: { origin: 'stored', runId: stored.id, solverVersion: stored.solverVersion, compilerVersion: null, model: 'compiled-now' },
+      side: { origin: 'stored', runId: stored.id, runNumber: stored.number, solverVersion: stored.solverVersion, compilerVersion: null, model: 'compiled-now' },
       model: await compiled(labId, revision, problems),
       answer,
     }
   }
   const model = await compiled(labId, revision, problems)
   if (!model) {
-    return { side: { origin: 'none', runId: null, solverVersion: null, compilerVersion: COMPILER_VERSION, model: 'compiled-now' }, model: null, answer: null }
+    return { side: { origin: 'none', runId: null, runNumber: null, solverVersion: null, compilerVersion: COMPILER_VERSION, model: 'compiled-now' }, model: null, answer: null }
   }
   try {
     const output = await solveInPool(model, userId)
     return {
-      side: { origin: 'solved-now', runId: null, solverVersion: output.solverVersion, compilerVersion: COMPILER_VERSION, model: 'compiled-now' },
+      side: { origin: 'solved-now', runId: null, runNumber: null, solverVersion: output.solverVersion, compilerVersion: COMPILER_VERSION, model: 'compiled-now' },
       model,
       answer: JSON.parse(output.resultJson) as SolvedAnswer,
     }
   } catch (error) {
     problems.push(`Revision ${revision.number} has no stored run and could not be solved now: ${(error as { message?: string }).message ?? String(error)}`)
-    return { side: { origin: 'none', runId: null, solverVersion: null, compilerVersion: COMPILER_VERSION, model: 'compiled-now' }, model, answer: null }
+    return { side: { origin: 'none', runId: null, runNumber: null, solverVersion: null, compilerVersion: COMPILER_VERSION, model: 'compiled-now' }, model, answer: null }
   }
 }

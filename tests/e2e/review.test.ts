@@ -71,6 +71,8 @@ describe('review in the browser', () => {
     const comments = theirs.getByTestId('review-comments')
     await comments.waitFor()
     await expect(comments.textContent()).resolves.toMatch(/r2 line 6.*Which compilation gives 5\.0\?/)
+    // The comment quotes the line it is about.
+    await expect(comments.locator('[data-test=comment-quote]').first().textContent()).resolves.toMatch(/^reaction Cu\^2\+ \+ NH3 <=> CuNH3\^2\+\s+logbeta 5\.0\s+cite "demo value"$/)
     // The commented line carries a dot in the newer side's gutter, and only there.
     await theirs.locator('.cm-merge-b .cm-comment-marker').waitFor()
     await expect(theirs.locator('.cm-merge-a .cm-comment-marker').count()).resolves.toBe(0)
@@ -95,5 +97,46 @@ describe('review in the browser', () => {
     await expect(mine.locator('[data-revision]').count()).resolves.toBe(3)
     const restored = await api(`/api/labs/${lab}/systems/ammine/revisions/3`, { cookie: reviewer.cookie })
     expect(restored.body.revision.source).toBe(ammine('4.0'))
+
+    // Asking for a review of revision 3 from the history starts against the last approved revision, 2.
+    await mine.locator('[data-test=ask-review-3]').click()
+    await expect(mine.locator('[data-test=review-base]').inputValue()).resolves.toBe('2')
+    await expect(mine.locator('[data-test=review-base] option:checked').textContent()).resolves.toBe('revision 2 (approved)')
+    await screenshot(mine, 'review-ask-from-history')
+
+    // From the workbench: revision 3 has no review yet; ask for one, against revision 2 by default.
+    await mine.goto(url(`/labs/${lab}/systems/ammine`))
+    const panel = mine.locator('[data-test=workbench-review]')
+    await panel.locator('[data-test=workbench-review-none]').waitFor()
+    await panel.locator('[data-test=ask-review]').click()
+    await expect(panel.locator('[data-test=review-base]').inputValue()).resolves.toBe('2')
+    await panel.locator('[data-test=review-reviewer]').selectOption({ label: `${reviewer.user.name} (reviewer)` })
+    await panel.locator('[data-test=review-submit]').click()
+    await panel.getByRole('status').getByText(`Review asked of ${reviewer.user.name}.`).waitFor()
+    await expect(panel.locator('[data-test=workbench-review-state]').textContent()).resolves.toMatch(new RegExp(`waiting for review\\s*${reviewer.user.name}, against 2`))
+    await screenshot(mine, 'review-asked-from-workbench')
+    const asked = await api(`/api/labs/${lab}/reviews?system=ammine&state=open`, { cookie: editor.cookie })
+    expect(asked.body.reviews.map((r: { from: number, to: number }) => [r.from, r.to])).toEqual([[2, 3]])
+  })
+
+  it('overlays both revisions\' sweep curves on one diagram on the compare page', async () => {
+    const editor = await signUp('editor')
+    const lab = await makeLab(editor, [])
+    const swept = (logBeta: string) => ammine(logBeta) + 'sweep total Cu^2+ from 0.5 mmol/L to 2 mmol/L points 11\n'
+    expect((await api(`/api/labs/${lab}/systems`, { method: 'POST', cookie: editor.cookie, body: { title: 'Ammine sweep', slug: 'sweep', source: swept('4.0') } })).status).toBe(201)
+    expect((await api(`/api/labs/${lab}/systems/sweep`, { method: 'PATCH', cookie: editor.cookie, body: { source: swept('5.0'), baseRevision: 1 } })).status).toBe(200)
+    const page = await openSignedIn(`/labs/${lab}/systems/sweep/compare?from=1&to=2`, editor.cookie)
+    await page.setViewportSize({ width: 1280, height: 900 })
+    const curves = page.locator('[data-test=compare-curves]')
+    await curves.waitFor()
+    // It opens on the curve that moved most, with both revisions drawn.
+    await expect(page.locator('[data-test=curves-quantity]').inputValue()).resolves.not.toBe('pH')
+    await expect(curves.locator('[data-test=curve-from]').getAttribute('d')).resolves.toMatch(/^M[\d.]+,[\d.]+(L[\d.]+,[\d.]+){10}$/)
+    await expect(curves.locator('[data-test=curve-to]').getAttribute('d')).resolves.toMatch(/^M[\d.]+,[\d.]+(L[\d.]+,[\d.]+){10}$/)
+    await page.locator('[data-test=curves-quantity]').selectOption('Cu^2+')
+    expect(await curves.locator('[data-test=curve-from]').getAttribute('d')).not.toBe(await curves.locator('[data-test=curve-to]').getAttribute('d'))
+    await curves.screenshot({ path: 'test-results/compare-curves.png' })
+    await page.setViewportSize({ width: 390, height: 800 })
+    await screenshot(page, 'compare-curves-phone')
   })
 })

@@ -17,8 +17,8 @@ describe('CompareResultsDiff', () => {
         toNumber: 4,
         solved: {
           solverVersion: '1.0.0',
-          from: { origin: 'stored', runId: 12, solverVersion: '1.0.0', compilerVersion: '0.9.0', model: 'stored' },
-          to: { origin: 'solved-now', runId: null, solverVersion: '1.0.0', compilerVersion: '1.0.0', model: 'compiled-now' },
+          from: { origin: 'stored', runId: 4012, runNumber: 12, solverVersion: '1.0.0', compilerVersion: '0.9.0', model: 'stored' },
+          to: { origin: 'solved-now', runId: null, runNumber: null, solverVersion: '1.0.0', compilerVersion: '1.0.0', model: 'compiled-now' },
         },
       },
     })
@@ -35,8 +35,8 @@ describe('CompareResultsDiff', () => {
         diff, fromNumber: 1, toNumber: 2,
         solved: {
           solverVersion: '1.0.0',
-          from: { origin: 'stored', runId: 4, solverVersion: '1.0.0', compilerVersion: null, model: 'compiled-now' },
-          to: { origin: 'stored', runId: 9, solverVersion: '1.0.0', compilerVersion: '1.0.0', model: 'stored' },
+          from: { origin: 'stored', runId: 3004, runNumber: 4, solverVersion: '1.0.0', compilerVersion: null, model: 'compiled-now' },
+          to: { origin: 'stored', runId: 3009, runNumber: 9, solverVersion: '1.0.0', compilerVersion: '1.0.0', model: 'stored' },
         },
       },
     })

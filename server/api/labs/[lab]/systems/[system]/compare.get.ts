@@ -12,13 +12,15 @@ import { z } from 'zod'
 import { SystemParams } from '#shared/utils/lab-schemas'
 import { diffModels, type ModelChange } from '#shared/diff/model-diff'
 import { diffResults, incomparableReason, type ResultsDiff } from '#shared/diff/results-diff'
+import { compareCurves } from '#shared/diff/curves'
+import type { CompareAnswer } from '#shared/types/compare'
 
 const RevisionNumber = z.coerce.number({ error: 'Give revision numbers, e.g. ?from=3&to=5' })
   .int({ error: 'A revision number is a whole number' })
   .positive({ error: 'Revision numbers start at 1' })
 export const Query = z.object({ from: RevisionNumber, to: RevisionNumber })
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<CompareAnswer> => {
   const params = validateParams(event, SystemParams)
   const access = await requireSystem(event, params.lab, params.system, 'viewer')
   const query = validateQuery(event, Query)
@@ -52,6 +54,7 @@ export default defineEventHandler(async (event) => {
     to: revisionView(to, await authorNameOf(to)),
     modelDiff,
     resultsDiff,
+    curves: a.answer && b.answer ? compareCurves(a.answer, b.answer) : null,
     solved: a.answer || b.answer ? { solverVersion: b.side.solverVersion, from: a.side, to: b.side } : null,
     problems,
   }
