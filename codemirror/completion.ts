@@ -1,141 +1,130 @@
 /**
- * Completion for Poise. Position decides what a word is (a unit follows a
- * number, a constant kind follows a reaction's last species), so the source
- * lexes the line up to the cursor and offers what may stand there. Every
- * word offered comes from the language's own lists (KEYWORDS, UNITS,
- * CONSTANT_KINDS) or from the last compile's symbols.
+ * Completion for Poise. What may come next is asked of the parser itself
+ * (chevrotain's `computeContentAssist` on the tokens of the line left of the
+ * word being typed), so completion never restates the grammar: a new
+ * statement or clause is offered as soon as the parser has it. This module
+ * only decides which words stand for the tokens the parser expects: keywords
+ * by their text, units by the quantity of the number before them
+ * (`quantityDimensions`), constant kinds that fit the reaction written so far
+ * (`kindMismatch`, the checker's own test), and formulas from the last
+ * compile's symbols and the document.
  */
 import type { Completion, CompletionContext, CompletionResult } from '@codemirror/autocomplete'
 import type { EditorState } from '@codemirror/state'
+import type { IToken, TokenType } from 'chevrotain'
 import type { PoiseSymbol } from '../shared/poise/index'
-import { CONSTANT_KINDS, KEYWORDS, UNCERTAINTY_SIGNS, UNITS } from '../shared/poise/tokens'
-import { unitInfo, type Dimension } from '../shared/poise/units'
+import { lexForParser } from '../shared/poise/lexer'
+import { poiseParser } from '../shared/poise/parser'
+import { CONSTANT_KINDS, ConstantKind, Formula, KEYWORD_TOKENS, PlusMinus, UNCERTAINTY_SIGNS, Unit, UNITS, Word } from '../shared/poise/tokens'
+import { parseFormula } from '../shared/poise/formula'
+import { kindMismatch, type PreparedTerm } from '../shared/poise/reactions'
+import type { ConstantKind as ConstantKindName } from '../shared/poise/model'
+import { quantityDimensions, unitInfo, type Dimension } from '../shared/poise/units'
 import { poiseSymbolsField } from './analysis'
-import { lexLine, type LineToken } from './language'
-
-/** Words that open a statement, in the order a file usually has them. */
-const STATEMENT_WORDS = ['system', 'temperature', 'activity', 'ionic-strength', 'ion-size', 'component', 'reaction', 'solid', 'source', 'use', 'sweep', 'map', 'limit', 'sample', 'titrant', 'titrate']
-const COMPONENT_SPECS = ['total', 'free', 'pH', 'pressure', 'balance', 'excess']
-const ACTIVITY_MODELS = ['ideal', 'davies', 'debye-huckel']
-const REACTION_TAIL = ['dH', 'cite', 'fit']
-const SWEEP_VARIABLES = ['pH', 'total', 'temperature', 'pressure']
-const SWEEP_WORDS = ['from', 'to', 'step', 'points', 'log']
-const TITRATE_WORDS = ['to', 'step', 'points']
+import { abbreviationsOf } from './hover'
 
 /** The part of a word already typed: formulas, keywords with `-`, units such as `mmol/L`, `°C`. */
-const WORD_BEFORE_CURSOR = /[A-Za-z°µ][\w°µ/()^·:+-]*$/
+const WORD_BEFORE_CURSOR = /[A-Za-z°µμ][\w°µμ/()^·:+-]*$/
 
-export type CompletionKind = 'keyword' | 'unit' | 'constantKind' | 'symbol'
+export type CompletionKind = 'keyword' | 'unit' | 'constantKind' | 'symbol' | 'source'
 
-export interface CompletionPlan {
+export interface CompletionWord {
+  label: string
   kind: CompletionKind
-  words: string[]
+  /** Accepting it also types the space before what must follow (a keyword or constant kind that something follows). */
+  space: boolean
+  detail?: string
 }
 
-const AMOUNT: Dimension[] = ['concentration', 'mass-concentration']
-/** What a number means after each word that can stand before it. */
-const QUANTITY_AFTER: Record<string, Dimension[]> = {
-  temperature: ['temperature'],
-  'ionic-strength': ['concentration'],
-  total: AMOUNT,
-  free: AMOUNT,
-  pressure: ['pressure'],
-  dH: ['enthalpy'],
-  'ion-size': ['length'],
+const KEYWORD_TYPES = new Set<TokenType>(KEYWORD_TOKENS)
+/** The clauses of a reaction the checker takes once (P004 when given twice): not offered again on a line that has one. */
+const ONCE_A_REACTION = new Set(['dH', 'cite', 'fit'])
+
+/** The tokens the parser reads on a line (comments and line breaks aside). */
+function parserTokens(text: string): { tokens: IToken[]; clean: boolean } {
+  const lexed = lexForParser(text)
+  return { tokens: lexed.tokens.filter((t) => t.tokenType.name !== 'Newline'), clean: lexed.errors.length === 0 }
 }
 
-/** The units of the given dimensions, as the language lists them. */
-function unitsOf(dimensions: Dimension[]): CompletionPlan {
-  return { kind: 'unit', words: UNITS.filter((unit) => dimensions.includes(unitInfo(unit)?.dimension as Dimension)) }
+interface Expected { type: TokenType; ruleStack: string[] }
+
+/** What the parser accepts after `tokens`, from the start of a statement. */
+function expectedAfter(tokens: IToken[]): Expected[] {
+  const seen = new Set<TokenType>()
+  const out: Expected[] = []
+  for (const path of poiseParser.computeContentAssist('statement', tokens)) {
+    if (seen.has(path.nextTokenType)) continue
+    seen.add(path.nextTokenType)
+    out.push({ type: path.nextTokenType, ruleStack: path.ruleStack })
+  }
+  return out
 }
 
-/** Only the words the language itself lists, so completion never offers a word the compiler rejects. */
-function known(words: readonly string[], list: readonly string[]): string[] {
-  return words.filter((word) => list.includes(word))
-}
-
-function symbolNames(symbols: readonly PoiseSymbol[], kinds?: PoiseSymbol['kind'][]): string[] {
-  return symbols.filter((s) => !kinds || kinds.includes(s.kind)).map((s) => s.name)
+/** A stand-in token of a keyword, to ask the parser what may follow it. */
+function keywordToken(type: TokenType, after: IToken | undefined): IToken {
+  const offset = after ? after.endOffset ?? after.startOffset + after.image.length : 0
+  return { image: String(type.PATTERN), startOffset: offset + 1, endOffset: offset + String(type.PATTERN).length, tokenType: type, tokenTypeIdx: type.tokenTypeIdx! } as IToken
 }
 
 /**
- * What may be typed after `before` (the tokens of the line left of the word
- * being typed). Null when nothing useful can be offered there.
+ * The units offered: one spelling of micro (µ), or the `u` spellings when
+ * the word typed starts with `u` (so typing `umol` still finds a unit).
  */
-export function planCompletion(before: LineToken[], symbols: readonly PoiseSymbol[]): CompletionPlan | null {
-  const last = before[before.length - 1]
-  if (!last) return { kind: 'keyword', words: known(STATEMENT_WORDS, KEYWORDS) }
-  if (last.role === 'comment') return null
-  switch (before[0]!.image) {
-    case 'reaction':
-      return planReaction(before, symbols)
-    case 'temperature':
-    case 'ionic-strength':
-      return last.role === 'number' ? unitsOf(QUANTITY_AFTER[before[0]!.image]!) : null
-    case 'component': {
-      if (before.length === 1) return { kind: 'symbol', words: symbolNames(symbols) }
-      if (before.length === 2) return { kind: 'keyword', words: known(COMPONENT_SPECS, KEYWORDS) }
-      // A pH is written without a unit; totals, free values and pressures take one.
-      const quantity = QUANTITY_AFTER[before[2]!.image]
-      return last.role === 'number' && quantity ? unitsOf(quantity) : null
-    }
-    case 'ion-size':
-      // `ion-size F N Å`: a charged species, its size, then a length unit.
-      if (before.length === 1) return { kind: 'symbol', words: symbols.filter((s) => s.ionSize !== null).map((s) => s.name) }
-      return before.length === 3 && last.role === 'number' ? unitsOf(QUANTITY_AFTER['ion-size']!) : null
-    case 'activity':
-      return before.length === 1 ? { kind: 'keyword', words: known(ACTIVITY_MODELS, KEYWORDS) } : null
-    case 'solid':
-      if (before.length === 1) return { kind: 'symbol', words: symbolNames(symbols, ['solid']) }
-      return before.length === 2 ? { kind: 'keyword', words: known(['suppressed'], KEYWORDS) } : null
-    case 'sweep':
-      return planAxis(before, symbols, SWEEP_WORDS)
-    case 'map': {
-      // `map AXIS by AXIS`: each axis as a sweep's; `by` once the first axis has its spacing.
-      const by = before.findIndex((t) => t.image === 'by')
-      if (by >= 0) return planAxis(before.slice(by), symbols, SWEEP_WORDS)
-      const spaced = before.some((t) => t.image === 'step' || t.image === 'points') && last.role === 'number'
-      const plan = planAxis(before, symbols, SWEEP_WORDS)
-      if (spaced && before[before.length - 2]?.image === 'points') return { kind: 'keyword', words: known(['log', 'by'], KEYWORDS) }
-      if (last.image === 'log') return { kind: 'keyword', words: known(['by'], KEYWORDS) }
-      return spaced && plan?.kind === 'keyword' ? { kind: 'keyword', words: known([...plan.words, 'by'], KEYWORDS) } : plan
-    }
-    case 'limit': {
-      // `limit dissolved X N UNIT`: X a component (not H+) or an element one of them holds (not H or O).
-      if (before.length === 1) return { kind: 'keyword', words: known(['dissolved'], KEYWORDS) }
-      if (before.length === 2) return { kind: 'symbol', words: limitTargets(symbols) }
-      return before.length === 4 && last.role === 'number' ? unitsOf(AMOUNT) : null
-    }
-    case 'sample':
-      // `sample volume N UNIT`
-      if (before.length === 1) return { kind: 'keyword', words: known(['volume'], KEYWORDS) }
-      return before.length === 3 && last.role === 'number' ? unitsOf(['volume']) : null
-    case 'titrant':
-      // `titrant F N UNIT`: a component or a species the reactions define, then a concentration.
-      if (before.length === 1) return { kind: 'symbol', words: symbolNames(symbols, ['component', 'species']) }
-      return before.length === 3 && last.role === 'number' ? unitsOf(AMOUNT) : null
-    case 'titrate': {
-      // `titrate from A to B (step D | points N)` or `titrate to pH X`.
-      if (before.length === 1) return { kind: 'keyword', words: known(['from', 'to'], KEYWORDS) }
-      if (before[1]!.image === 'to') return before.length === 2 ? { kind: 'keyword', words: known(['pH'], KEYWORDS) } : null
-      const countsPoints = before[before.length - 2]?.image === 'points'
-      if (last.role === 'number' && !countsPoints) return unitsOf(['volume'])
-      return { kind: 'keyword', words: known(TITRATE_WORDS, KEYWORDS) }
-    }
-    default:
-      return null
-  }
+function unitWords(dimensions: Dimension[], typed: string): string[] {
+  const otherMicro = typed.startsWith('u') ? /^[µμ]/ : /^[uμ]/
+  return UNITS.filter((unit) => !otherMicro.test(unit) && dimensions.includes(unitInfo(unit)!.dimension))
 }
 
-/** Within `sweep …` or one axis of `map … by …` (`before` starts at the word before the variable). */
-function planAxis(before: LineToken[], symbols: readonly PoiseSymbol[], words: string[]): CompletionPlan | null {
-  const last = before[before.length - 1]!
-  if (before.length === 1) return { kind: 'keyword', words: known(SWEEP_VARIABLES, KEYWORDS) }
-  if (last.image === 'total' || last.image === 'pressure') return { kind: 'symbol', words: symbolNames(symbols, ['component']) }
-  const quantity = QUANTITY_AFTER[before[1]!.image]
-  const countsPoints = before[before.length - 2]?.image === 'points'
-  if (last.role === 'number' && quantity && !countsPoints) return unitsOf(quantity)
-  return { kind: 'keyword', words: known(words, KEYWORDS) }
+/** The constant kinds the checker accepts for the reaction written so far (all of them while a formula does not parse). */
+function fittingKinds(tokens: IToken[], symbols: readonly PoiseSymbol[]): string[] {
+  const table = abbreviationsOf(symbols)
+  const arrow = tokens.findIndex((t) => t.tokenType.name === 'Arrow')
+  const terms = (part: IToken[]): PreparedTerm[] | null => {
+    const out: PreparedTerm[] = []
+    for (let i = 0; i < part.length; i++) {
+      const t = part[i]!
+      if (t.tokenType !== Formula) continue
+      const formula = parseFormula(t.image, table).formula
+      if (!formula) return null
+      const before = part[i - 1]
+      const coefficient = before?.tokenType.name === 'Number' ? Number(before.image) : 1
+      out.push({ coefficient, formula, tok: { image: t.image, from: t.startOffset, to: t.startOffset + t.image.length } })
+    }
+    return out
+  }
+  const left = terms(tokens.slice(1, arrow))
+  const right = terms(tokens.slice(arrow + 1))
+  if (!left || !right) return [...CONSTANT_KINDS]
+  const components = new Set(symbols.filter((s) => s.kind === 'component').map((s) => s.name))
+  // Without the symbols of a compile, every formula may be a component: do not refuse on that ground.
+  const isComponent = (name: string) => components.size === 0 || components.has(name)
+  return CONSTANT_KINDS.filter((kind) => kindMismatch(kind as ConstantKindName, left, right, isComponent) === null)
+}
+
+/** Formulas written in the document's reactions that no component line declares and no reaction of the last compile defines, in order of appearance. */
+export function undeclaredFormulas(doc: string, symbols: readonly PoiseSymbol[]): string[] {
+  const table = abbreviationsOf(symbols)
+  const declared = new Set<string>()
+  const used: string[] = []
+  for (const line of doc.split(/\r?\n/)) {
+    const tokens = lexForParser(line).tokens
+    const first = tokens[0]?.image
+    const formulas = tokens.filter((t) => t.tokenType === Formula).map((t) => parseFormula(t.image, table).formula?.name ?? t.image)
+    if (first === 'component' && formulas[0]) declared.add(formulas[0])
+    if (first === 'reaction') used.push(...formulas)
+  }
+  const defined = new Set(symbols.filter((s) => s.kind !== 'component').map((s) => s.name))
+  return [...new Set(used)].filter((name) => name !== 'H2O' && !declared.has(name) && !defined.has(name))
+}
+
+/** The source keys the document declares (`source KEY "…"`), for `cite`. */
+function sourceKeys(doc: string): string[] {
+  const keys: string[] = []
+  for (const line of doc.split(/\r?\n/)) {
+    const tokens = lexForParser(line).tokens
+    if (tokens[0]?.image === 'source' && tokens[1]) keys.push(tokens[1].image)
+  }
+  return keys
 }
 
 /** What a `limit dissolved` may name: the elements the components hold (H and O aside), then the components (H+ aside). */
@@ -145,31 +134,76 @@ export function limitTargets(symbols: readonly PoiseSymbol[]): string[] {
   return [...elements, ...components.map((c) => c.name)]
 }
 
-function planReaction(before: LineToken[], symbols: readonly PoiseSymbol[]): CompletionPlan | null {
-  const last = before[before.length - 1]!
-  const kindAt = before.findIndex((t) => t.role === 'constantKind')
-  if (kindAt >= 0) {
-    // Each clause once: `fit`, `dH` and `cite` already written are not offered again.
-    const written = new Set(before.map((t) => t.image))
-    const tail = known(REACTION_TAIL, KEYWORDS).filter((word) => !written.has(word))
-    if (last.role === 'number') {
-      const afterEnthalpy = before[before.length - 2]?.image === 'dH'
-      if (afterEnthalpy) return unitsOf(QUANTITY_AFTER.dH!)
-      // Right after the constant's value: its uncertainty may follow (`pKa 4.70 ± 0.05`).
-      const afterValue = before.length - 2 === kindAt
-      return { kind: 'keyword', words: afterValue ? [...UNCERTAINTY_SIGNS, ...tail] : tail }
+/** The formulas that fit where the parser expects one, by the rule it is in. */
+function formulaWords(rule: string, tokens: IToken[], symbols: readonly PoiseSymbol[], doc: string): { label: string; detail: string }[] {
+  const named = (list: readonly PoiseSymbol[]) => list.map((s) => ({ label: s.name, detail: s.kind === 'abbreviation' ? `abbreviation: ${s.stands}` : s.kind }))
+  const of = (...kinds: PoiseSymbol['kind'][]) => named(symbols.filter((s) => kinds.includes(s.kind)))
+  switch (rule) {
+    case 'componentStatement':
+      // A component not declared yet: what the reactions use, then the file's abbreviations to write one with.
+      return [...undeclaredFormulas(doc, symbols).map((label) => ({ label, detail: 'used, not declared' })), ...of('abbreviation')]
+    case 'term':
+      return of('component', 'species', 'solid', 'gas', 'abbreviation')
+    case 'solidStatement':
+      return of('solid')
+    case 'ionSizeStatement':
+      return named(symbols.filter((s) => s.ionSize !== null))
+    case 'sweepVariable': {
+      // `sweep total F` / `sweep pressure F`: a component given that way.
+      const mode = tokens[tokens.length - 1]?.image
+      return named(symbols.filter((s) => s.kind === 'component')).filter((c) => mode !== 'pressure' || c.label.endsWith('(g)'))
     }
-    // After a clause's end: a unit (dH), a citation (text or key), or `fit`.
-    const clauseEnd = last.role === 'unit' || last.image === 'fit' || ((last.role === 'string' || last.role === 'word') && before[before.length - 2]?.image === 'cite')
-    return clauseEnd ? { kind: 'keyword', words: tail } : null
+    case 'limitStatement':
+      return limitTargets(symbols).map((label) => ({ label, detail: symbols.some((s) => s.name === label) ? 'component' : 'element' }))
+    case 'titrantStatement':
+      return of('component', 'species')
+    case 'citation':
+    case 'sourceStatement':
+      return sourceKeys(doc).map((label) => ({ label, detail: 'source' }))
+    default:
+      return []
   }
-  // Before the constant: species are joined by `+`, a number is a coefficient.
-  const hasArrow = before.some((t) => t.role === 'arrow')
-  if (last.role === 'formula' && hasArrow) return { kind: 'constantKind', words: [...CONSTANT_KINDS] }
-  if (before.length === 1 || last.role === 'plus' || last.role === 'arrow' || last.role === 'number') {
-    return { kind: 'symbol', words: symbolNames(symbols) }
+}
+
+/**
+ * What may be typed with the cursor after `textBefore` (the line left of the
+ * word being typed), given the last compile's symbols and the whole document.
+ * Null when nothing can follow there.
+ */
+export function planCompletion(textBefore: string, typed: string, symbols: readonly PoiseSymbol[], doc = ''): CompletionWord[] | null {
+  const { tokens, clean } = parserTokens(textBefore)
+  if (!clean) return null
+  const expected = expectedAfter(tokens)
+  if (expected.length === 0) return null
+  const last = tokens[tokens.length - 1]
+  // After a number whose quantity needs a unit, only its units: the grammar's unit is optional (a pH, a count) but the checker's is not.
+  // A sweep's `step` and a titration's `from` take the unit of their end when they give none.
+  const before = tokens[tokens.length - 2]?.image
+  const dimensions = last?.tokenType.name === 'Number' ? quantityDimensions(tokens.map((t) => t.image), tokens.length - 1) : []
+  const unitRequired = dimensions.length > 0 && before !== 'step' && !(tokens[0]?.image === 'titrate' && before === 'from')
+  const words: CompletionWord[] = []
+  for (const { type, ruleStack } of expected) {
+    if (unitRequired && type !== Unit) continue
+    const rule = ruleStack[ruleStack.length - 1] ?? 'statement'
+    if (KEYWORD_TYPES.has(type)) {
+      // A citation's key or a source's name is the file's own word, whatever the parser would accept there.
+      if ((rule === 'citation' && last?.image === 'cite') || (rule === 'sourceStatement' && last?.image === 'source')) continue
+      const word = String(type.PATTERN)
+      if (ruleStack.includes('reactionStatement') && ONCE_A_REACTION.has(word) && tokens.some((t) => t.image === word)) continue
+      const more = expectedAfter([...tokens, keywordToken(type, last)]).length > 0
+      words.push({ label: word, kind: 'keyword', space: more })
+    } else if (type === PlusMinus) {
+      for (const sign of UNCERTAINTY_SIGNS) words.push({ label: sign, kind: 'keyword', space: true, detail: 'uncertainty' })
+    } else if (type === ConstantKind) {
+      for (const kind of fittingKinds(tokens, symbols)) words.push({ label: kind, kind: 'constantKind', space: true, detail: 'constant' })
+    } else if (type === Unit && last?.tokenType.name === 'Number') {
+      for (const unit of unitWords(dimensions, typed)) words.push({ label: unit, kind: 'unit', space: false })
+    } else if (type === Formula || type === Word) {
+      for (const f of formulaWords(rule, tokens, symbols, doc)) words.push({ label: f.label, kind: rule === 'citation' || rule === 'sourceStatement' ? 'source' : 'symbol', space: false, detail: f.detail })
+    }
   }
-  return null
+  const unique = words.filter((w, i) => words.findIndex((o) => o.label === w.label) === i)
+  return unique.length ? unique : null
 }
 
 const COMPLETION_TYPE: Record<CompletionKind, string> = {
@@ -177,14 +211,16 @@ const COMPLETION_TYPE: Record<CompletionKind, string> = {
   unit: 'unit',
   constantKind: 'constant',
   symbol: 'variable',
+  source: 'text',
 }
 
-function toOptions(plan: CompletionPlan, symbols: readonly PoiseSymbol[]): Completion[] {
-  return [...new Set(plan.words)].map((word) => ({
-    label: word,
-    type: COMPLETION_TYPE[plan.kind],
-    detail: plan.kind === 'symbol' ? (symbols.find((s) => s.name === word)?.kind ?? 'element') : plan.kind === 'constantKind' ? 'constant' : undefined,
-  }))
+function toOption(word: CompletionWord): Completion {
+  return {
+    label: word.label,
+    type: COMPLETION_TYPE[word.kind],
+    ...(word.detail ? { detail: word.detail } : {}),
+    ...(word.space ? { apply: `${word.label} ` } : {}),
+  }
 }
 
 /** The completions at `pos`, or null; split out of the source so it can be checked on a bare state. */
@@ -194,14 +230,14 @@ export function completionsAt(state: EditorState, pos: number, explicit: boolean
   const typed = WORD_BEFORE_CURSOR.exec(textBefore)
   const wordFrom = typed ? textBefore.length - typed[0].length : textBefore.length
   if (!typed && !explicit && !/\s$/.test(textBefore)) return null
-  const before = lexLine(textBefore.slice(0, wordFrom))
+  if (lexForParser(textBefore).comments.length > 0) return null
   const symbols = state.field(poiseSymbolsField, false) ?? []
-  const plan = planCompletion(before, symbols)
-  if (!plan || plan.words.length === 0) return null
+  const words = planCompletion(textBefore.slice(0, wordFrom), typed?.[0] ?? '', symbols, state.doc.toString())
+  if (!words) return null
   return {
     from: line.from + wordFrom,
-    options: toOptions(plan, symbols),
-    validFor: /^[\w°µ/()^·:+-]*$/,
+    options: words.map(toOption),
+    validFor: /^[\w°µμ/()^·:+-]*$/,
   }
 }
 

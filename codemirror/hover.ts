@@ -15,6 +15,7 @@ import { formatNumber } from '../shared/poise/limits'
 import { parseNumber } from '../shared/poise/units'
 import { typesetFormula } from '../shared/results/typeset'
 import { withoutCharge } from '../shared/poise/limitStatement'
+import { constantKindMeaning, renderWord, wordAt } from './wordHover'
 
 export interface SymbolDescription {
   /** Typeset name, e.g. `Cu(NH₃)₄²⁺`. */
@@ -182,7 +183,8 @@ export function constantAt(tokens: readonly LineToken[], offset: number): { from
   const kind = tokens[k]!.image as ConstantKind
   const value = parseNumber(valueTok.image)
   const logK = logKFromConstant(kind, value)
-  const rows: [string, string][] = [['value', `${kind} ${valueTok.image}`]]
+  const meaning = constantKindMeaning(kind)
+  const rows: [string, string][] = [['value', `${kind} ${valueTok.image}`], ...(meaning ? [['kind', meaning] as [string, string]] : [])]
   if (logK !== null && kind !== 'logK') rows.push(['log₁₀ K', `${formatNumber(logK)} (of the reaction as written)`])
   if (sigmaTok) {
     const sigma = parseNumber(sigmaTok.image)
@@ -250,7 +252,10 @@ export const poiseHover = hoverTooltip((view, pos): Tooltip | null => {
     return { pos: line.from + constant.from, end: line.from + constant.to, above: true, create: () => ({ dom: renderConstant(constant.description) }) }
   }
   const found = symbolAt(view.state, pos)
-  if (!found) return null
+  if (!found) {
+    const word = wordAt(view.state, pos)
+    return word ? { pos: word.from, end: word.to, above: true, create: () => ({ dom: renderWord(word.description) }) } : null
+  }
   return {
     pos: found.from,
     end: found.to,

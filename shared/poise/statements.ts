@@ -7,7 +7,7 @@ import type { CstElement, CstNode, IToken } from 'chevrotain'
 import type { Fix } from './diagnostics'
 import { lexForParser } from './lexer'
 import { parseStatement } from './parser'
-import { editDistance, nearness, notAUnitMessage, parseNumber, suggestUnits, type Dimension } from './units'
+import { editDistance, nearness, notAUnitMessage, parseNumber, quantityDimensions, suggestUnits, type Dimension } from './units'
 import { KEYWORDS } from './tokens'
 import { formatNumber, NUMBER_MAX, NUMBER_MIN } from './limits'
 
@@ -268,11 +268,8 @@ export function parseFile(text: string): ParsedFile {
   }
   /** The quantities a unit at line[k] may be of, from the keyword before its number or the statement's keyword; [] when not known. */
   function dimensionsAt(k: number): Dimension[] {
-    const concentration: Dimension[] = ['concentration', 'mass-concentration']
-    const byClause: Record<string, Dimension[]> = { pressure: ['pressure'], total: concentration, free: concentration, dH: ['enthalpy'], volume: ['volume'] }
-    const byStatement: Record<string, Dimension[]> = { temperature: ['temperature'], 'ionic-strength': ['concentration'], 'ion-size': ['length'], titrant: concentration, limit: concentration }
-    const clause = line[k - 2]?.image ?? ''
-    return byClause[clause] ?? byStatement[line[0]!.image] ?? []
+    // line[k] is the word after the number at k - 1.
+    return quantityDimensions(line.map((t) => t.image), k - 1)
   }
   /** A word right after a number where the parser expected something else: a unit that is not one (P050), with the nearest units. */
   function notAUnit(tok: IToken): SyntaxProblem | null {

@@ -131,3 +131,34 @@ export function notAUnitMessage(word: string, s: UnitSuggestion): string {
   if (s.clear) return `${word} is not a unit: write ${s.units[0]}`
   return `${word} is not a unit: did you mean ${s.units.slice(0, -1).join(', ')} or ${s.units[s.units.length - 1]}?`
 }
+
+const AMOUNT: Dimension[] = ['concentration', 'mass-concentration']
+/** The quantity of a number by the word right before it. */
+const BY_CLAUSE: Record<string, Dimension[]> = { pressure: ['pressure'], total: AMOUNT, free: AMOUNT, dH: ['enthalpy'], volume: ['volume'] }
+/** Failing that, by the statement's first word. */
+const BY_STATEMENT: Record<string, Dimension[]> = {
+  temperature: ['temperature'], 'ionic-strength': ['concentration'], 'ion-size': ['length'], titrant: AMOUNT, limit: AMOUNT, titrate: ['volume'],
+}
+/** In a sweep, by its variable (a pH has no unit). */
+const BY_SWEEP_VARIABLE: Record<string, Dimension[]> = { pH: [], temperature: ['temperature'], total: AMOUNT, pressure: ['pressure'] }
+
+/**
+ * The units the number at `index` of a line may take, from the words of its
+ * line: the statement's first word, the variable of its sweep axis (a
+ * sweep's second word, or for `map … by …` the word after the last `by`
+ * before it), and the word right before the number. [] when the number
+ * takes no unit or is not known (a coefficient, a pH, a count of points).
+ * Read by the checker's "not a unit" message and by completion.
+ */
+export function quantityDimensions(words: readonly string[], index: number): Dimension[] {
+  const before = words[index - 1]
+  if (before === 'points' || before === '@' || before === 'pH') return []
+  const byClause = before !== undefined ? BY_CLAUSE[before] : undefined
+  if (byClause) return byClause
+  const statement = words[0] ?? ''
+  if (statement === 'sweep' || statement === 'map') {
+    const by = words.lastIndexOf('by', index)
+    return BY_SWEEP_VARIABLE[words[by >= 0 ? by + 1 : 1] ?? ''] ?? []
+  }
+  return BY_STATEMENT[statement] ?? []
+}

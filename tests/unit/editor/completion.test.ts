@@ -43,9 +43,13 @@ describe('Poise completion', () => {
   })
 
   it('offers constant kinds after the last species of a reaction', () => {
+    // Only the kinds the checker accepts for this reaction: a formation from components, no acid, no solid, no gas.
     const labels = offered('reaction Cu^2+ + NH3 <=> CuNH3^2+ |')!
-    expect(labels).toEqual(expect.arrayContaining(['logK', 'logbeta', 'pKa', 'pKsp', 'K']))
-    expect(labels).not.toContain('mmol/L')
+    expect(labels).toEqual(['logK', 'K', 'pK', 'logbeta', 'beta'])
+    expect(offered('reaction NH4+ <=> NH3 + H+ |')).toEqual(['logK', 'K', 'pK', 'pKa', 'Ka'])
+    expect(offered('reaction Cu(OH)2(s) <=> Cu^2+ + 2 OH- |')).toEqual(['logK', 'K', 'pK', 'pKsp', 'Ksp', 'logKsp'])
+    expect(offered('reaction H2O <=> H+ + OH- |')).toEqual(['logK', 'K', 'pK', 'pKa', 'Ka', 'pKw'])
+    expect(offered('reaction CO2(g) + H2O <=> H2CO3 |')).toEqual(['logK', 'K', 'pK', 'logKH'])
   })
 
   it('offers no constant kind on the left of the arrow', () => {
@@ -92,7 +96,7 @@ describe('Poise completion', () => {
   it('offers no unit where the quantity has none', () => {
     expect(offered('component H+ pH 4.5 |')).toBeNull()
     expect(offered('use "buffers" @ 2 |')).toBeNull()
-    expect(offered('sweep pH from 6 |')).toEqual(['from', 'to', 'step', 'points', 'log'])
+    expect(offered('sweep pH from 6 |')).toEqual(['to'])
     expect(offered('sweep total NH3 from 1 |')).toContain('mmol/L')
   })
 
@@ -111,7 +115,9 @@ describe('Poise completion', () => {
 describe('Poise completion of a titration', () => {
   it('offers volume after sample, then volume units only', () => {
     expect(offered('sample |')).toEqual(['volume'])
-    expect(offered('sample volume 25 |')).toEqual(['mL', 'uL', 'µL', 'μL', 'L'])
+    // One spelling of micro in the list; typing u finds the u spelling.
+    expect(offered('sample volume 25 |')).toEqual(['mL', 'µL', 'L'])
+    expect(offered('sample volume 25 u|')).toEqual(['mL', 'uL', 'L'])
   })
 
   it('offers components and species after titrant, then concentration units', () => {
@@ -127,8 +133,9 @@ describe('Poise completion of a titration', () => {
     expect(offered('titrate to |')).toEqual(['pH'])
     expect(offered('titrate to pH 7 |')).toBeNull()
     expect(offered('titrate from 0 to 40 |')).toContain('mL')
-    expect(offered('titrate from 0 to 40 mL |')).toEqual(['to', 'step', 'points'])
-    expect(offered('titrate from 0 to 40 mL points 81 |')).toEqual(['to', 'step', 'points'])
+    expect(offered('titrate from 0 to 40 mL |')).toEqual(['step', 'points'])
+    expect(offered('titrate from 0 |')).toEqual(expect.arrayContaining(['mL', 'to']))
+    expect(offered('titrate from 0 to 40 mL points 81 |')).toBeNull()
   })
 
   it('offers the titration statements at the start of a line', () => {
@@ -164,3 +171,69 @@ reaction `
   })
 })
 
+
+describe('Poise completion from the parser, per context', () => {
+  /** The options offered at `|` in a whole document, with the symbols of its own compile. */
+  function options(text: string, explicit = true) {
+    const pos = text.indexOf('|')
+    const doc = text.replace('|', '')
+    const state = EditorState.create({ doc, extensions: [poiseSymbolsField] })
+      .update({ effects: setPoiseSymbols.of(compile(doc).symbols) }).state
+    return completionsAt(state, pos, explicit)?.options ?? null
+  }
+
+  it('accepting a keyword types the space before what follows it, and none after a last word', () => {
+    const start = options('|')!
+    expect(start.find((o) => o.label === 'component')!.apply).toBe('component ')
+    expect(start.find((o) => o.label === 'abbreviation')!.apply).toBe('abbreviation ')
+    const specs = options('component Cu^2+ |')!
+    expect(specs.find((o) => o.label === 'total')!.apply).toBe('total ')
+    // Nothing can follow balance or excess: no space.
+    expect(specs.find((o) => o.label === 'balance')!.apply).toBeUndefined()
+    expect(options('activity |')!.find((o) => o.label === 'davies')!.apply).toBeUndefined()
+    // A constant kind is always followed by its number.
+    expect(options('reaction NH4+ <=> NH3 + H+ |')!.find((o) => o.label === 'pKa')!.apply).toBe('pKa ')
+    // A unit ends a quantity: no space.
+    expect(options('component NH3 total 1 |')!.find((o) => o.label === 'mmol/L')!.apply).toBeUndefined()
+  })
+
+  it('after component: the formulas the reactions use that no component line declares', () => {
+    const doc = 'system "t"\ncomponent Ca^2+ total 1 mmol/L\nreaction HCO3- <=> CO3^2- + H+ pKa 10.33 cite "from memory"\nreaction H2O <=> H+ + OH- pKw 14 cite "from memory"\ncomponent |'
+    expect(options(doc)!.map((o) => o.label)).toEqual(['HCO3-', 'CO3^2-', 'H+', 'OH-'])
+    // Once H+ and CO3^2- are components, the reactions define HCO3- and OH-: nothing is left to declare.
+    const declared = doc.replace('component |', 'component H+ balance\ncomponent CO3^2- total 1 mmol/L\ncomponent |')
+    expect(options(declared)).toBeNull()
+  })
+
+  it('after component: the file\'s abbreviations, to write a ligand with', () => {
+    const offered = options('system "t"\nabbreviation Cit = C6H5O7\ncomponent |')!
+    expect(offered.map((o) => [o.label, o.detail])).toEqual([['Cit', 'abbreviation: C6H5O7']])
+  })
+
+  it('one µ in the unit lists, each unit once', () => {
+    const labels = options('component NH3 total 1 |')!.map((o) => o.label)
+    expect(labels).toContain('µmol/L')
+    expect(labels).toContain('µg/L')
+    expect(labels.filter((l) => /^[uμ]/.test(l))).toEqual([])
+    expect(new Set(labels).size).toBe(labels.length)
+    expect(options('sample volume 25 |')!.map((o) => o.label)).toEqual(['mL', 'µL', 'L'])
+  })
+
+  it('after cite: the source keys the file declares', () => {
+    const doc = 'system "t"\nsource hb "a handbook"\nsource memory "from memory"\nreaction NH4+ <=> NH3 + H+ pKa 9.24 cite |'
+    expect(options(doc)!.map((o) => o.label)).toEqual(['hb', 'memory'])
+  })
+
+  it('after sweep total or pressure: only the components given that way', () => {
+    const doc = 'system "t"\ncomponent H+ balance\ncomponent CO2(g) pressure 1 atm\ncomponent Na+ total 1 mmol/L\nsweep pressure |'
+    expect(options(doc)!.map((o) => o.label)).toEqual(['CO2(g)'])
+  })
+
+  it('offers nothing the parser would refuse: no unit after a coefficient, no second statement', () => {
+    const coefficient = options('system "t"\ncomponent Cu^2+ total 1 mmol/L\ncomponent NH3 total 1 mmol/L\nreaction Cu^2+ + 2 |')!.map((o) => o.label)
+    expect(coefficient).toContain('NH3')
+    expect(coefficient).not.toContain('mmol/L')
+    expect(options('temperature 25 C |')).toBeNull()
+    expect(options('system "a" |')).toBeNull()
+  })
+})

@@ -2,7 +2,9 @@ import { describe, expect, it } from 'vitest'
 import { EditorState } from '@codemirror/state'
 import { compile } from '../../../shared/poise/index'
 import { poiseSymbolsField, setPoiseSymbols } from '../../../codemirror/analysis'
-import { describeSymbol, findSymbol, symbolAt } from '../../../codemirror/hover'
+import { constantAt, describeSymbol, findSymbol, symbolAt } from '../../../codemirror/hover'
+import { wordAt } from '../../../codemirror/wordHover'
+import { lexLine } from '../../../codemirror/language'
 
 const plating = `system "Copper ammine plating bath"
 component Cu^2+ total 10 mmol/L
@@ -144,5 +146,49 @@ reaction Ni^2+ + Cit^3- <=> NiCit^- logbeta 5.4 cite "from memory"
     expect(found.description.charge).toBe('−1')
     expect(found.description.formation).toContain('log₁₀ β = 5.40')
     expect(found.description.writtenWith).toBe('Cit = C6H5O7')
+  })
+})
+
+describe('hover on keywords and numbers with units', () => {
+  const text = `system "Hover words"
+temperature 35 C
+component H+ balance
+component NH3 total 170.31 mg/L
+component Cu^2+ total 1.5 mmol/L
+reaction NH4+ <=> NH3 + H+ pKa 9.24 dH 12 kcal/mol cite "from memory"
+`
+  const state = EditorState.create({ doc: text, extensions: [poiseSymbolsField] })
+    .update({ effects: setPoiseSymbols.of(compile(text).symbols) }).state
+
+  it('a statement keyword: its syntax and what it does, from the reference, with the link to it', () => {
+    const found = wordAt(state, text.indexOf('component'))!
+    expect(found.description.lines[0]).toBe('component FORMULA SPEC')
+    expect(found.description.lines[1]).toContain('basis species')
+    expect(found.description.link).toBe('/reference#component')
+  })
+
+  it('a clause keyword: its row of the statement\'s table', () => {
+    const found = wordAt(state, text.indexOf('balance'))!
+    expect(found.description.title).toBe('balance')
+    expect(wordAt(state, text.indexOf('total'))!.description.title).toBe('total N UNIT')
+    expect(found.description.lines[0]).toMatch(/^its total is whatever electroneutrality needs/)
+    expect(found.description.link).toBe('/reference#component')
+  })
+
+  it('a number with its unit in the model unit; a mass concentration through the molar mass', () => {
+    // IUPAC abridged atomic weights: NH3 = 14.007 + 3·1.008 = 17.031 g/mol, so 170.31 mg/L = 10 mmol/L.
+    const mass = wordAt(state, text.indexOf('mg/L'))!
+    expect(mass.description.title).toBe('170.31 mg/L')
+    expect(mass.description.lines[0]).toBe('= 0.01 mol/L of NH3 (17.031 g/mol, IUPAC standard atomic weights)')
+    expect(wordAt(state, text.indexOf('1.5 mmol'))!.description.lines).toEqual(['= 0.0015 mol/L'])
+    expect(wordAt(state, text.indexOf('35 C'))!.description.lines).toEqual(['= 35 °C', '= 308.15 K'])
+    // 1 thermochemical calorie = 4.184 J (definition): 12 kcal/mol = 50.208 kJ/mol.
+    expect(wordAt(state, text.indexOf('kcal'))!.description.lines).toEqual(['= 50.208 kJ/mol'])
+  })
+
+  it('the kind of a constant says what its number is', () => {
+    const line = text.split('\n')[5]!
+    const found = constantAt(lexLine(line), line.indexOf('pKa'))!
+    expect(found.description.rows).toContainEqual(['kind', 'acid dissociation constant'])
   })
 })

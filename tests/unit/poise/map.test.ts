@@ -100,7 +100,8 @@ describe('map in the editor', () => {
     expect(offered('map total |')).toEqual(['H+', 'Cu^2+', 'Na+'])
     expect(offered('map total Cu^2+ from 1 |')).toContain('mmol/L')
     expect(offered('map pH from 2 to 12 points 11 |')).toEqual(['log', 'by'])
-    expect(offered('map pH from 2 to 12 step 0.5 |')).toEqual(['from', 'to', 'step', 'points', 'log', 'by'])
+    // What the parser accepts after the spacing: a pH step takes no unit.
+    expect(offered('map pH from 2 to 12 step 0.5 |')).toEqual(['log', 'by'])
     expect(offered('map pH from 2 to 12 points 11 by |')).toEqual(['pH', 'total', 'temperature', 'pressure'])
     expect(offered('map pH from 2 to 12 points 11 by total Na+ from 1 |')).toContain('mmol/L')
   })

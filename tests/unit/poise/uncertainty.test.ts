@@ -144,6 +144,7 @@ describe('hover on a constant', () => {
       expect(found.description.title).toBe('constant · Ka')
       expect(Object.fromEntries(found.description.rows)).toEqual({
         value: 'Ka 1.75e-5',
+        kind: 'acid dissociation constant',
         'log₁₀ K': '-4.75696 (of the reaction as written)',
         uncertainty: '± 1e-6 (± 0.0248168 in log₁₀ K); answers carry a ± from it',
         fit: 'to be fitted to a data set (the value is the starting guess)',
