@@ -13,7 +13,8 @@ import { existsSync, readFileSync } from 'node:fs'
 import { compile } from '../shared/poise/index'
 import { parseDataSet } from '../shared/fit/dataset'
 import { formatWithError } from '../shared/fit/constants'
-import { fitConstants, type FitResult } from '../server/solver/fit'
+import { fitConstants } from '../server/solver/fit'
+import type { FitResult } from '../shared/types/fit'
 import { EXIT } from './exit-codes'
 
 export function runFit(file: string, dataFile: string, options: { json: boolean; weights: string[] }): number {

@@ -87,6 +87,28 @@ export const runs = mysqlTable('runs', {
   createdAt,
 }, (t) => [index('runs_revision_idx').on(t.revisionId)])
 
+/**
+ * A data set: measurements uploaded to a system as CSV for fitting
+ * constants (shared/fit/dataset.ts reads it). The file is kept as uploaded
+ * (`source`, with its SHA-256, which a fitted constant's citation names),
+ * and its parsed headers and rows beside it.
+ */
+export const datasets = mysqlTable('datasets', {
+  id: int('id').autoincrement().primaryKey(),
+  systemId: int('system_id').notNull().references(() => systems.id, { onDelete: 'cascade' }),
+  name: varchar('name', { length: 200 }).notNull(),
+  filename: varchar('filename', { length: 255 }).notNull(),
+  /** The headers as written, study variable first (JSON array of strings). */
+  columns: json('columns').notNull(),
+  /** The parsed rows (JSON: arrays of numbers, null for an empty cell). */
+  rows: longtext('rows').notNull(),
+  rowCount: int('row_count').notNull(),
+  source: longtext('source').notNull(),
+  sha256: varchar('sha256', { length: 64 }).notNull(),
+  createdBy: int('created_by').references(() => users.id, { onDelete: 'set null' }),
+  createdAt,
+}, (t) => [uniqueIndex('datasets_system_name_unique').on(t.systemId, t.name)])
+
 export const auditLog = mysqlTable('audit_log', {
   id: int('id').autoincrement().primaryKey(),
   actorId: int('actor_id').references(() => users.id, { onDelete: 'set null' }),
@@ -132,6 +154,7 @@ export type LabMember = typeof labMembers.$inferSelect
 export type System = typeof systems.$inferSelect
 export type Revision = typeof revisions.$inferSelect
 export type Run = typeof runs.$inferSelect
+export type Dataset = typeof datasets.$inferSelect
 
 /** One asks a member (reviewer or higher) to review revision `to` of a system against revision `from`. */
 

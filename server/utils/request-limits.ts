@@ -32,10 +32,11 @@ export const BODY_LIMITS = {
   discardUpToBytes: 8 * 1024 * 1024,
 } as const
 
-/** The routes that take a multipart upload (a `.poise` file); every other write takes JSON. */
+/** The routes that take a multipart upload (a `.poise` or data set file); every other write takes JSON. */
 const UPLOAD_ROUTES = [
   /^\/api\/labs\/[^/]+\/imports\/?$/,
   /^\/api\/labs\/[^/]+\/systems\/[^/]+\/imports\/?$/,
+  /^\/api\/labs\/[^/]+\/systems\/[^/]+\/datasets\/?$/,
 ]
 
 export function isUploadRoute(path: string): boolean {

@@ -16,6 +16,8 @@ export const SOLVE_LIMITS = {
   maxSolids: 60,
   /** Wall-clock budget of one run (a whole sweep) inside the worker. */
   timeBudgetMs: 20_000,
+  /** Wall-clock budget of one fit (every step a solve of the whole data set) inside the worker; past it the fit stops unconverged. */
+  fitTimeBudgetMs: 60_000,
   /** Extra time before the pool aborts a worker that ignores its budget. */
   graceMs: 5_000,
   maxQueuedTasks: 32,

@@ -14,7 +14,8 @@ import { dirname, join } from 'node:path'
 import { pathToFileURL } from 'node:url'
 import Piscina from 'piscina'
 import type { Model } from '../../shared/poise/model'
-import type { SolveTask, SolveTaskAnswer, SolveTaskOutput } from '../workers/solve.worker'
+import type { FitTask, SolveTask, SolveTaskAnswer, SolveTaskOutput } from '../workers/solve.worker'
+import type { FitOutcome } from '../../shared/types/fit'
 import { SOLVE_LIMITS } from './solve-limits'
 import { SolveQueue, SolveQueueRefusal } from './solve-queue'
 
@@ -84,6 +85,32 @@ export async function solveInPool(model: Model, userId: number): Promise<SolveTa
     if ((error as { statusCode?: number }).statusCode) throw error
     console.error('[solver-pool]', error)
     throw createError({ statusCode: 500, message: 'The solver failed unexpectedly on this system. The text was not changed; please report it with the file.' })
+  }
+}
+
+/**
+ * Fit a data set in the pool for an account, admitted like a solve (it
+ * counts against the same per-account limit); the time limit is
+ * SOLVE_LIMITS.fitTimeBudgetMs, inside which the fit stops on its own.
+ */
+export async function fitInPool(task: Omit<FitTask, 'timeBudgetMs'>, userId: number): Promise<FitOutcome> {
+  const full: FitTask = { ...task, timeBudgetMs: SOLVE_LIMITS.fitTimeBudgetMs }
+  try {
+    return await getQueue().run(userId, async () => {
+      const signal = AbortSignal.timeout(SOLVE_LIMITS.fitTimeBudgetMs + SOLVE_LIMITS.graceMs)
+      return await getPool().run(full, { signal, name: 'runFitTask' }) as FitOutcome
+    })
+  } catch (error) {
+    if (error instanceof SolveQueueRefusal) {
+      if (error.reason === 'per-user') throw createError({ statusCode: 429, message: error.message, data: { solvesPerUser: getQueue().perUser } })
+      throw createError({ statusCode: 503, message: error.message })
+    }
+    const name = (error as { name?: string } | null)?.name
+    if (name === 'AbortError' || name === 'TimeoutError') {
+      throw createError({ statusCode: 422, message: `The fit took longer than ${SOLVE_LIMITS.fitTimeBudgetMs / 1000} s and was stopped. Use fewer data points or fit fewer constants.` })
+    }
+    console.error('[solver-pool] fit', error)
+    throw createError({ statusCode: 500, message: 'The fit failed unexpectedly. Nothing was changed; please report it with the file and data set.' })
   }
 }
 

@@ -31,6 +31,26 @@ function unsupported(message: string) {
 }
 
 export async function readPoiseUpload(event: H3Event): Promise<PoiseUpload> {
+  const upload = await readTextUpload(event, {
+    extensions: UPLOAD_EXTENSIONS, chooseMessage: 'Choose a .poise file to upload (form field "file")', defaultName: 'upload.poise',
+    wrongKind: (filename) => `"${filename}" is not a Poise file: choose a file ending in ${UPLOAD_EXTENSIONS.join(' or ')}`,
+    tooLarge,
+  })
+  if (upload.source.length > SOURCE_MAX_LENGTH) throw tooLarge(`"${upload.filename}"`)
+  return upload
+}
+
+/** What an upload route accepts: file name endings, and its words for a missing, wrong or oversized file. */
+export interface TextUploadKind {
+  extensions: readonly string[]
+  chooseMessage: string
+  defaultName: string
+  wrongKind: (filename: string) => string
+  tooLarge: (what: string) => Error
+}
+
+/** One text file from a multipart form (field "file") with the form's other fields; each refusal says what to change. */
+export async function readTextUpload(event: H3Event, kind: TextUploadKind): Promise<PoiseUpload> {
   const type = getRequestHeader(event, 'content-type') ?? ''
   if (!type.toLowerCase().startsWith('multipart/form-data')) {
     throw unsupported('Send the file as multipart/form-data, in a field named "file"')
@@ -39,19 +59,16 @@ export async function readPoiseUpload(event: H3Event): Promise<PoiseUpload> {
     throw createError({ statusCode: 400, message: 'The upload could not be read as a form; choose the file again and resend it' })
   })
   const file = parts?.find((p) => p.name === 'file' && p.filename !== undefined)
-  if (!file) throw createError({ statusCode: 400, message: 'Choose a .poise file to upload (form field "file")', data: { issues: [{ path: 'file', message: 'Choose a file' }] } })
-  const filename = file.filename || 'upload.poise'
+  if (!file) throw createError({ statusCode: 400, message: kind.chooseMessage, data: { issues: [{ path: 'file', message: 'Choose a file' }] } })
+  const filename = file.filename || kind.defaultName
   const named = UploadFilenameSchema.safeParse(filename)
   if (!named.success) {
     const message = named.error.issues[0]!.message
     throw createError({ statusCode: 400, message, data: { issues: [{ path: 'file', message }] } })
   }
-  if (!UPLOAD_EXTENSIONS.some((ext) => filename.toLowerCase().endsWith(ext))) {
-    throw unsupported(`"${filename}" is not a Poise file: choose a file ending in ${UPLOAD_EXTENSIONS.join(' or ')}`)
-  }
-  if (file.data.length > UPLOAD_MAX_BYTES) throw tooLarge(`"${filename}"`)
+  if (!kind.extensions.some((ext) => filename.toLowerCase().endsWith(ext))) throw unsupported(kind.wrongKind(filename))
+  if (file.data.length > UPLOAD_MAX_BYTES) throw kind.tooLarge(`"${filename}"`)
   const source = decodeUtf8Text(file.data, filename)
-  if (source.length > SOURCE_MAX_LENGTH) throw tooLarge(`"${filename}"`)
 
   const fields: Record<string, string> = {}
   for (const part of parts ?? []) {
@@ -63,7 +80,7 @@ export async function readPoiseUpload(event: H3Event): Promise<PoiseUpload> {
 /** The file's text; 415 when it is binary or not valid UTF-8. */
 function decodeUtf8Text(data: Buffer, filename: string): string {
   if (data.includes(0)) {
-    throw unsupported(`"${filename}" looks like a binary file, not text: a .poise file is plain text. Upload the text file itself`)
+    throw unsupported(`"${filename}" looks like a binary file, not text: upload the text file itself (a .poise or .csv file is plain text)`)
   }
   let text: string
   try {

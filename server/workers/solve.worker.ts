@@ -19,6 +19,8 @@ import type { Model } from '../../shared/poise/model'
 import { solve, solveMap, sweep, titration, SOLVER_VERSION, type SolveOptions } from '../solver/index'
 import { mapAnswerJson } from '../../shared/results/map-columns'
 import { failedTitrationPoints, type AnswerKind, type Result, type SweepResult } from '../../shared/types/result'
+import { fitConstants, type FitOutcome } from '../solver/fit'
+import type { DataSet } from '../../shared/fit/dataset'
 
 export interface SolveTask {
   model: Model
@@ -204,3 +206,26 @@ export default function runSolveTask(task: SolveTask): SolveTaskAnswer {
   return Piscina.move(movable) as unknown as SolveTaskAnswer
 }
 
+
+/** A fit (server/solver/fit.ts) in the pool: the text, the library texts its compile reaches, the data set. */
+export interface FitTask {
+  source: string
+  /** Every library lookup the text makes, by `name@revision` (revision `latest` when unpinned), as the main thread resolved it. */
+  libraries: Record<string, { source: string; revision: number } | null>
+  data: DataSet
+  weights?: Record<string, number>
+  timeBudgetMs: number
+}
+
+export function libraryKey(name: string, revision: number | null): string {
+  return `${name}@${revision ?? 'latest'}`
+}
+
+/** Runs a fit; the answer is the FitOutcome. Named export, called with `{ name: 'runFitTask' }`. */
+export function runFitTask(task: FitTask): FitOutcome {
+  return fitConstants(task.source, task.data, {
+    weights: task.weights,
+    deadline: Date.now() + task.timeBudgetMs,
+    compileOptions: { resolveLibrary: (name, revision) => task.libraries[libraryKey(name, revision)] ?? null },
+  })
+}

@@ -1,11 +1,9 @@
 /**
- * Where a reaction's constant is written in a Poise text, and writing a new
- * one there: the fit reads each fitted constant's number from the text and
- * moves it (fit.ts in server/solver), and "use these values" writes the
- * fitted value, its ± and a citation of the data set into the next revision.
+ * Where a reaction's constant is written in a Poise text (the fit reports
+ * each reaction as written), and "use these values": the fitted value, its ±
+ * and a citation of the data set written into the next revision.
  */
 import { lexForParser } from '../poise/lexer'
-import { constantFromLogK } from '../poise/reactions'
 import type { ConstantKind } from '../poise/model'
 
 export interface ConstantSpan {
@@ -38,12 +36,49 @@ export function constantSpan(source: string, line: number): ConstantSpan | null 
   }
 }
 
-/** The text with the constant on `line` set to log10 K = logK (written in the line's own kind). Null when the line holds no constant. */
-export function withConstant(source: string, line: number, logK: number): string | null {
-  const span = constantSpan(source, line)
-  if (!span) return null
-  const { value } = constantFromLogK(span.kind, logK)
-  return source.slice(0, span.from) + String(value) + source.slice(span.to)
+/** A fitted constant to write back: its line, the value in its kind and its standard error (null: not determined, no ± written). */
+export interface FittedValue { line: number; value: number; standardError: number | null }
+
+/** What a fitted constant's citation says: the data set by name and SHA-256, so the revision shows where the value came from. */
+export function fitCitation(dataset: { name: string; sha256: string }): string {
+  const name = dataset.name.replace(/["\\\n\r]/g, "'")
+  return `fitted to data set ${name} (sha256 ${dataset.sha256})`
+}
+
+/**
+ * The text with each fitted constant's number, its ± (the standard error)
+ * and its citation rewritten on its own line; `fit` and everything else on
+ * the line stay. A constant the data did not determine keeps its number
+ * and gets no ±. Null when a line holds no reaction constant.
+ */
+export function withFittedValues(source: string, fitted: FittedValue[], dataset: { name: string; sha256: string }): string | null {
+  const cite = `cite "${fitCitation(dataset)}"`
+  const edits: { from: number; to: number; text: string }[] = []
+  const { tokens } = lexForParser(source)
+  for (const f of fitted) {
+    const onLine = tokens.filter((t) => t.startLine === f.line && t.tokenType.name !== 'Newline')
+    const k = onLine.findIndex((t) => t.tokenType.name === 'ConstantKind')
+    const number = onLine[k + 1]
+    if (onLine[0]?.image !== 'reaction' || k < 1 || !number || number.tokenType.name !== 'Number') return null
+    if (f.standardError === null) continue
+    const shown = formatWithError(f.value, f.standardError)
+    let end = number.startOffset + number.image.length
+    const sign = onLine[k + 2]
+    const spread = onLine[k + 3]
+    if (sign?.tokenType.name === 'PlusMinus' && spread?.tokenType.name === 'Number') end = spread.startOffset + spread.image.length
+    edits.push({ from: number.startOffset, to: end, text: `${shown.value} ± ${shown.error}` })
+    const c = onLine.findIndex((t) => t.tokenType.name === 'CiteKeyword')
+    const what = c >= 0 ? onLine[c + 1] : undefined
+    if (c >= 0 && what && what.startLine === f.line) edits.push({ from: onLine[c]!.startOffset, to: what.startOffset + what.image.length, text: cite })
+    else {
+      const last = onLine[onLine.length - 1]!
+      edits.push({ from: last.startOffset + last.image.length, to: last.startOffset + last.image.length, text: `  ${cite}` })
+    }
+  }
+  edits.sort((a, b) => b.from - a.from)
+  let out = source
+  for (const e of edits) out = out.slice(0, e.from) + e.text + out.slice(e.to)
+  return out
 }
 
 /**

@@ -49,7 +49,7 @@ describe('GET /api/openapi.json', async () => {
       const names = [...route.path.matchAll(/\{([^}]+)\}/g)].map((m) => m[1])
       const inPath = (operation.parameters ?? []).filter((p: { in: string }) => p.in === 'path').map((p: { name: string }) => p.name)
       expect(inPath.sort(), `${route.method} ${route.path}`).toEqual(names.sort())
-      const readsBody = /validateBody\(|readSourceBody\(|readPoiseUpload\(|readBody\(/.test(route.text)
+      const readsBody = /validateBody\(|readSourceBody\(|readPoiseUpload\(|readDatasetUpload\(|readBody\(/.test(route.text)
       expect(Boolean(operation.requestBody), `${route.method} ${route.path} body`).toBe(readsBody)
       expect(Object.keys(operation.responses).some((s) => s.startsWith('2')), `${route.method} ${route.path} answer`).toBe(true)
       expect(Array.isArray(operation.security)).toBe(true)

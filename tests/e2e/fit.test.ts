@@ -1,0 +1,85 @@
+// Fitting in Chromium: an editor uploads a CSV of a titration, sees it
+// listed with a preview, fits the constant the text marks `fit`, reads the
+// value ± standard error with the curve and residuals, and uses the values:
+// the new revision's constants table shows the fitted value, its ± and the
+// data set cited by name and SHA-256. The data are made here from pKa 4.76
+// with a fixed alternating error of ±0.005.
+import { createHash } from 'node:crypto'
+import { mkdtempSync, writeFileSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import { describe, expect, it } from 'vitest'
+import { useBuiltServer } from '../setup/server'
+import { api, makeLab, signUp } from '../setup/accounts'
+import { openSignedIn, screenshot } from '../setup/browser'
+import { compile } from '../../shared/poise/index'
+import type { TitrationCurveResult } from '../../shared/types/result'
+import { titration } from '../../server/solver/index'
+
+await useBuiltServer()
+
+const acid = (pKa: string) => `system "Weak acid, fitted"
+activity ideal
+component H+        balance
+component CH3COO-   total 10 mmol/L
+component Na+       total 0 mol/L
+reaction H2O <=> H+ + OH-           pKw 14.00  cite "from memory"
+reaction CH3COOH <=> CH3COO- + H+   pKa ${pKa}   cite "a first guess"
+sample volume 50 mL
+titrant Na+ 0.1 mol/L
+titrant OH- 0.1 mol/L
+titrate from 0 to 8 mL step 0.5
+`
+const volumes = Array.from({ length: 20 }, (_, i) => 0.3 * (i + 1))
+const truth = compile(acid('4.76')).model!
+const curve = titration({ ...truth, titration: { ...truth.titration!, values: volumes, targetPH: null } }) as TitrationCurveResult
+const CSV = 'volume mL,pH\n' + volumes.map((v, i) => `${v.toFixed(1)},${(curve.points[i]!.pH + (i % 2 ? 0.005 : -0.005)).toFixed(4)}`).join('\n') + '\n'
+const SHA = createHash('sha256').update(CSV).digest('hex')
+
+describe('fitting in the workbench', () => {
+  it('uploads a data set, fits, applies, and shows the new revision with the citation and the ±', async () => {
+    const owner = await signUp('fitter')
+    const lab = await makeLab(owner)
+    expect((await api(`/api/labs/${lab}/systems`, { method: 'POST', cookie: owner.cookie, body: { title: 'Weak acid', slug: 'weak-acid', source: acid('4.40 fit') } })).status).toBe(201)
+    const dir = mkdtempSync(join(tmpdir(), 'fit-e2e-'))
+    const file = join(dir, 'acid-titration.csv')
+    writeFileSync(file, CSV)
+
+    const page = await openSignedIn(`/labs/${lab}/systems/weak-acid`, owner.cookie)
+    await page.setViewportSize({ width: 1280, height: 900 })
+    await page.locator('[data-test=datasets-empty]').waitFor()
+    await page.locator('[data-test=dataset-file]').setInputFiles(file)
+    await page.locator('[data-test=dataset-upload-button]').click()
+    await page.locator('[data-test="dataset-acid-titration"]').waitFor()
+    const preview = page.locator('[data-test=dataset-preview] table')
+    await preview.waitFor()
+    await expect(preview.locator('thead th').allTextContents()).resolves.toEqual(['volume mL', 'pH'])
+    await expect(preview.locator('tbody tr').count()).resolves.toBe(8)
+
+    await page.locator('[data-test=fit-button]').click()
+    const summary = page.locator('[data-test=fit-summary]')
+    await summary.waitFor()
+    await expect(summary.textContent()).resolves.toMatch(/Converged after \d+ iterations?:\s+1 constant fitted to 20 measured values; s = [\d.]+,\s+19 degrees of freedom\./)
+    const fitted = await page.locator('[data-test=fit-constants] tbody td').allTextContents()
+    expect(fitted[0]).toBe('CH3COOH <=> CH3COO- + H+')
+    expect(fitted[1]).toBe('pKa')
+    const [, value, error] = /^(4\.7\d+) ± (0\.0\d+)$/.exec(fitted[2]!.trim()) ?? []
+    expect(Math.abs(Number(value) - 4.76)).toBeLessThan(3 * Number(error))
+    await expect(page.locator('[data-test=fit-curve] circle').count()).resolves.toBe(20)
+    await expect(page.locator('[data-test=fit-residuals] circle').count()).resolves.toBe(20)
+    await screenshot(page, 'fit-result')
+
+    await page.locator('[data-test=apply-fit]').click()
+    await page.getByText('Saved the fitted values as revision 2.').waitFor()
+    await page.locator('[data-test=tab-report]').click()
+    const row = page.locator('[data-test=constant-row]').filter({ hasText: 'CH3COOH' })
+    await row.waitFor()
+    const text = (await row.textContent())!.replace(/\s+/g, ' ')
+    expect(text).toMatch(/pKa [\d.]+ ± [\d.]+\s*fit/)
+    const [, written, spread] = /pKa ([\d.]+) ± ([\d.]+)\s*fit/.exec(text) ?? []
+    expect(Number(written)).toBe(Number(value))
+    expect(Number(spread)).toBe(Number(error))
+    expect(text).toContain(`fitted to data set acid-titration (sha256 ${SHA})`)
+    await screenshot(page, 'fit-applied')
+  })
+})
