@@ -63,7 +63,7 @@ beforeAll(async () => {
 afterAll(async () => { await db?.end() })
 
 async function audit(action: string): Promise<Record<string, unknown>[]> {
-  const [rows] = await db.query('SELECT detail FROM audit_log WHERE action = ? AND JSON_VALUE(detail, \'$.slug\') = ? ORDER BY id', [action, system])
+  const [rows] = await db.query('SELECT detail FROM audit_log WHERE action = ? AND lab_id = (SELECT id FROM labs WHERE slug = ?) AND JSON_VALUE(detail, \'$.slug\') = ? ORDER BY id', [action, lab, system])
   return (rows as { detail: string }[]).map((r) => JSON.parse(r.detail))
 }
 
