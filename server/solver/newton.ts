@@ -7,10 +7,11 @@
  * activities as unknowns keep the free forms still while u moves, which is
  * what makes the joint Newton step safe at high ionic strength.
  */
-import { LuDecomposition, Matrix, SingularValueDecomposition } from 'ml-matrix'
+import { Matrix, SingularValueDecomposition } from 'ml-matrix'
 import { MODE_TOTAL } from './problem'
 import { assembleJacobian, computeResiduals, computeSpecies } from './equations'
 import type { Limits, NewtonOutcome, SolverState, Workspace } from './workspace'
+import type { SparseLu } from './sparse-lu'
 
 /** Every scaled residual must fall below this. */
 export const RESIDUAL_TOLERANCE = 1e-10
@@ -105,17 +106,20 @@ function newtonDirection(ws: Workspace, state: SolverState): boolean {
   const dim = ws.dim
   const J = ws.matrix(dim)
   assembleJacobian(ws, state.u, ws.scale, J)
-  let lu = new LuDecomposition(J)
-  if (nearlySingular(lu, dim)) {
+  const lu = ws.lu
+  const rows = (J as unknown as { data: Float64Array[] }).data
+  ws.factors = null
+  lu.factor(rows, dim)
+  if (nearlySingular(lu)) {
     if (ws.nActive > 0 && solidsDependent(ws)) return false
     // The factorisation overwrote J (in place): build it again to shift it.
     assembleJacobian(ws, state.u, ws.scale, J)
     let biggest = 0
-    for (let r = 0; r < dim; r++) for (let k = 0; k < dim; k++) biggest = Math.max(biggest, Math.abs(J.get(r, k)))
+    for (let r = 0; r < dim; r++) for (let k = 0; k < dim; k++) biggest = Math.max(biggest, Math.abs(rows[r][k]))
     const shift = Math.max(biggest, 1) * 1e-8
-    for (let r = 0; r < dim; r++) J.set(r, r, J.get(r, r) + shift)
-    lu = new LuDecomposition(J)
-    if (nearlySingular(lu, dim)) return false
+    for (let r = 0; r < dim; r++) rows[r][r] += shift
+    lu.factor(rows, dim)
+    if (nearlySingular(lu)) return false
   }
   ws.factors = null
   if (!solveWithFactors(ws, lu, ws.scale)) return false
@@ -133,28 +137,19 @@ function newtonDirection(ws: Workspace, state: SolverState): boolean {
 const PIVOT_TOLERANCE = 1e-13
 
 /** Whether the LU factors have a pivot that is zero relative to the largest one. */
-function nearlySingular(lu: LuDecomposition, dim: number): boolean {
-  // The factors live in the matrix factored (InPlaceMatrix: J itself), as `LU`.
-  const data = ((lu as unknown as { LU: { data: Float64Array[] } }).LU).data
-  let biggest = 0
-  for (let r = 0; r < dim; r++) biggest = Math.max(biggest, Math.abs(data[r][r]))
-  if (!(biggest > 0) || !Number.isFinite(biggest)) return true
-  const floor = biggest * PIVOT_TOLERANCE
-  for (let r = 0; r < dim; r++) if (!(Math.abs(data[r][r]) > floor)) return true
-  return false
+function nearlySingular(lu: SparseLu): boolean {
+  const { smallest, largest } = lu.pivotRange()
+  if (!(largest > 0) || !Number.isFinite(largest)) return true
+  return !(smallest > largest * PIVOT_TOLERANCE)
 }
 
 /** delta from factors of the Jacobian scaled by `scale`: J·delta = −F/scale. False when not finite. */
-function solveWithFactors(ws: Workspace, lu: LuDecomposition, scale: Float64Array): boolean {
+function solveWithFactors(ws: Workspace, lu: SparseLu, scale: Float64Array): boolean {
   const dim = ws.dim
-  const b = ws.column(dim)
-  for (let r = 0; r < dim; r++) b.set(r, 0, -ws.F[r] / scale[r])
-  const sol = lu.solve(b)
-  for (let r = 0; r < dim; r++) {
-    const v = sol.get(r, 0)
-    if (!Number.isFinite(v)) return false
-    ws.delta[r] = v
-  }
+  const b = ws.rhs
+  for (let r = 0; r < dim; r++) b[r] = -ws.F[r] / scale[r]
+  lu.solve(b, ws.delta)
+  for (let r = 0; r < dim; r++) if (!Number.isFinite(ws.delta[r])) return false
   return true
 }
 

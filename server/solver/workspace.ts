@@ -1,10 +1,10 @@
 /**
  * The solver's state (the unknowns of one solve) and its workspace: scratch
  * arrays sized once per problem and reused by every iteration and every
- * sweep point, so the Newton loop allocates little beyond what ml-matrix's
- * LU solve returns.
+ * sweep point, so the Newton loop allocates next to nothing.
  */
-import { Matrix, type LuDecomposition } from 'ml-matrix'
+import { Matrix } from 'ml-matrix'
+import { SparseLu } from './sparse-lu'
 import { MODE_BALANCE, MODE_TOTAL, type Problem } from './problem'
 
 export interface SolverState {
@@ -47,25 +47,12 @@ export interface NewtonOutcome {
 }
 
 /**
- * A Matrix that ml-matrix's LuDecomposition factors in place: the
- * decomposition starts by cloning its argument, and this clone is the matrix
- * itself. The Jacobian is rebuilt before every factorisation, so nothing is
- * lost, and the solve saves a copy (through a slow generator) and its
- * garbage every iteration.
+ * Jacobian matrices by size, shared by every solve in this thread: a solve
+ * runs synchronously to its end, and the LU factors (sparse-lu.ts, factored
+ * in place on the matrix's rows) are copied out as they are made, so no two
+ * users overlap.
  */
-export class InPlaceMatrix extends Matrix {
-  override clone(): this {
-    return this
-  }
-}
-
-/**
- * Jacobian matrices and right-hand sides by size, shared by every solve in
- * this thread: a solve runs synchronously to its end and a factorisation
- * never outlives the Newton step that made it, so no two users overlap.
- */
-const sharedMatrices = new Map<number, InPlaceMatrix>()
-const sharedColumns = new Map<number, Matrix>()
+const sharedMatrices = new Map<number, Matrix>()
 
 /** Scratch arrays sized once per problem, reused by every iteration and every sweep point. */
 export class Workspace {
@@ -102,8 +89,12 @@ export class Workspace {
   readonly delta: Float64Array
   readonly y0: Float64Array
   readonly n0: Float64Array
-  /** The last LU factors of the scaled Jacobian and the row scales they were made with. */
-  factors: LuDecomposition | null = null
+  /** LU of the scaled Jacobian (sparse-lu.ts), factored in place on the Jacobian's rows. */
+  readonly lu = new SparseLu()
+  /** `lu` while its factors are those of the last Newton step (for a chord step), with the row scales they were made with. */
+  factors: SparseLu | null = null
+  /** Right-hand side of a linear solve. */
+  readonly rhs: Float64Array
   readonly factorScale: Float64Array
   nUnknownComponents = 0
   nActive = 0
@@ -140,6 +131,7 @@ export class Workspace {
     this.Ftrial = new Float64Array(rows)
     this.scaleTrial = new Float64Array(rows)
     this.delta = new Float64Array(rows)
+    this.rhs = new Float64Array(rows)
     this.y0 = new Float64Array(p.nc)
     this.n0 = new Float64Array(p.nsol)
     this.factorScale = new Float64Array(rows)
@@ -178,16 +170,10 @@ export class Workspace {
     this.dim = r + a + (this.hasU ? 1 : 0)
   }
 
-  /** The Jacobian's matrix for this size; LuDecomposition overwrites it with its factors. */
-  matrix(dim: number): InPlaceMatrix {
+  /** The Jacobian's matrix for this size; its factorisation overwrites it. */
+  matrix(dim: number): Matrix {
     let m = sharedMatrices.get(dim)
-    if (!m) { m = new InPlaceMatrix(dim, dim); sharedMatrices.set(dim, m) }
-    return m
-  }
-
-  column(dim: number): Matrix {
-    let m = sharedColumns.get(dim)
-    if (!m) { m = new Matrix(dim, 1); sharedColumns.set(dim, m) }
+    if (!m) { m = new Matrix(dim, dim); sharedMatrices.set(dim, m) }
     return m
   }
 

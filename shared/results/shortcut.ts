@@ -27,12 +27,58 @@ type ShortcutModel = Pick<Model, 'components' | 'species' | 'solids'>
 
 const FIXED_MODES = new Set(['free', 'pressure', 'excess'])
 
+/**
+ * The model's stoichiometry as the shortcut reads it, once per model (a sweep
+ * asks at every point): each species' nonzero coefficients in component
+ * order, and by component the species holding it once — all of them, and
+ * those made of it and H+ alone. With these a point costs about the number
+ * of nonzeros, not components² × species.
+ */
+interface Layout {
+  jH: number
+  /** For species i: its components k with ν ≠ 0, in order, and those ν. */
+  nzComponent: number[][]
+  nzNu: number[][]
+  /** For component j: the species with ν_j = 1. */
+  once: number[][]
+  /** For component j: the species with ν_j = 1 made of j and H+ only. */
+  protonated: number[][]
+}
+
+const layouts = new WeakMap<ShortcutModel['species'], Layout>()
+
+function layoutOf(model: ShortcutModel): Layout {
+  let layout = layouts.get(model.species)
+  if (layout) return layout
+  const jH = model.components.findIndex((c) => c.name === 'H+')
+  const n = model.components.length
+  const once: number[][] = Array.from({ length: n }, () => [])
+  const protonated: number[][] = Array.from({ length: n }, () => [])
+  const nzComponent: number[][] = []
+  const nzNu: number[][] = []
+  model.species.forEach((s, i) => {
+    const ks: number[] = []
+    const vs: number[] = []
+    s.nu.forEach((v, k) => { if (v !== 0) { ks.push(k); vs.push(v) } })
+    nzComponent.push(ks)
+    nzNu.push(vs)
+    for (let j = 0; j < n; j++) {
+      if (s.nu[j] !== 1) continue
+      once[j].push(i)
+      if (s.nu.every((v, k) => k === j || k === jH || v === 0)) protonated[j].push(i)
+    }
+  })
+  layout = { jH, nzComponent, nzNu, once, protonated }
+  layouts.set(model.species, layout)
+  return layout
+}
+
 export function shortcutOf(model: ShortcutModel, result: Result): Shortcut | null {
   if (!result.converged || !Number.isFinite(result.pH)) return null
-  const jH = model.components.findIndex((c) => c.name === 'H+')
+  const layout = layoutOf(model)
+  const jH = layout.jH
   const h = Math.pow(10, -result.pH)
   const componentResult = new Map(result.components.map((c) => [c.name, c]))
-  const n = model.components.length
   const protonation = (j: number) => protonationFraction(model, result.pH, j)
   /** What the hand method takes for the free amount of each component used as a ligand. */
   const ligand = model.components.map((c, k) => {
@@ -43,13 +89,16 @@ export function shortcutOf(model: ShortcutModel, result: Result): Shortcut | nul
   })
   const alpha = (j: number): number => {
     let sum = 0
-    for (const s of model.species) {
-      if (s.nu[j] !== 1) continue
+    for (const i of layout.once[j]!) {
+      const s = model.species[i]!
       let term = Math.pow(10, s.logK) * (jH >= 0 ? Math.pow(h, s.nu[jH] ?? 0) : 1)
-      for (let k = 0; k < n; k++) {
-        if (k === j || k === jH || s.nu[k] === 0) continue
-        if ((s.nu[k] ?? 0) < 0) { term = Number.NaN; break }
-        term *= Math.pow(ligand[k]!, s.nu[k]!)
+      const ks = layout.nzComponent[i]!
+      const vs = layout.nzNu[i]!
+      for (let e = 0; e < ks.length; e++) {
+        const k = ks[e]!
+        if (k === j || k === jH) continue
+        if (vs[e]! < 0) { term = Number.NaN; break }
+        term *= Math.pow(ligand[k]!, vs[e]!)
       }
       if (Number.isFinite(term)) sum += term
     }
@@ -135,11 +184,11 @@ export function shortcutReasons(model: ShortcutModel, result: Result, entry: Sho
 
 /** p(X) at a pH: 1 / Σ β h^νH over the species of one X and H+ only (the free form counts 1). */
 export function protonationFraction(model: ShortcutModel, pH: number, j: number): number {
-  const jH = model.components.findIndex((c) => c.name === 'H+')
+  const { jH, protonated } = layoutOf(model)
   const h = Math.pow(10, -pH)
   let sum = 0
-  for (const s of model.species) {
-    if (s.nu[j] !== 1 || !s.nu.every((v, k) => k === j || k === jH || v === 0)) continue
+  for (const i of protonated[j] ?? []) {
+    const s = model.species[i]!
     sum += Math.pow(10, s.logK) * (jH >= 0 ? Math.pow(h, s.nu[jH] ?? 0) : 1)
   }
   return sum > 0 ? 1 / sum : Number.NaN
