@@ -12,13 +12,26 @@ import { buildProblem } from '../server/solver/problem'
 import { PlainNewtonStep } from './plainStep'
 import { benchSystemSource, twoHundredLineSource } from './systems'
 import { spawnSync } from 'node:child_process'
-import { availableParallelism, loadavg } from 'node:os'
+import { availableParallelism, loadavg, tmpdir } from 'node:os'
 import { fileURLToPath } from 'node:url'
 import { compileCached } from '../server/utils/compile-cache'
 import { buildCli } from '../scripts/build-cli.mjs'
 import { scalingExponent, scalingSystemSource } from './scaling'
 import { hasBuiltServer, startBuiltServer } from './builtServer'
 import { httpSweepMs, workbenchMs } from './served'
+
+import { join } from 'node:path'
+
+/** `entry` bundled into one ES module file for a plain `node` (as the server bundles its solver worker); its path. */
+async function bundleForNode(entry: string): Promise<string> {
+  const { build } = await import('esbuild')
+  const outfile = join(tmpdir(), `equipoise-bench-${process.pid}-${entry.replace(/\W+/g, '-')}.mjs`)
+  await build({
+    entryPoints: [join(root, entry)], outfile, bundle: true, platform: 'node', format: 'esm', target: 'node20', logLevel: 'warning', legalComments: 'none',
+    banner: { js: "import { createRequire as __equipoiseRequire } from 'node:module'; const require = __equipoiseRequire(import.meta.url);" },
+  })
+  return outfile
+}
 
 const median = (xs: number[]) => {
   const s = [...xs].sort((a, b) => a - b)
@@ -127,10 +140,17 @@ async function main(json: boolean): Promise<void> {
   const newtonPerPointUs = (sweepIterations / 1000) * ourStepUs
   const sweepPointToNewton = sweepPointUs / newtonPerPointUs
 
-  // Peak RSS of a 20,000-point sweep, solved and encoded as the worker does, in a process of its own.
-  const rss = spawnSync(process.execPath, ['--import', 'tsx', 'bench/sweepRss.ts'], { cwd: root, encoding: 'utf8' })
-  if (rss.status !== 0) throw new Error(`the 20,000-point sweep failed: ${rss.stderr}`)
-  const sweep20kPeakRssMB = JSON.parse(rss.stdout.trim().split('\n').pop()!).peakRssMB as number
+  // Peak RSS of a 20,000-point sweep, solved and encoded as the worker does, in a process of its own
+  // running one bundled file as the server's worker does (not tsx, which alone takes ~90 MB).
+  const rssBundle = await bundleForNode('bench/sweepRss.ts')
+  const rssOf = (form: 'columns' | 'points') => {
+    const rss = spawnSync(process.execPath, [rssBundle, form], { cwd: root, encoding: 'utf8' })
+    if (rss.status !== 0) throw new Error(`the 20,000-point sweep failed: ${rss.stderr}`)
+    return JSON.parse(rss.stdout.trim().split('\n').pop()!) as { peakRssMB: number, startRssMB: number, answerMB: number }
+  }
+  const rssColumns = rssOf('columns')
+  const rssPoints = rssOf('points')
+  const sweep20kPeakRssMB = rssColumns.peakRssMB
 
   // Cost of a sweep point against the number of components, 16 → 256 (4 and 8 shown, not fitted).
   const scaling = [4, 8, 16, 32, 64, 128, 256].map((components) => {
@@ -146,19 +166,20 @@ async function main(json: boolean): Promise<void> {
   const compileCachedMs = timeMs(() => { compileCached(longSource) }, 40)
 
   // Through the built server and the browser, when one is built.
-  let httpSweep1000Ms: number | null = null
+  let http: Awaited<ReturnType<typeof httpSweepMs>> | null = null
+  let httpPoints: Awaited<ReturnType<typeof httpSweepMs>> | null = null
   let httpToInProcess: number | null = null
-  let sweepWireBytes: number | null = null
-  let sweepJsonBytes: number | null = null
+  let httpPointsToInProcess: number | null = null
   let workbench: Awaited<ReturnType<typeof workbenchMs>> | null = null
   if (hasBuiltServer() && !process.argv.includes('--no-server')) {
     const server = await startBuiltServer('equipoise_test_bench', json)
     try {
-      const http = await httpSweepMs(server)
-      httpSweep1000Ms = http.ms
-      httpToInProcess = http.ms / sweep1000Ms
-      sweepWireBytes = http.wireBytes
-      sweepJsonBytes = http.jsonBytes
+      // The in-process sweep timed again right beside the HTTP one, so both see the same load.
+      const inProcessMs = timeMs(() => { sweep(sweepModel) }, 7, 1)
+      http = await httpSweepMs(server, 'columns')
+      httpPoints = await httpSweepMs(server, 'points')
+      httpToInProcess = http.ms / inProcessMs
+      httpPointsToInProcess = httpPoints.ms / inProcessMs
       workbench = await workbenchMs(server)
     } finally {
       server.stop()
@@ -170,6 +191,7 @@ async function main(json: boolean): Promise<void> {
   const figures = {
     compileMs, solveColdUs, sweepPointUs, sweep1000Ms, ratioToPlain, cliCheckMs, nodeBareMs, cliRatio,
     sweepPointToNewton, httpToInProcess, sweep20kPeakRssMB, sweepScalingExponent, compileCachedMs, workbenchUsableMs, workbenchFirstResultMs,
+    httpPointsToInProcess, sweep20kPointsPeakRssMB: rssPoints.peakRssMB,
   }
   if (json) {
     console.log(JSON.stringify(figures))
@@ -193,6 +215,7 @@ async function main(json: boolean): Promise<void> {
   console.log(row('sweep point / its Newton iterations', `${sweepPointToNewton.toFixed(2)}×`, '≤ 2×', sweepPointToNewton <= 2))
   console.log(`  (${(sweepIterations / 1000).toFixed(2)} iterations per point, ${newtonPerPointUs.toFixed(1)} µs of Newton per point)`)
   console.log(row('peak RSS of a 20,000-point sweep', `${sweep20kPeakRssMB.toFixed(0)} MB`, '< 200 MB', sweep20kPeakRssMB < 200))
+  console.log(`  (by columns: ${rssColumns.answerMB.toFixed(0)} MB answer, the process ${rssColumns.startRssMB.toFixed(0)} MB before solving; as points (JSON): peak ${rssPoints.peakRssMB.toFixed(0)} MB, ${rssPoints.answerMB.toFixed(0)} MB answer)`)
   console.log(row('sweep point cost ~ components^k, 16 → 256', `k = ${sweepScalingExponent.toFixed(2)}`, '< 2', sweepScalingExponent < 2))
   for (const r of scaling) console.log(`  ${String(r.components).padStart(4)} components, ${String(r.species).padStart(4)} species: ${r.pointUs.toFixed(0).padStart(8)} µs per point${r.failed ? ` (${r.failed} failed)` : ''}`)
   console.log(row('compile the unchanged 200-line file, warm', `${compileCachedMs.toFixed(3)} ms`, '< 0.5 ms', compileCachedMs < 0.5))
@@ -200,7 +223,7 @@ async function main(json: boolean): Promise<void> {
     console.log('  (no built server in .output/: run `npm run build` for the HTTP and browser figures)')
   } else {
     console.log(row('1,000-point sweep, HTTP / in process', `${httpToInProcess.toFixed(2)}×`, '≤ 1.5×', httpToInProcess <= 1.5))
-    console.log(`  (HTTP ${httpSweep1000Ms!.toFixed(0)} ms; answer ${(sweepJsonBytes! / 1e6).toFixed(2)} MB of JSON, ${(sweepWireBytes! / 1e6).toFixed(2)} MB on the wire)`)
+    console.log(`  (by columns: HTTP ${http!.ms.toFixed(0)} ms, ${(http!.wireBytes / 1e6).toFixed(2)} MB on the wire; as points (JSON): ${httpPoints!.ms.toFixed(0)} ms, ${httpPointsToInProcess!.toFixed(2)}×, ${(httpPoints!.decodedBytes / 1e6).toFixed(2)} MB of JSON, ${(httpPoints!.wireBytes / 1e6).toFixed(2)} MB on the wire)`)
     console.log(`workbench usable, cold browser (no target)       ${workbench.usableMs.toFixed(0).padStart(8)} ms`)
     console.log(`workbench first result, cold browser (no target) ${workbench.firstResultMs.toFixed(0).padStart(8)} ms`)
     console.log(`  (${(workbench.transferredBytes / 1e6).toFixed(2)} MB transferred, ${(workbench.decodedBytes / 1e6).toFixed(2)} MB decoded; the sign-in page ${(workbench.loginTransferredBytes / 1e6).toFixed(2)} MB transferred, ${(workbench.loginDecodedBytes / 1e6).toFixed(2)} MB decoded)`)

@@ -8,6 +8,7 @@ import { chromium } from 'playwright-core'
 import { DEMO_LAB } from '../server/database/seed'
 import { benchSystemSource } from './systems'
 import type { BuiltServer } from './builtServer'
+import { BINARY_ANSWER_TYPE, decodeBinaryAnswer } from '../shared/results/binary-answer'
 
 const median = (xs: number[]) => {
   const s = [...xs].sort((a, b) => a - b)
@@ -15,26 +16,43 @@ const median = (xs: number[]) => {
   return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2
 }
 
-/** Median ms of a 1,000-point sweep through HTTP, and the bytes of its answer on the wire. */
-export async function httpSweepMs(server: BuiltServer, reps = 7): Promise<{ ms: number, wireBytes: number, jsonBytes: number }> {
+/**
+ * Median ms of a 1,000-point sweep through HTTP, and the bytes of its answer
+ * on the wire: by columns (`columns`, what the workbench asks for, decoded
+ * into typed-array views) or as points (JSON, what the command line and
+ * stored runs get, parsed).
+ */
+export async function httpSweepMs(server: BuiltServer, form: 'columns' | 'points', reps = 7): Promise<{ ms: number, wireBytes: number, decodedBytes: number }> {
   const body = JSON.stringify({ source: benchSystemSource('sweep pH from 4 to 12 points 1000') })
+  const headers = {
+    'content-type': 'application/json', 'accept-encoding': 'br, gzip', cookie: server.cookie,
+    accept: form === 'columns' ? `${BINARY_ANSWER_TYPE}, application/json` : 'application/json',
+  }
   const once = async () => {
     const t0 = performance.now()
-    const answer = await fetch(`${server.base}/api/solve`, { method: 'POST', headers: { 'content-type': 'application/json', 'accept-encoding': 'br, gzip', cookie: server.cookie }, body })
-    const text = await answer.text()
-    const ms = performance.now() - t0
-    if (!answer.ok) throw new Error(`the sweep answered ${answer.status}: ${text.slice(0, 200)}`)
-    JSON.parse(text)
-    return { ms, jsonBytes: Buffer.byteLength(text), encoding: answer.headers.get('content-encoding') }
+    const answer = await fetch(`${server.base}/api/solve`, { method: 'POST', headers, body })
+    if (!answer.ok) throw new Error(`the sweep answered ${answer.status}: ${(await answer.text()).slice(0, 200)}`)
+    let decodedBytes: number
+    if (form === 'columns') {
+      if (answer.headers.get('content-type') !== BINARY_ANSWER_TYPE) throw new Error(`the sweep answered ${answer.headers.get('content-type')}, not columns`)
+      const bytes = await answer.arrayBuffer()
+      decodeBinaryAnswer(bytes)
+      decodedBytes = bytes.byteLength
+    } else {
+      const text = await answer.text()
+      JSON.parse(text)
+      decodedBytes = Buffer.byteLength(text)
+    }
+    return { ms: performance.now() - t0, decodedBytes }
   }
   await once()
   const times: number[] = []
-  let jsonBytes = 0
-  for (let k = 0; k < reps; k++) { const r = await once(); times.push(r.ms); jsonBytes = r.jsonBytes }
+  let decodedBytes = 0
+  for (let k = 0; k < reps; k++) { const r = await once(); times.push(r.ms); decodedBytes = r.decodedBytes }
   // Bytes on the wire: the same request without letting fetch decode it.
   const { request } = await import('node:http')
   const wireBytes = await new Promise<number>((resolveBytes, reject) => {
-    const req = request(`${server.base}/api/solve`, { method: 'POST', headers: { 'content-type': 'application/json', 'accept-encoding': 'br, gzip', cookie: server.cookie } }, (res) => {
+    const req = request(`${server.base}/api/solve`, { method: 'POST', headers }, (res) => {
       let n = 0
       res.on('data', (chunk: Buffer) => { n += chunk.length })
       res.on('end', () => resolveBytes(n))
@@ -42,7 +60,7 @@ export async function httpSweepMs(server: BuiltServer, reps = 7): Promise<{ ms: 
     req.on('error', reject)
     req.end(body)
   })
-  return { ms: median(times), wireBytes, jsonBytes }
+  return { ms: median(times), wireBytes, decodedBytes }
 }
 
 export interface WorkbenchFigures {

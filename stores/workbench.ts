@@ -27,12 +27,17 @@ import { RUN_STORE_ROLE } from '../shared/utils/run-rules'
 import type { ResolveLibrary } from '../shared/utils/library-preload'
 import { labLibraryPreloader, resolverFrom } from './libraryTexts'
 import { browserStorage } from '../utils/storage'
+import { BINARY_ANSWER_TYPE, decodeBinaryAnswer } from '../shared/results/binary-answer'
+import { sweepView, type SweepColumns } from '../shared/results/sweep-columns'
 
 interface ShownBase {
   kind: AnswerKind
   /** The text that was solved, so the tables and diagrams use its model. */
   source: string
+  /** For a sweep answered by columns, a view over them (`sweepView`: a point's Result is made when read). */
   result: Answer
+  /** A sweep as the server sent it by columns (previews); absent for JSON answers. */
+  columns?: SweepColumns
   /** The model the server solved; null for a run stored before models were (then recompiled from `source`). */
   model: Model | null
   solverVersion: string
@@ -66,6 +71,28 @@ export interface SaveConflict {
 }
 
 export type RunPlan = 'stored' | 'preview'
+
+/** What a preview asks for: a sweep by columns (shared/results/binary-answer.ts), anything else as JSON. */
+export const PREVIEW_ACCEPT = `${BINARY_ANSWER_TYPE}, application/json`
+
+/**
+ * A solve answer as it arrived: JSON (parsed by `$fetch`), or the binary
+ * form (`$fetch` gives a Blob for a type it does not know), whose sweep by
+ * columns is shown through `sweepView` and kept as `columns`.
+ */
+export async function previewAnswerFrom(reply: PreviewAnswer | Blob | ArrayBuffer): Promise<PreviewAnswer & { columns?: SweepColumns }> {
+  if (!(reply instanceof Blob) && !(reply instanceof ArrayBuffer)) return reply
+  // Thrown with `data.message`, so problemFrom shows these words.
+  const unreadable = (why: string) => Object.assign(new Error(why), { data: { message: `The server answered in a form this page does not read (${why}). Reload the page.` } })
+  let answer: Omit<PreviewAnswer, 'result'> & { result: SweepColumns }
+  try {
+    answer = decodeBinaryAnswer(reply instanceof Blob ? await reply.arrayBuffer() : reply)
+  } catch (error) {
+    throw unreadable((error as Error).message)
+  }
+  if (answer.result?.format !== 'sweep-columns') throw unreadable('not a sweep by columns')
+  return { ...answer, result: sweepView(answer.result), columns: answer.result }
+}
 
 /** A stored run of the saved revision when the member may store runs and the text is unchanged; otherwise a preview. */
 export function runPlan(canStore: boolean, canEdit: boolean, dirty: boolean): RunPlan {
@@ -113,10 +140,10 @@ export function startingComponent(model: StoichiometryModel, systemKey: string):
   return (remembered === undefined ? undefined : parseDiagramPrefs(remembered).component) ?? richestComponent(model)
 }
 
-type Fetcher = <T>(url: string, options?: { method?: string; body?: unknown }) => Promise<T>
+type Fetcher = <T>(url: string, options?: { method?: string; body?: unknown; headers?: Record<string, string> }) => Promise<T>
 
 /** Nuxt's global `$fetch` (stubbed in component tests). */
-function request<T>(url: string, options?: { method?: string; body?: unknown }): Promise<T> {
+function request<T>(url: string, options?: { method?: string; body?: unknown; headers?: Record<string, string> }): Promise<T> {
   const fetcher = (globalThis as unknown as { $fetch: Fetcher }).$fetch
   return fetcher<T>(url, options as never)
 }
@@ -285,7 +312,8 @@ export const useWorkbenchStore = defineStore('workbench', () => {
         const stored = await request<RunView>(`${base.value}/runs`, { method: 'POST', body: { revision: saved.number } })
         if (ticket === runTicket) showStored(stored, text)
       } else {
-        const preview = await request<PreviewAnswer>(`/api/labs/${answer.value!.lab.slug}/solve`, { method: 'POST', body: { source: text } })
+        const reply = await request<PreviewAnswer | Blob>(`/api/labs/${answer.value!.lab.slug}/solve`, { method: 'POST', body: { source: text }, headers: { accept: PREVIEW_ACCEPT } })
+        const preview = await previewAnswerFrom(reply)
         if (ticket === runTicket) {
           shown.value = {
             origin: 'preview',
@@ -294,6 +322,7 @@ export const useWorkbenchStore = defineStore('workbench', () => {
             kind: preview.kind,
             source: text,
             result: preview.result,
+            ...(preview.columns ? { columns: preview.columns } : {}),
             model: preview.model ?? null,
             solverVersion: preview.solverVersion,
             compilerVersion: preview.compilerVersion ?? null,

@@ -8,12 +8,15 @@ export default defineEventHandler(async (event) => {
   const user = await requireUser(event)
   const source = await readSourceBody(event)
   const { model, diagnostics } = compileForSolve(source)
-  const output = await solveInPool(model, user.id)
-  return sendJsonBytesWithRaws(event, {
+  const output = await solveInPool(model, user.id, model.sweep && !model.titration && acceptsBinaryAnswer(event) ? 'columns' : 'points')
+  const head = {
     kind: output.kind,
     solverVersion: output.solverVersion,
     compilerVersion: COMPILER_VERSION,
     elapsedMs: Math.round(output.elapsedMs * 10) / 10,
     diagnostics,
-  }, { result: output.resultBytes, model: JSON.stringify(model) })
+  }
+  const raw = { result: output.resultBytes, model: JSON.stringify(model) }
+  if (output.form === 'columns') return sendBinaryAnswer(event, head, raw, output.resultArrays ?? [])
+  return sendJsonBytesWithRaws(event, head, raw)
 })

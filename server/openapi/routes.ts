@@ -62,7 +62,7 @@ export interface RouteDoc {
   errors?: Partial<Record<number, string>>
 }
 
-const SOURCE_ANSWER = '`{ diagnostics }` for text with errors, or the diagnostics, the Result (a sweep: `points`), the `model` that was solved and `compilerVersion` / `solverVersion`, stored nowhere'
+const SOURCE_ANSWER = '`{ diagnostics }` for text with errors, or the diagnostics, the Result (a sweep: `points`), the `model` that was solved and `compilerVersion` / `solverVersion`, stored nowhere. A sweep comes by columns (`application/vnd.equipoise.binary-answer`: a JSON head, `result` a SweepColumns, with its numbers as raw arrays after it) when `Accept` names that type'
 const TOO_MANY_SOLVES = 'This account already has NUXT_SOLVES_PER_USER solves running or waiting; the message names the limit'
 const STALE = 'The base revision is not the latest: `data.latestRevision`, `data.latest` (its text) and `data.yourSource`'
 

@@ -3,7 +3,9 @@
  * (a solver result, a compiled model) without parsing and re-stringifying
  * them on the event loop.
  */
+import { Readable } from 'node:stream'
 import type { H3Event } from 'h3'
+import { BINARY_ANSWER_TYPE, binaryAnswerChunks, type BinaryArray } from '../../shared/results/binary-answer'
 
 /** `JSON.stringify({ ...head, [key]: JSON.parse(raw[key]) for each key })`, without the parse. */
 export function jsonWithRaws(head: Record<string, unknown>, raw: Record<string, string>): string {
@@ -54,4 +56,22 @@ export function sendJsonWithRaw(event: H3Event, head: Record<string, unknown>, k
 export function sendJsonWithRaw(event: H3Event, head: Record<string, unknown>, key: string, rawJson: string | Uint8Array): string | Buffer {
   setResponseHeader(event, 'content-type', 'application/json; charset=utf-8')
   return typeof rawJson === 'string' ? jsonWithRaw(head, key, rawJson) : jsonBytesWithRaw(head, key, rawJson)
+}
+
+/** Whether the request said it reads answers in the binary form (shared/results/binary-answer.ts). */
+export function acceptsBinaryAnswer(event: H3Event): boolean {
+  return String(getRequestHeader(event, 'accept') ?? '').split(',').some(t => t.split(';')[0].trim() === BINARY_ANSWER_TYPE)
+}
+
+/**
+ * Answers in the binary form: the head is `head` plus raw JSON values (as
+ * `sendJsonBytesWithRaws`), the arrays follow it, written as they are (no
+ * copy on the event loop, no compression: see binary-answer.ts).
+ */
+export function sendBinaryAnswer(event: H3Event, head: Record<string, unknown>, raw: Record<string, string | Uint8Array>, arrays: BinaryArray[]): Readable {
+  const chunks = binaryAnswerChunks(jsonBytesWithRaws(head, raw), arrays)
+  setResponseHeader(event, 'content-type', BINARY_ANSWER_TYPE)
+  setResponseHeader(event, 'content-length', chunks.reduce((a, c) => a + c.byteLength, 0))
+  appendResponseHeader(event, 'vary', 'accept')
+  return Readable.from(chunks, { objectMode: false })
 }

@@ -14,7 +14,7 @@ import { dirname, join } from 'node:path'
 import { pathToFileURL } from 'node:url'
 import Piscina from 'piscina'
 import type { Model } from '../../shared/poise/model'
-import type { FitTask, SolveTask, SolveTaskAnswer, SolveTaskOutput } from '../workers/solve.worker'
+import type { AnswerForm, FitTask, SolveTask, SolveTaskAnswer, SolveTaskOutput } from '../workers/solve.worker'
 import type { FitOutcome } from '../../shared/types/fit'
 import { SOLVE_LIMITS } from './solve-limits'
 import { SolveQueue, SolveQueueRefusal } from './solve-queue'
@@ -62,9 +62,12 @@ function getQueue(): SolveQueue {
   return queue
 }
 
-/** Solve a compiled model in the pool for an account; throws an h3 error with a readable message on a limit, timeout or overload. */
-export async function solveInPool(model: Model, userId: number): Promise<SolveTaskOutput> {
-  const task: SolveTask = { model, timeBudgetMs: SOLVE_LIMITS.timeBudgetMs }
+/**
+ * Solve a compiled model in the pool for an account; throws an h3 error with a readable message on a limit, timeout or overload.
+ * `form` `columns` answers a sweep by columns (see AnswerForm); other answers are JSON either way.
+ */
+export async function solveInPool(model: Model, userId: number, form: AnswerForm = 'points'): Promise<SolveTaskOutput> {
+  const task: SolveTask = { model, timeBudgetMs: SOLVE_LIMITS.timeBudgetMs, form }
   try {
     return await getQueue().run(userId, async () => {
       // Handed to a free thread now: the limit counts solving time only.
@@ -114,11 +117,14 @@ export async function fitInPool(task: Omit<FitTask, 'timeBudgetMs'>, userId: num
   }
 }
 
-/** The main thread's view of an answer: `resultJson` decodes the bytes on first use. */
+/** The main thread's view of an answer: `resultJson` decodes the bytes on first use (the `points` form only). */
 function withResultText(answer: SolveTaskAnswer): SolveTaskOutput {
   let text: string | undefined
   return Object.defineProperty({ ...answer }, 'resultJson', {
     enumerable: false,
-    get: () => (text ??= Buffer.from(answer.resultBytes.buffer, answer.resultBytes.byteOffset, answer.resultBytes.byteLength).toString('utf8')),
+    get: () => {
+      if (answer.form !== 'points') throw new Error('resultJson of an answer by columns: ask the pool for the points form')
+      return (text ??= Buffer.from(answer.resultBytes.buffer, answer.resultBytes.byteOffset, answer.resultBytes.byteLength).toString('utf8'))
+    },
   }) as SolveTaskOutput
 }

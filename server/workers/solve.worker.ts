@@ -21,17 +21,35 @@ import { mapAnswerJson } from '../../shared/results/map-columns'
 import { failedTitrationPoints, type AnswerKind, type Result, type SweepResult } from '../../shared/types/result'
 import { fitConstants, type FitOutcome } from '../solver/fit'
 import type { DataSet } from '../../shared/fit/dataset'
+import { ColumnsBuilder, toSweepColumns, type PointParts, type SweepColumns } from '../../shared/results/sweep-columns'
+import { binaryParts, PiecedArray, type BinaryArray } from '../../shared/results/binary-answer'
+
+/**
+ * How a sweep's answer is written: `points` is the SweepResult JSON (every
+ * point with its species objects: stored runs, the command line, older
+ * clients); `columns` is the SweepColumns head as JSON with its typed arrays
+ * beside it (shared/results/binary-answer.ts), for clients that read it.
+ * Other answers are always JSON.
+ */
+export type AnswerForm = 'points' | 'columns'
 
 export interface SolveTask {
   model: Model
   timeBudgetMs: number
+  form?: AnswerForm
 }
 
 /** What the worker posts back. */
 export interface SolveTaskAnswer {
   kind: AnswerKind
-  /** The Result (single), SweepResult (sweep), TitrationResult (titration) or MapAnswer (map) as UTF-8 JSON. */
+  /**
+   * The Result (single), SweepResult (sweep), TitrationResult (titration) or MapAnswer (map) as UTF-8 JSON;
+   * for the `columns` form, the SweepColumns head (its arrays as markers) as UTF-8 JSON.
+   */
   resultBytes: Uint8Array
+  form: AnswerForm
+  /** The `columns` form's typed arrays, in the order of the head's markers. */
+  resultArrays?: BinaryArray[]
   /** Points that did not converge (0 or 1 for a single solve). */
   failedPoints: number
   solverVersion: string
@@ -152,6 +170,41 @@ export function solveSweepToBytes(model: Model, options: SolveOptions): { bytes:
   return { bytes: writer.done(), failedPoints }
 }
 
+/**
+ * Solves a sweep into its columns: each point is added to the columns as it
+ * is solved and only what the limit windows read is kept of it, so the
+ * points' objects die young. A sweep that does not run point by point is
+ * converted from its answer.
+ */
+export function solveSweepToColumns(model: Model, options: SolveOptions): { columns: SweepColumns | (Omit<SweepColumns, 'columns'> & PointParts<PiecedArray>), failedPoints: number } {
+  const sw = model.sweep!
+  const values = Array.isArray(sw.values) ? sw.values : []
+  const builder = new ColumnsBuilder(values.length)
+  const kept: Result[] = []
+  let streamed = true
+  const answer = sweep(model, {
+    ...options,
+    keepPoint: (point) => {
+      if (streamed && kept.length < values.length) builder.add(point)
+      else streamed = false
+      // What the limit windows read (nothing else when the model has no limits).
+      const stub = (model.limits?.length ? { converged: point.converged, components: point.components } : { converged: point.converged }) as Result
+      kept.push(stub)
+      return stub
+    },
+  })
+  const failedPoints = answer.points.filter(p => !p.converged).length
+  streamed &&= answer.points.length === values.length && answer.points.length === kept.length && answer.points.every((p, i) => p === kept[i])
+    && answer.variable === (sw.variable ?? 'pH') && answer.component === (sw.component ?? null)
+  if (!streamed) return { columns: toSweepColumns(answer), failedPoints }
+  const columns: Omit<SweepColumns, 'columns'> & PointParts<PiecedArray> = {
+    format: 'sweep-columns', variable: answer.variable, component: answer.component, values: answer.values,
+    ...builder.buildInPieces(pieces => new PiecedArray(pieces)),
+  }
+  if (answer.limits !== undefined) columns.limits = answer.limits
+  return { columns, failedPoints }
+}
+
 /** Solves the task's model: the answer, its bytes not yet transferred. */
 export function solveTask(task: SolveTask): SolveTaskAnswer {
   const started = performance.now()
@@ -160,6 +213,7 @@ export function solveTask(task: SolveTask): SolveTaskAnswer {
     const result = solveMap(task.model, options)
     return {
       kind: 'map',
+      form: 'points',
       resultBytes: encoder.encode(mapAnswerJson(result)),
       failedPoints: result.failedCells,
       solverVersion: SOLVER_VERSION,
@@ -170,8 +224,22 @@ export function solveTask(task: SolveTask): SolveTaskAnswer {
     const result = titration(task.model, options)
     return {
       kind: 'titration',
+      form: 'points',
       resultBytes: encoder.encode(JSON.stringify(result)),
       failedPoints: failedTitrationPoints(result),
+      solverVersion: SOLVER_VERSION,
+      elapsedMs: performance.now() - started,
+    }
+  }
+  if (task.model.sweep && task.form === 'columns') {
+    const { columns, failedPoints } = solveSweepToColumns(task.model, options)
+    const { head, arrays } = binaryParts(columns)
+    return {
+      kind: 'sweep',
+      form: 'columns',
+      resultBytes: encoder.encode(head),
+      resultArrays: arrays,
+      failedPoints,
       solverVersion: SOLVER_VERSION,
       elapsedMs: performance.now() - started,
     }
@@ -180,6 +248,7 @@ export function solveTask(task: SolveTask): SolveTaskAnswer {
     const { bytes, failedPoints } = solveSweepToBytes(task.model, options)
     return {
       kind: 'sweep',
+      form: 'points',
       resultBytes: bytes,
       failedPoints,
       solverVersion: SOLVER_VERSION,
@@ -189,6 +258,7 @@ export function solveTask(task: SolveTask): SolveTaskAnswer {
   const result = solve(task.model, options)
   return {
     kind: 'single',
+    form: 'points',
     resultBytes: encoder.encode(JSON.stringify(result)),
     failedPoints: result.converged ? 0 : 1,
     solverVersion: SOLVER_VERSION,
@@ -199,8 +269,9 @@ export function solveTask(task: SolveTask): SolveTaskAnswer {
 /** The pool's entry: the answer with its bytes' buffer in the transfer list. */
 export default function runSolveTask(task: SolveTask): SolveTaskAnswer {
   const answer = solveTask(task)
+  const buffers = new Set<ArrayBufferLike>([answer.resultBytes.buffer, ...(answer.resultArrays ?? []).map(a => a.buffer)])
   const movable = {
-    [Piscina.transferableSymbol]: [answer.resultBytes.buffer],
+    [Piscina.transferableSymbol]: [...buffers],
     [Piscina.valueSymbol]: answer,
   } as unknown as Parameters<typeof Piscina.move>[0]
   return Piscina.move(movable) as unknown as SolveTaskAnswer

@@ -36,65 +36,202 @@ export interface SweepColumns {
   rows: number[]
 }
 
-/**
- * Columns written one point at a time, so a caller that solves point by
- * point (a map's cells) never holds every point's objects: `add` keeps the
- * point's numbers and lets its objects go; `build` gives the columns.
- */
-export class ColumnsBuilder {
-  private readonly index = new Map<string, number>()
-  private readonly templates: unknown[] = []
-  /** For each template, its rows' numbers one row after the other (row r, slot s at r × slots + s). */
-  private readonly numbers: number[][] = []
-  private readonly slots: number[] = []
-  private readonly counts: number[] = []
-  private readonly templateOf: number[] = []
-  private readonly rowOf: number[] = []
-
-  get length(): number { return this.templateOf.length }
-
-  add(point: Result): void {
-    const found: number[] = []
-    const key = JSON.stringify(point, (_k, v) => {
-      if (typeof v === 'number') { found.push(v); return SLOT }
-      return v
-    })
-    let t = this.index.get(key)
-    if (t === undefined) {
-      if (this.templates.length === 0xffff) throw new Error('an answer with more than 65535 shapes of point')
-      t = this.templates.length
-      this.index.set(key, t)
-      this.templates.push(JSON.parse(key))
-      this.numbers.push([])
-      this.slots.push(found.length)
-      this.counts.push(0)
-    }
-    this.templateOf.push(t)
-    this.rowOf.push(this.counts[t]++)
-    const rowsOfT = this.numbers[t]
-    for (const v of found) rowsOfT.push(v)
-  }
-
-  build(): Omit<SweepColumns, 'format' | 'variable' | 'component' | 'values' | 'limits'> {
-    const rows = [...this.counts]
-    const columns = this.numbers.map((flat, t) => {
-      const n = rows[t]
-      const slots = this.slots[t]
-      const col = new Float64Array(slots * n)
-      for (let r = 0; r < n; r++) for (let s = 0; s < slots; s++) col[s * n + r] = flat[r * slots + s]
-      return col
-    })
-    return { templates: this.templates, templateOf: Uint16Array.from(this.templateOf), rowOf: Uint32Array.from(this.rowOf), columns, rows }
-  }
-}
+/** What a builder gives: the columns of SweepColumns without the sweep's own fields. */
+export type PointParts<C = Float64Array> = Omit<SweepColumns, 'format' | 'variable' | 'component' | 'values' | 'limits' | 'columns'> & { columns: C[] }
 
 /** The columns of a sweep answer. */
 export function toSweepColumns(sweep: SweepResult): SweepColumns {
-  const builder = new ColumnsBuilder()
+  const builder = new ColumnsBuilder(sweep.points.length)
   for (const point of sweep.points) builder.add(point)
   const out: SweepColumns = { format: 'sweep-columns', variable: sweep.variable, component: sweep.component, values: sweep.values, ...builder.build() }
   if (sweep.limits !== undefined) out.limits = sweep.limits
   return out
+}
+
+/** A template compiled for matching: what JSON.stringify would write, numbers as slots. */
+type Shape =
+  | { kind: 'slot' }
+  | { kind: 'value', value: string | boolean | null }
+  | { kind: 'array', items: Shape[] }
+  | { kind: 'object', keys: string[], values: Shape[] }
+
+function shapeOf(template: unknown): Shape {
+  if (template === SLOT) return { kind: 'slot' }
+  if (Array.isArray(template)) return { kind: 'array', items: template.map(shapeOf) }
+  if (template !== null && typeof template === 'object') {
+    const keys = Object.keys(template)
+    return { kind: 'object', keys, values: keys.map(k => shapeOf((template as Record<string, unknown>)[k])) }
+  }
+  return { kind: 'value', value: template as string | boolean | null }
+}
+
+/** The largest chunk of rows the builder allocates at once. */
+const CHUNK_ROWS = 2048
+
+/** A value JSON.stringify leaves out of an object (and writes as null in an array). */
+const skipped = (v: unknown) => v === undefined || typeof v === 'function' || typeof v === 'symbol'
+
+/**
+ * Columns written one point at a time, so a caller that solves point by
+ * point (a sweep in the worker, a map's cells) never holds every point's
+ * objects: `add` matches the point against the templates seen so far (no
+ * string, no copy), keeps its numbers in chunks of rows and lets its objects
+ * go; `build` gives the columns (equal to `toSweepColumns` of the same
+ * points), `buildInPieces` the same without joining the chunks.
+ * `expectedPoints`, when known, sizes the chunks so little room goes unused.
+ */
+export class ColumnsBuilder {
+  private readonly shapes: Shape[] = []
+  private readonly templates: unknown[] = []
+  /** For each template, its rows in chunks; in a chunk of capacity c, slot s of its row r is at s·c + r. */
+  private readonly chunks: { data: Float64Array, capacity: number, rows: number }[][] = []
+  private readonly rows: number[] = []
+  private readonly slots: number[] = []
+  private templateOf: Uint16Array
+  private rowOf: Uint32Array
+  private scratch = new Float64Array(256)
+  private found = 0
+  private count = 0
+  private last = 0
+
+  constructor(private readonly expectedPoints?: number) {
+    this.templateOf = new Uint16Array(expectedPoints ?? 64)
+    this.rowOf = new Uint32Array(expectedPoints ?? 64)
+  }
+
+  get length(): number { return this.count }
+
+  /** Adds the next point. */
+  add(point: Result): void {
+    const i = this.count
+    if (i === this.templateOf.length) {
+      const templateOf = new Uint16Array(i * 2); templateOf.set(this.templateOf); this.templateOf = templateOf
+      const rowOf = new Uint32Array(i * 2); rowOf.set(this.rowOf); this.rowOf = rowOf
+    }
+    let t = this.matching(point)
+    if (t < 0) t = this.newTemplate(point)
+    const slots = this.slots[t]
+    const chunks = this.chunks[t]
+    let chunk = chunks[chunks.length - 1]
+    if (!chunk || chunk.rows === chunk.capacity) {
+      // Chunks of 64 rows, doubling to 2,048: little unused room however the points fall among the templates.
+      const capacity = Math.max(1, Math.min(CHUNK_ROWS, this.expectedPoints === undefined ? Infinity : this.expectedPoints - i, chunk ? chunk.capacity * 2 : 64))
+      chunk = { data: new Float64Array(slots * capacity), capacity, rows: 0 }
+      chunks.push(chunk)
+    }
+    const { data, capacity, rows: r } = chunk
+    for (let s = 0; s < slots; s++) data[s * capacity + r] = this.scratch[s]
+    chunk.rows = r + 1
+    this.templateOf[i] = t
+    this.rowOf[i] = this.rows[t]++
+    this.count = i + 1
+  }
+
+  /** The columns of the points added, each in one array. */
+  build(): PointParts<Float64Array> {
+    return this.buildInPieces((pieces, length) => {
+      if (pieces.length === 1) return pieces[0]
+      const col = new Float64Array(length)
+      let at = 0
+      for (const piece of pieces) { col.set(piece, at); at += piece.length }
+      return col
+    })
+  }
+
+  /**
+   * The same with each column given as its pieces in order (`joinPieces`
+   * makes what stands for a column, e.g. a PiecedArray for the binary form):
+   * nothing is copied, so the columns are never in memory twice.
+   */
+  buildInPieces<C>(joinPieces: (pieces: Float64Array[], length: number) => C): PointParts<C> {
+    if (this.expectedPoints !== undefined && this.count !== this.expectedPoints) throw new Error(`${this.count} points added, ${this.expectedPoints} expected`)
+    const columns = this.chunks.map((chunks, t) => {
+      const slots = this.slots[t]
+      // One chunk: packed in place (slot s from s·capacity to s·rows, moving left, so in order).
+      if (chunks.length === 1) {
+        const { data, capacity, rows } = chunks[0]
+        if (capacity !== rows) for (let s = 1; s < slots; s++) data.copyWithin(s * rows, s * capacity, s * capacity + rows)
+        return joinPieces([data.subarray(0, slots * rows)], slots * rows)
+      }
+      const pieces: Float64Array[] = []
+      for (let s = 0; s < slots; s++) for (const { data, capacity, rows } of chunks) pieces.push(data.subarray(s * capacity, s * capacity + rows))
+      return joinPieces(pieces, slots * this.rows[t])
+    })
+    const n = this.count
+    return {
+      templates: this.templates,
+      templateOf: n === this.templateOf.length ? this.templateOf : this.templateOf.slice(0, n),
+      rowOf: n === this.rowOf.length ? this.rowOf : this.rowOf.slice(0, n),
+      columns,
+      rows: [...this.rows],
+    }
+  }
+
+  private matching(point: Result): number {
+    const n = this.shapes.length
+    for (let k = 0; k < n; k++) {
+      const t = (this.last + k) % n
+      this.found = 0
+      if (this.match(point, this.shapes[t])) {
+        this.last = t
+        return t
+      }
+    }
+    return -1
+  }
+
+  private newTemplate(point: Result): number {
+    if (this.shapes.length === 0xffff) throw new Error('a sweep answer with more than 65535 shapes of point')
+    const template = JSON.parse(JSON.stringify(point, (_k, v) => (typeof v === 'number' ? SLOT : v)))
+    const shape = shapeOf(template)
+    this.found = 0
+    if (!this.match(point, shape)) throw new Error('a sweep point does not match its own shape')
+    const t = this.shapes.length
+    this.shapes.push(shape)
+    this.templates.push(template)
+    this.slots.push(this.found)
+    this.rows.push(0)
+    this.chunks.push([])
+    this.last = t
+    return t
+  }
+
+  /** Whether v is written as `shape` by JSON.stringify; its numbers go to the scratch row. */
+  private match(v: unknown, shape: Shape): boolean {
+    const kind = shape.kind
+    if (kind === 'slot') {
+      if (typeof v !== 'number') return false
+      if (this.found === this.scratch.length) {
+        const grown = new Float64Array(this.scratch.length * 2)
+        grown.set(this.scratch)
+        this.scratch = grown
+      }
+      this.scratch[this.found++] = v
+      return true
+    }
+    if (kind === 'object') {
+      if (v === null || typeof v !== 'object' || Array.isArray(v)) return false
+      const o = v as Record<string, unknown>
+      const keys = shape.keys
+      const values = shape.values
+      let k = 0
+      // Results are plain objects: for…in visits their own keys in JSON.stringify's order.
+      for (const key in o) {
+        const item = o[key]
+        if (item === undefined || typeof item === 'function' || typeof item === 'symbol') continue
+        if (key !== keys[k] || !this.match(item, values[k])) return false
+        k++
+      }
+      return k === keys.length
+    }
+    if (kind === 'array') {
+      const items = shape.items
+      if (!Array.isArray(v) || v.length !== items.length) return false
+      for (let k = 0; k < v.length; k++) if (!this.match(v[k], items[k])) return false
+      return true
+    }
+    return v === shape.value || (shape.value === null && skipped(v))
+  }
 }
 
 /** The Result of point i, made from the columns. */

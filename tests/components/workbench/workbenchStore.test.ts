@@ -3,9 +3,12 @@
 import { beforeEach, describe, expect, it, vi } from 'vitest'
 import { createPinia, setActivePinia } from 'pinia'
 import { compile } from '../../../shared/poise/index'
-import { latestRunOf, problemFrom, richestComponent, runPlan, useWorkbenchStore } from '../../../stores/workbench'
+import { latestRunOf, PREVIEW_ACCEPT, problemFrom, richestComponent, runPlan, useWorkbenchStore } from '../../../stores/workbench'
 import type { SystemAnswer } from '../../../shared/types/system'
 import { revisionFixture, runFixture, systemFixture } from '../../fixtures/answers'
+import { sweep as solveSweep } from '../../../server/solver/index'
+import { encodeBinaryAnswer } from '../../../shared/results/binary-answer'
+import { toSweepColumns } from '../../../shared/results/sweep-columns'
 
 // Demo system (invented numbers).
 const saved = `system "Strike bath"
@@ -105,9 +108,35 @@ describe('useWorkbenchStore', () => {
     expect(store.plan).toBe('preview')
     fetcher.mockResolvedValueOnce({ kind: 'single', solverVersion: '1.0.0', compilerVersion: '1.0.0', model: storedModel(), elapsedMs: 2.5, diagnostics: [], result })
     await store.run()
-    expect(fetcher).toHaveBeenCalledWith('/api/labs/plating/solve', { method: 'POST', body: { source: saved } })
+    expect(fetcher).toHaveBeenCalledWith('/api/labs/plating/solve', { method: 'POST', body: { source: saved }, headers: { accept: PREVIEW_ACCEPT } })
     expect(store.shown).toMatchObject({ origin: 'preview', ofRevision: 4 })
     expect(store.shownModel?.title).toBe('Strike bath (as solved)')
+  })
+
+  it('reads a sweep answered by columns, and makes the picked point from them', async () => {
+    const store = useWorkbenchStore()
+    store.open(answer('viewer'))
+    const model = compile(`${saved}sweep pH from 3 to 9 points 25\n`).model!
+    const solved = solveSweep(model)
+    const bytes = encodeBinaryAnswer({ kind: 'sweep', solverVersion: '1.1.0', compilerVersion: '1.0.0', model, elapsedMs: 3, diagnostics: [], result: toSweepColumns(solved) })
+    // $fetch gives a Blob for a media type it does not parse.
+    fetcher.mockResolvedValueOnce(new Blob([bytes]))
+    await store.run()
+    expect(store.shown?.columns?.templateOf).toHaveLength(25)
+    expect(store.sweep?.points).toHaveLength(25)
+    store.pointIndex = 11
+    expect(store.pointResult).toStrictEqual(JSON.parse(JSON.stringify(solved.points[11])))
+    expect(JSON.stringify(store.sweep)).toBe(JSON.stringify(solved))
+    expect(store.runProblem).toBeNull()
+  })
+
+  it('says to reload when the binary answer is not a sweep by columns', async () => {
+    const store = useWorkbenchStore()
+    store.open(answer('viewer'))
+    fetcher.mockResolvedValueOnce(new Blob([encodeBinaryAnswer({ kind: 'sweep', result: { format: 'something else' } })]))
+    await store.run()
+    expect(store.shown).toBeNull()
+    expect(store.runProblem?.message).toMatch(/Reload the page/)
   })
 
   it('lets a reviewer store runs of the saved revision', () => {
@@ -123,7 +152,7 @@ describe('useWorkbenchStore', () => {
     fetcher.mockResolvedValueOnce({ kind: 'single', solverVersion: '1.0.0', elapsedMs: 2.5, diagnostics: [], result })
     await store.run()
     // The lab's solve route, so a `use "library"` in the draft resolves.
-    expect(fetcher).toHaveBeenCalledWith('/api/labs/plating/solve', { method: 'POST', body: { source: store.source } })
+    expect(fetcher).toHaveBeenCalledWith('/api/labs/plating/solve', { method: 'POST', body: { source: store.source }, headers: { accept: PREVIEW_ACCEPT } })
     expect(store.shown).toMatchObject({ origin: 'preview', ofRevision: null })
     expect(store.shownIsStale).toBe(false)
     store.source += '# a note\n'

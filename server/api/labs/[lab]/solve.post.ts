@@ -12,13 +12,16 @@ export default defineEventHandler(async (event) => {
   const { lab, user } = await requireLabRole(event, params.lab, 'viewer')
   const source = await readSourceBody(event)
   const { model, diagnostics } = compileForSolve(source, { resolveLibrary: await libraryResolverFor(lab.id, source) })
-  const output = await solveInPool(model, user.id)
-  return sendJsonBytesWithRaws(event, {
+  const output = await solveInPool(model, user.id, model.sweep && !model.titration && acceptsBinaryAnswer(event) ? 'columns' : 'points')
+  const head = {
     kind: output.kind,
     solverVersion: output.solverVersion,
     compilerVersion: COMPILER_VERSION,
     elapsedMs: Math.round(output.elapsedMs * 10) / 10,
     diagnostics,
     libraries: model.libraries,
-  }, { result: output.resultBytes, model: JSON.stringify(model) })
+  }
+  const raw = { result: output.resultBytes, model: JSON.stringify(model) }
+  if (output.form === 'columns') return sendBinaryAnswer(event, head, raw, output.resultArrays ?? [])
+  return sendJsonBytesWithRaws(event, head, raw)
 })
