@@ -93,7 +93,7 @@ export function binaryAnswerChunks(head: Uint8Array, arrays: BinaryArray[]): Uin
 }
 
 /** All the bytes of `value` as one array (tests, small answers). */
-export function encodeBinaryAnswer(value: unknown): Uint8Array {
+export function encodeBinaryAnswer(value: unknown): Uint8Array<ArrayBuffer> {
   const { head, arrays } = binaryParts(value)
   const chunks = binaryAnswerChunks(new TextEncoder().encode(head), arrays)
   const out = new Uint8Array(chunks.reduce((a, c) => a + c.byteLength, 0))
