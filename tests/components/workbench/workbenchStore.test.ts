@@ -239,7 +239,7 @@ describe('useWorkbenchStore', () => {
     await other.loadLastRun()
     expect(other.olderRun?.revision).toBe(3)
     // The saved revision, not the edit, through the preview route that stores nothing.
-    expect(fetcher).toHaveBeenLastCalledWith('/api/labs/plating/solve', { method: 'POST', body: { source: saved } })
+    expect(fetcher).toHaveBeenLastCalledWith('/api/labs/plating/solve', { method: 'POST', body: { source: saved }, headers: { accept: PREVIEW_ACCEPT } })
     expect(fetcher.mock.calls.filter(([url, options]) => options?.method === 'POST' && String(url).endsWith('/runs'))).toEqual([])
     expect(other.shown).toMatchObject({ origin: 'preview', ofRevision: 4, reason: 'opened', source: saved })
   })
