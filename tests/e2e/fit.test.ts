@@ -68,6 +68,21 @@ describe('fitting in the workbench', () => {
     await expect(page.locator('[data-test=fit-curve] circle').count()).resolves.toBe(20)
     await expect(page.locator('[data-test=fit-residuals] circle').count()).resolves.toBe(20)
     await screenshot(page, 'fit-result')
+    // On a phone the panel, its tables and charts stay within the page: nothing in it sticks out, and it widens the page by nothing.
+    await page.setViewportSize({ width: 390, height: 844 })
+    const widths = await page.evaluate(() => {
+      const whole = document.documentElement.scrollWidth
+      const panel = document.querySelector('[data-test=datasets]') as HTMLElement
+      const inPanel = [...panel.querySelectorAll('*')].filter((el) => el.getBoundingClientRect().right > window.innerWidth + 1).map((el) => `${el.tagName.toLowerCase()}.${[...el.classList].join('.')}`)
+      panel.style.display = 'none'
+      const without = document.documentElement.scrollWidth
+      panel.style.display = ''
+      return { whole, without, inner: window.innerWidth, inPanel }
+    })
+    expect(widths.inPanel).toEqual([])
+    expect(widths.whole).toBe(widths.without)
+    await screenshot(page, 'fit-result-phone')
+    await page.setViewportSize({ width: 1280, height: 900 })
 
     await page.locator('[data-test=apply-fit]').click()
     await page.getByText('Saved the fitted values as revision 2.').waitFor()
