@@ -23,9 +23,10 @@ export function withShortcut(model: Model, result: Result): Result {
 }
 import { bufferCapacity } from './sensitivity'
 import { attachLinearUncertainty } from './uncertainty'
+import { monteCarloBands } from './montecarlo'
 
 /** Stored with every run, so a result can be traced to the solver that made it. */
-export const SOLVER_VERSION = '1.2.0'
+export const SOLVER_VERSION = '1.3.0'
 
 /** Hard ceilings the server may rely on whatever a caller asks for. */
 export const SOLVER_LIMITS = { maxIterations: 2000, timeBudgetMs: 60_000 } as const
@@ -517,6 +518,21 @@ export interface SweepOptions extends SolveOptions {
   keepPoint?: (point: Result) => Result
 }
 
+/** Share of a sweep's or titration's time guard the Monte Carlo draws may take. */
+export const MONTE_CARLO_SHARE = 0.8
+
+/** The points of a model's sweep and nothing else (no shortcut, no limit windows): one Monte Carlo draw. */
+function bareSweepPoints(model: Model, options: SolveOptions): Result[] {
+  const sw = model.sweep!
+  const built = buildProblem(model)
+  if ('error' in built) return sw.values.map(() => unsolvable(model, built.error))
+  const p = built.problem
+  const target = sweepComponentIndex(model)
+  if ('error' in target) return sw.values.map(() => unsolvable(model, target.error))
+  const position = (v: number) => (sw.log && v > 0 ? Math.log10(v) : v)
+  return continueAlong(new Workspace(p), sw.values, position, (v) => applySweepValue(p, sw.variable, target.index, v), options, 'sweep')
+}
+
 export function sweep(model: Model, options?: SweepOptions): SweepResult {
   const sw = model?.sweep
   const values = Array.isArray(sw?.values) ? sw.values : []
@@ -531,8 +547,18 @@ export function sweep(model: Model, options?: SweepOptions): SweepResult {
     const ws = new Workspace(p)
     const position = (v: number) => (sw.log && v > 0 ? Math.log10(v) : v)
     const keepPoint = options?.keepPoint
-    const keep = (r: Result) => (keepPoint ? keepPoint(withShortcut(model, r)) : withShortcut(model, r))
-    base.points.push(...continueAlong(ws, values, position, (v) => applySweepValue(p, sw.variable, target.index, v), options, 'sweep', undefined, undefined, keep))
+    // `uncertainty draws N`: the draws come first (each point is written out as soon as it is solved),
+    // within most of the time guard; the sweep itself keeps the whole guard's end.
+    const { guardMs } = guardOf(options)
+    const end = Date.now() + guardMs
+    const bands = model.monteCarlo ? monteCarloBands(model, Date.now() + MONTE_CARLO_SHARE * guardMs, { maxIterations: options?.maxIterations }, bareSweepPoints) : null
+    let index = 0
+    const keep = (r: Result) => {
+      bands?.attach(r, index++)
+      return keepPoint ? keepPoint(withShortcut(model, r)) : withShortcut(model, r)
+    }
+    const mainOptions = bands ? { ...options, deadline: Math.min(options?.deadline ?? Infinity, end) } : options
+    base.points.push(...continueAlong(ws, values, position, (v) => applySweepValue(p, sw.variable, target.index, v), mainOptions, 'sweep', undefined, undefined, keep))
     // Limit windows: their ends located by exact solves between the grid points.
     if (model.limits?.length) base.limits = limitWindows(model, base, (v) => solveAtSweepValue(model, v, options))
     return base

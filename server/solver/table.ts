@@ -9,6 +9,11 @@ import { doseSentence, endPointSentences, formatVolume, titrationAsSweep, volume
 import { dissolvedText } from '../../shared/results/names'
 import { MOLAR_SCALE, type UnitScale } from '../../shared/results/units'
 import { limitSentence } from '../../shared/results/limits'
+import { formatAmountUncertainty, formatLogUncertainty, mainContributorText, uncertaintyMethodText } from '../../shared/results/uncertainty'
+
+/** `4.63–4.82`: a point's pH band from `uncertainty draws N`; `-` where it has none. */
+const pHBand = (p: Result) => (p.pHUncertainty?.low !== undefined && p.pHUncertainty.high !== undefined ? `${fixed(p.pHUncertainty.low, 2)}–${fixed(p.pHUncertainty.high, 2)}` : '-')
+const anyBand = (points: Result[]) => points.some((p) => p.uncertainty?.method === 'monte-carlo')
 
 const exp = (v: number) => (v === 0 ? '0' : v.toExponential(3))
 const fixed = (v: number, d: number) => v.toFixed(d)
@@ -29,17 +34,20 @@ const scaledExp = (v: number, factor: number | null) => (factor === null ? '-' :
 export function formatResultTable(model: Model, r: Result, scale: UnitScale = MOLAR_SCALE): string {
   const out: string[] = [model.title, '']
   if (!r.converged) out.push(`NOT CONVERGED: ${r.reason ?? 'no reason given'}`, '')
-  out.push(`pH ${fixed(r.pH, 3)}   ionic strength ${exp(r.ionicStrength)} mol/L   ${r.temperatureC} °C   ` +
+  out.push(`pH ${fixed(r.pH, 3)}${r.pHUncertainty ? ` ${formatLogUncertainty(r.pHUncertainty)}` : ''}   ionic strength ${exp(r.ionicStrength)} mol/L   ${r.temperatureC} °C   ` +
     `${r.iterations} iterations, max scaled residual ${exp(r.residuals.maxScaled)}`, '')
+  // With a ± on some constant: one more column per table, and how the ± were found.
+  const pm = r.uncertainty !== undefined
+  if (pm) out.push(uncertaintyMethodText(r)!, ...(mainContributorText(r.pHUncertainty) ? [`pH ± ${mainContributorText(r.pHUncertainty)}`] : []), '')
   const species = [...r.species].sort((a, b) => b.concentration - a.concentration)
   out.push(align([
-    ['species', scale.unit, 'log10 mol/L', 'activity', 'gamma'],
-    ...species.map((s) => [s.name, scaledExp(s.concentration, scale.species(s.name)), fixedOrNone(s.log10, 3), scaledExp(s.activity, scale.species(s.name)), fixed(s.gamma, 4)]),
+    ['species', scale.unit, 'log10 mol/L', ...(pm ? ['± log10'] : []), 'activity', 'gamma'],
+    ...species.map((s) => [s.name, scaledExp(s.concentration, scale.species(s.name)), fixedOrNone(s.log10, 3), ...(pm ? [formatLogUncertainty(s.log10Uncertainty)] : []), scaledExp(s.activity, scale.species(s.name)), fixed(s.gamma, 4)]),
   ]))
   if (r.solids.length > 0) {
     out.push('', align([
-      ['solid', 'present', 'mol/L', 'SI'],
-      ...r.solids.map((s) => [s.name + (s.suppressed ? ' (suppressed)' : ''), s.present ? 'yes' : 'no', exp(s.amount), fixedOrNone(s.saturationIndex, 3)]),
+      ['solid', 'present', 'mol/L', 'SI', ...(pm ? ['± SI'] : [])],
+      ...r.solids.map((s) => [s.name + (s.suppressed ? ' (suppressed)' : ''), s.present ? 'yes' : 'no', exp(s.amount), fixedOrNone(s.saturationIndex, 3), ...(pm ? [formatLogUncertainty(s.saturationIndexUncertainty)] : [])]),
     ]))
   }
   if (r.gases && r.gases.length > 0) {
@@ -52,7 +60,7 @@ export function formatResultTable(model: Model, r: Result, scale: UnitScale = MO
       const fixedFree = c.mode === 'pressure' || c.mode === 'excess'
       return [
         c.name, c.mode, scale.componentUnit(c.name), scaledExp(c.total, factor),
-        c.dissolved === undefined ? '-' : `${scaledExp(c.dissolved, factor)} (${dissolvedText(c.name)})`,
+        c.dissolved === undefined ? '-' : `${scaledExp(c.dissolved, factor)}${c.dissolvedUncertainty ? ` ${formatAmountUncertainty(c.dissolvedUncertainty, factor)}` : ''} (${dissolvedText(c.name)})`,
         fixedFree ? `${exp(c.free)}${c.mode === 'pressure' ? ' atm' : ''}` : scaledExp(c.free, factor),
       ]
     }),
@@ -66,17 +74,19 @@ export function formatSweepTable(model: Model, s: SweepResult, scale: UnitScale 
   const solidNames = model.solids.map((x) => x.name)
   // The dissolved total of every component given by its total: what a sweep is usually read for.
   const totals = model.components.filter((c) => c.mode === 'total' && c.name !== 'H+').map((c) => c.name)
-  const rows = [[label, 'pH', 'I mol/L', ...totals.map((n) => `${dissolvedText(n)} ${scale.componentUnit(n)}`), 'solids present', 'status']]
+  const band = anyBand(s.points)
+  const rows = [[label, 'pH', ...(band ? ['pH 95 %'] : []), 'I mol/L', ...totals.map((n) => `${dissolvedText(n)} ${scale.componentUnit(n)}`), 'solids present', 'status']]
   s.points.forEach((p, k) => {
     const present = p.solids.filter((x) => x.present && solidNames.includes(x.name)).map((x) => x.name).join(' ') || '-'
     const dissolved = totals.map((n) => {
       const d = p.converged ? p.components.find((c) => c.name === n)?.dissolved : undefined
       return d === undefined ? '-' : scaledExp(d, scale.component(n))
     })
-    rows.push([String(s.values[k]), fixed(p.pH, 3), exp(p.ionicStrength), ...dissolved, present, p.converged ? 'ok' : `failed: ${p.reason ?? ''}`])
+    rows.push([String(s.values[k]), fixed(p.pH, 3), ...(band ? [pHBand(p)] : []), exp(p.ionicStrength), ...dissolved, present, p.converged ? 'ok' : `failed: ${p.reason ?? ''}`])
   })
   const limits = (s.limits ?? []).flatMap((w) => [`limit: ${limitSentence(s, w)}`, ...(w.note ? [`  (${w.note})`] : [])])
-  return [model.title, '', align(rows), ...(limits.length ? ['', ...limits] : [])].join('\n')
+  const note = band ? uncertaintyMethodText(s.points.find((p) => p.uncertainty)!) : null
+  return [model.title, '', align(rows), ...(limits.length ? ['', ...limits] : []), ...(note ? ['', note] : [])].join('\n')
 }
 
 /** A map, one line a cell (row after row): both axes' values, pH, I, the dissolved totals, the solids present, the status. */
@@ -108,16 +118,18 @@ export function formatTitrationTable(model: Model, t: TitrationResult): string {
   }
   const solidNames = model.solids.map((x) => x.name)
   const unit = volumeInUnit(1, t.unit).unit
-  const rows = [[`added ${unit}`, 'pH', 'dpH/dV per mL', 'beta mol/L/pH', 'solids present', 'status']]
+  const band = anyBand(t.points)
+  const rows = [[`added ${unit}`, 'pH', ...(band ? ['pH 95 %'] : []), 'dpH/dV per mL', 'beta mol/L/pH', 'solids present', 'status']]
   t.points.forEach((p, k) => {
     const present = p.solids.filter((x) => x.present && solidNames.includes(x.name)).map((x) => x.name).join(' ') || '-'
     const slope = t.derivative[k]
     rows.push([
-      String(Number(volumeInUnit(t.values[k], t.unit).value.toPrecision(10))), fixed(p.pH, 3),
+      String(Number(volumeInUnit(t.values[k], t.unit).value.toPrecision(10))), fixed(p.pH, 3), ...(band ? [pHBand(p)] : []),
       slope === null || slope === undefined ? '-' : exp(slope), p.bufferCapacity == null ? '-' : exp(p.bufferCapacity),
       present, p.converged ? 'ok' : `failed: ${p.reason ?? ''}`,
     ])
   })
   const limits = (t.limits ?? []).flatMap((w) => [`limit: ${limitSentence(titrationAsSweep(t), w)}`, ...(w.note ? [`  (${w.note})`] : [])])
-  return [...head, align(rows), '', ...endPointSentences(t), ...limits].join('\n')
+  const note = band ? uncertaintyMethodText(t.points.find((p) => p.uncertainty)!) : null
+  return [...head, align(rows), '', ...endPointSentences(t), ...limits, ...(note ? ['', note] : [])].join('\n')
 }

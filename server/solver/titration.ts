@@ -20,9 +20,10 @@ import { Workspace, type SolverState } from './workspace'
 import { dLogActivityH, bufferCapacity } from './sensitivity'
 import { limitWindows } from './limits'
 import {
-  continueAlong, copyState, guardOf, internalFailure, iterationsOf, newState, solveProblem, unsolvable,
+  continueAlong, copyState, guardOf, internalFailure, iterationsOf, MONTE_CARLO_SHARE, newState, solveProblem, unsolvable,
   type SolveOptions,
 } from './index'
+import { monteCarloBands } from './montecarlo'
 
 /**
  * An end point is located to this share of the two steps around it: far
@@ -39,7 +40,7 @@ export const MAX_DOSE_FACTOR = 1000
 const BISECTIONS = 80
 
 /** Moves the problem to added volume v (mL); returns why it cannot, or null. */
-function volumeSetter(model: Model, p: Problem): (vmL: number) => string | null {
+export function volumeSetter(model: Model, p: Problem): (vmL: number) => string | null {
   const t = model.titration!
   const V0 = t.sampleVolumeL
   const base = model.components.map((c) => c.value)
@@ -182,6 +183,10 @@ export function titration(model: Model, options?: SolveOptions): TitrationResult
           return solveAt(v, near >= 0 ? states[near]! : null, scratch).result
         })
       }
+      // `uncertainty draws N`: the curve again with drawn constants, within most of what is left of the guard.
+      const left = Math.max(0, guard.deadline - performance.now())
+      const bands = model.monteCarlo ? monteCarloBands(model, Date.now() + MONTE_CARLO_SHARE * left, { maxIterations: options?.maxIterations }, (drawn, o) => bareCurve(drawn, values, o)) : null
+      if (bands) points.forEach((point, i) => bands.attach(point, i))
       return answer
     }
 
@@ -215,6 +220,14 @@ export function titration(model: Model, options?: SolveOptions): TitrationResult
 }
 
 const formatMl = (v: number) => `${Number(v.toPrecision(4))} mL`
+
+/** The points of a titration curve and nothing else (no slopes, end points or limits): one Monte Carlo draw. */
+function bareCurve(model: Model, values: number[], options: SolveOptions): Result[] {
+  const built = buildProblem(model)
+  if ('error' in built) return values.map(() => unsolvable(model, built.error))
+  const p = built.problem
+  return continueAlong(new Workspace(p), values, (v) => v, volumeSetter(model, p), options, 'titration')
+}
 
 /**
  * Grid indices of end points: interior local maxima of |dpH/dv| whose

@@ -142,6 +142,9 @@ export function logKSensitivities(ws: Workspace, state: SolverState, constants: 
   return out
 }
 
+/** A ± below this share of its value is the arithmetic's rounding, reported as 0. */
+const ROUNDING = 1e-9
+
 /** σ and the main contributor from the derivatives over the uncertain constants. */
 export function combine(derivatives: ArrayLike<number>, sigmas: readonly number[], reactions: readonly string[]): AnswerUncertainty {
   let total = 0
@@ -189,7 +192,11 @@ export function attachLinearUncertainty(ws: Workspace, state: SolverState, resul
   })
   m.components.forEach((_, j) => {
     const entry = result.components[j]
-    if (entry && entry.dissolved !== undefined) entry.dissolvedUncertainty = combine(s.dissolved[j]!, sigmas, names)
+    if (entry && entry.dissolved !== undefined) {
+      const u = combine(s.dissolved[j]!, sigmas, names)
+      // A total held by its mass balance moves only by rounding: say 0, not 3e-20.
+      entry.dissolvedUncertainty = u.sigma <= ROUNDING * Math.abs(entry.dissolved) ? { sigma: 0, main: null } : u
+    }
   })
   const h = p.hIndex
   if (h >= 0 && (p.mode[h] === MODE_TOTAL || p.mode[h] === MODE_BALANCE)) result.pHUncertainty = combine(s.pH, sigmas, names)

@@ -3,7 +3,7 @@
  * problem becomes a diagnostic; nothing here throws to the caller (index.ts
  * turns even an internal bug into a diagnostic).
  */
-import type { Model, ModelComponent, ModelGas, ModelLimit, ModelMap, ModelReaction, ModelSolid, ModelSpecies, ModelSweep, ModelTitration, ActivityModelName, ConstantKind } from './model'
+import type { Model, ModelComponent, ModelGas, ModelLimit, ModelMap, ModelMonteCarlo, ModelReaction, ModelSolid, ModelSpecies, ModelSweep, ModelTitration, ActivityModelName, ConstantKind } from './model'
 import type { Diagnostic, SourceRange } from './diagnostics'
 import { parseFormula, type Abbreviations, type ParsedFormula } from './formula'
 import { compileAbbreviations } from './abbreviations'
@@ -18,7 +18,7 @@ import { compileLimit } from './limitStatement'
 import { compileTitration } from './titration'
 import { convert, unitInfo, UNIT_HINTS } from './units'
 import { REFERENCE_TEMPERATURE_C, vantHoff } from './thermo'
-import { checkRange } from './limits'
+import { checkRange, MAX_MONTE_CARLO_DRAWS, MAX_MONTE_CARLO_SEED, MAX_MONTE_CARLO_SOLVES, MIN_MONTE_CARLO_DRAWS } from './limits'
 import { defaultIonSize, type IonSizeSource } from './ionSize'
 
 export interface CompileOptions {
@@ -138,7 +138,7 @@ export function compileSource(source: string, options: CompileOptions, stack: st
   if (systems.length === 0 && !parsed.problems.length) report.error('P003', 'a file starts with `system "TITLE"`: add it as the first line', { from: 0, to: 0 })
   if (systems.length > 0 && st[0] !== systems[0]) report.error('P003', '`system` must be the first statement of the file', systems[0]!.keyword)
   for (const dup of systems.slice(1)) report.error('P004', '`system` is given twice: keep one', dup.keyword)
-  for (const kind of ['temperature', 'activity', 'ionicStrength', 'sweep', 'map', 'sampleVolume', 'titrate'] as const) {
+  for (const kind of ['temperature', 'activity', 'ionicStrength', 'sweep', 'map', 'sampleVolume', 'titrate', 'uncertainty'] as const) {
     const word = kind === 'sampleVolume' ? 'sample volume' : null
     for (const dup of of(kind).slice(1)) report.error('P004', `\`${word ?? dup.keyword.image}\` is given twice: keep one (one ${word ?? dup.keyword.image} a file)`, dup.keyword)
   }
@@ -362,6 +362,8 @@ export function compileSource(source: string, options: CompileOptions, stack: st
     }
   }
 
+  const monteCarlo = compileMonteCarlo(of('uncertainty')[0], sweep?.values.length ?? titration?.values?.length ?? null, resolution.used.some((r) => r.logKUncertainty !== null), report)
+
   const model = buildModel()
   const symbols = buildSymbols()
   const library: LibraryContent = { reactions: prepared, sources, libraries }
@@ -407,6 +409,7 @@ export function compileSource(source: string, options: CompileOptions, stack: st
       ...(limits.length ? { limits } : {}),
       ...(titration ? { titration } : {}),
       ...(map ? { map } : {}),
+      ...(monteCarlo ? { monteCarlo } : {}),
     }
   }
 
@@ -429,6 +432,34 @@ export function compileSource(source: string, options: CompileOptions, stack: st
     }
     return out
   }
+}
+
+/**
+ * `uncertainty draws N [seed S]`: N from MIN_MONTE_CARLO_DRAWS to
+ * MAX_MONTE_CARLO_DRAWS, N × points within MAX_MONTE_CARLO_SOLVES; a
+ * warning when nothing would be drawn (no constant with a ±) or nothing
+ * swept (a single solve takes the linear ±).
+ */
+function compileMonteCarlo(stmt: Extract<Statement, { kind: 'uncertainty' }> | undefined, points: number | null, anyUncertain: boolean, report: Reporter): ModelMonteCarlo | null {
+  if (!stmt) return null
+  const draws = stmt.draws.value
+  if (!Number.isInteger(draws) || draws < MIN_MONTE_CARLO_DRAWS || draws > MAX_MONTE_CARLO_DRAWS) {
+    report.error('P086', `draws is a whole number from ${MIN_MONTE_CARLO_DRAWS} to ${MAX_MONTE_CARLO_DRAWS} (fewer make the 2.5–97.5 % band mean little, more take long for bands that no longer move): write uncertainty draws 200`, stmt.draws.number)
+    return null
+  }
+  const seed = stmt.seed?.value ?? 1
+  if (!Number.isInteger(seed) || seed < 0 || seed > MAX_MONTE_CARLO_SEED) {
+    report.error('P086', `a seed is a whole number from 0 to ${MAX_MONTE_CARLO_SEED}: write seed 7`, stmt.seed!.number)
+    return null
+  }
+  if (points !== null && draws * points > MAX_MONTE_CARLO_SOLVES) {
+    const most = Math.floor(MAX_MONTE_CARLO_SOLVES / points)
+    report.error('P086', `${draws} draws of ${points} points are ${draws * points} solves, more than the ${MAX_MONTE_CARLO_SOLVES} one run may make: ${most >= MIN_MONTE_CARLO_DRAWS ? `use at most ${most} draws, or ` : ''}fewer points`, stmt.draws.number)
+    return null
+  }
+  if (points === null) report.warning('W112', 'uncertainty draws applies to a sweep or a titration curve, not to a map; a single solve (or a dose) gives its ± by linear propagation: the line has no effect here', stmt.keyword)
+  else if (!anyUncertain) report.warning('W112', 'no constant carries a ± (write it after the value: pKa 4.76 ± 0.02), so every draw would be the same: the line has no effect', stmt.keyword)
+  return { draws, seed, line: report.lineOf(stmt.from) }
 }
 
 function balancesOf(components: ModelComponent[]): ModelComponent[] {

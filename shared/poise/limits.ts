@@ -163,6 +163,23 @@ export const MAX_DATASET_COLUMNS = 16
  * the server's request limits both use it.
  */
 export const MAX_MAP_CELLS = 40_000
+/**
+ * `uncertainty draws N`: a Monte Carlo needs some tens of draws before its
+ * 2.5 and 97.5 % quantiles mean anything (with 40 draws they are the 1st and
+ * 39th values; common practice), and past a few thousand the bands stop
+ * moving while the wait grows.
+ */
+export const MIN_MONTE_CARLO_DRAWS = 40
+export const MAX_MONTE_CARLO_DRAWS = 2000
+/**
+ * At most draws × points solves in one Monte Carlo: it runs with the sweep or
+ * titration in one request (the solver pool's time budget), so a run stays
+ * within seconds; the checker and the solver read it.
+ */
+export const MAX_MONTE_CARLO_SOLVES = 40_000
+/** Largest seed of the generator (a 32-bit signed integer, what pure-rand seeds with). */
+export const MAX_MONTE_CARLO_SEED = 2 ** 31 - 1
+
 /** At most this many atoms of one element in a formula. */
 export const MAX_ATOM_COUNT = 1000
 /** Largest charge of a species. */
@@ -250,6 +267,8 @@ export function limitsTable(): string {
     `| sweep points | 2 to ${MAX_SWEEP_POINTS} | — |`,
     `| titration points | 2 to ${MAX_SWEEP_POINTS} | — |`,
     `| map cells (points of the first axis × points of the second) | 4 to ${MAX_MAP_CELLS} (each axis 2 to ${MAX_SWEEP_POINTS}) | — |`,
+    `| \`uncertainty draws\` | ${MIN_MONTE_CARLO_DRAWS} to ${MAX_MONTE_CARLO_DRAWS}, and draws × points of the sweep or titration at most ${MAX_MONTE_CARLO_SOLVES} | — |`,
+    `| \`seed\` | a whole number from 0 to ${MAX_MONTE_CARLO_SEED} | — |`,
     `| atoms of one element in a formula | 1 to ${MAX_ATOM_COUNT} | — |`,
     `| charge of a species | −${MAX_CHARGE} to +${MAX_CHARGE} | — |`,
   ].join('\n')

@@ -212,6 +212,14 @@ export interface ModelTitration {
   line: number
 }
 
+/** `uncertainty draws N [seed S]`: how the Monte Carlo of a sweep or titration draws the constants. */
+export interface ModelMonteCarlo {
+  draws: number
+  /** The generator's seed (1 when the file gives none): the same seed gives the same bands. */
+  seed: number
+  line: number
+}
+
 export type { IonSizeSource }
 
 export interface Model {
@@ -232,6 +240,8 @@ export interface Model {
   titration?: ModelTitration
   /** The map the file declares; absent when none (and in models stored before maps existed). */
   map?: ModelMap
+  /** `uncertainty draws N`: present only when the file asks for a Monte Carlo. */
+  monteCarlo?: ModelMonteCarlo
   /** `limit` statements of the file; absent when it has none (and in models stored before limits existed). */
   limits?: ModelLimit[]
   /** `source KEY "text"` entries, the file's and its libraries'. */

@@ -23,7 +23,7 @@ function alternatives(paths: TokenType[][][]): string {
 }
 
 const RULE_NAMES: Record<string, string> = {
-  statement: 'a statement (system, temperature, activity, ionic-strength, ion-size, abbreviation, component, reaction, solid, source, use, sweep, map, limit, sample volume, titrant or titrate)',
+  statement: 'a statement (system, temperature, activity, ionic-strength, ion-size, abbreviation, component, reaction, solid, source, use, sweep, map, limit, sample volume, titrant, titrate or uncertainty)',
   componentSpec: 'a component spec (total, free, pH, pressure, balance or excess)',
   sweepVariable: 'a sweep variable (pH, total F, temperature or pressure F)',
   titrateStatement: "'from A to B' or 'to pH X' after titrate",
@@ -63,6 +63,7 @@ class PoiseParser extends CstParser {
     { ALT: () => this.SUBRULE(this.sampleVolumeStatement) },
     { ALT: () => this.SUBRULE(this.titrantStatement) },
     { ALT: () => this.SUBRULE(this.titrateStatement) },
+    { ALT: () => this.SUBRULE(this.uncertaintyStatement) },
   ]
   private readonly activityAlts = [
     { ALT: () => this.CONSUME(T.IdealKeyword) },
@@ -101,6 +102,10 @@ class PoiseParser extends CstParser {
     { ALT: () => this.CONSUME(T.Formula) },
     { ALT: () => this.CONSUME(T.FitKeyword) },
   ]
+  private readonly seed = () => {
+    this.CONSUME(T.SeedKeyword)
+    this.CONSUME2(T.NumberLiteral)
+  }
   private readonly uncertainty = () => {
     this.CONSUME(T.PlusMinus)
     this.CONSUME2(T.NumberLiteral)
@@ -301,6 +306,14 @@ class PoiseParser extends CstParser {
   private titrateStatement = this.RULE('titrateStatement', () => {
     this.CONSUME(T.TitrateKeyword)
     this.OR(this.titrateAlts)
+  })
+
+  /** `uncertainty draws N [seed S]`: constants drawn N times for the bands of a sweep or titration. */
+  private uncertaintyStatement = this.RULE('uncertaintyStatement', () => {
+    this.CONSUME(T.UncertaintyKeyword)
+    this.CONSUME(T.DrawsKeyword)
+    this.CONSUME1(T.NumberLiteral)
+    this.OPTION(this.seed)
   })
 
   private sweepVariable = this.RULE('sweepVariable', () => {

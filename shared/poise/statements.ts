@@ -31,6 +31,7 @@ export type Statement = Base & (
   | { kind: 'limit'; dissolved: Tok; target: Tok; quantity: Quantity }
   | { kind: 'sampleVolume'; volume: Tok; quantity: Quantity }
   | { kind: 'titrant'; formula: Tok; quantity: Quantity }
+  | { kind: 'uncertainty'; draws: Quantity; seed: Quantity | null }
   | { kind: 'titrate'; start: Quantity | null; end: Quantity | null; step: Quantity | null; points: Quantity | null; targetPH: Quantity | null }
   | ({ kind: 'sweep' } & SweepAxis)
   | { kind: 'map'; x: SweepAxis; y: SweepAxis; by: Tok }
@@ -185,6 +186,10 @@ function toStatement(cst: CstNode, from: number, to: number): Statement {
       return { kind: 'sampleVolume', from, to, keyword: kw('SampleKeyword'), volume: kw('VolumeKeyword'), quantity: quantity(node(inner, 'quantity')) }
     case 'titrantStatement':
       return { kind: 'titrant', from, to, keyword: kw('TitrantKeyword'), formula: tok(token(inner, 'Formula')), quantity: quantity(node(inner, 'quantity')) }
+    case 'uncertaintyStatement': {
+      const seed = maybeToken(inner, 'SeedKeyword') ? numberQuantity(token(inner, 'Number', 1)) : null
+      return { kind: 'uncertainty', from, to, keyword: kw('UncertaintyKeyword'), draws: numberQuantity(token(inner, 'Number', 0)), seed }
+    }
     case 'titrateStatement': {
       const keyword = kw('TitrateKeyword')
       if (maybeToken(inner, 'PHKeyword')) {

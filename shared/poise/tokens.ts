@@ -123,6 +123,10 @@ export const AbbreviationKeyword = keyword('AbbreviationKeyword', 'abbreviation'
 export const FitKeyword = keyword('FitKeyword', 'fit')
 export const MapKeyword = keyword('MapKeyword', 'map')
 export const ByKeyword = keyword('ByKeyword', 'by')
+/** `uncertainty draws N [seed S]`: the Monte Carlo of a sweep or titration. */
+export const UncertaintyKeyword = keyword('UncertaintyKeyword', 'uncertainty')
+export const DrawsKeyword = keyword('DrawsKeyword', 'draws')
+export const SeedKeyword = keyword('SeedKeyword', 'seed')
 
 /** A chemical formula: starts with an upper-case letter; its inside is checked by formula.ts. */
 export const Formula = createToken({
@@ -143,6 +147,7 @@ export const KEYWORD_TOKENS: TokenType[] = [
   DaviesKeyword, DebyeHuckelKeyword, EnthalpyKeyword, CiteKeyword, FromKeyword, ToKeyword,
   StepKeyword, PointsKeyword, LogKeyword, LimitKeyword, DissolvedKeyword,
   SampleKeyword, VolumeKeyword, TitrantKeyword, TitrateKeyword, AbbreviationKeyword, FitKeyword, MapKeyword, ByKeyword,
+  UncertaintyKeyword, DrawsKeyword, SeedKeyword,
 ]
 
 /** Order matters: the first pattern that matches wins (keywords before Word, units before Formula). */

@@ -9,7 +9,7 @@
  * a plausible-looking curve through a value nobody computed.
  */
 
-import type { LimitWindow, Result, SweepResult } from '../types/result'
+import type { AnswerUncertainty, LimitWindow, Result, SweepResult } from '../types/result'
 import type { ModelLimit } from '../poise/model'
 import { dissolvedTotal, speciesShares, type StoichiometryModel } from './share'
 import { typesetFormula } from './typeset'
@@ -88,6 +88,12 @@ export interface DiagramSeries {
   labelAt: 'peak' | 'end' | 'start'
   /** One value per sweep point; NaN where the point failed. */
   values: number[]
+  /**
+   * A sweep with `uncertainty draws N`: the Monte Carlo's median and
+   * 2.5–97.5 % band at each point, in the series' own y units (NaN where a
+   * point has none); absent when the answer has no bands for this series.
+   */
+  band?: { median: number[]; low: number[]; high: number[] }
 }
 
 export interface DiagramData {
@@ -194,14 +200,20 @@ function distribution(sweep: SweepResult, model: StoichiometryModel, component: 
     )
 }
 
+/** The Monte Carlo band of a quantity along the sweep (`read` gives its uncertainty at a point), through `y`; undefined when no point has one. */
+export function bandAlong(sweep: SweepResult, read: (r: Result) => AnswerUncertainty | undefined, y: (v: number) => number = (v) => v): DiagramSeries['band'] {
+  const at = sweep.points.map((p) => (p.converged ? read(p) : undefined))
+  if (!at.some((u) => u?.low !== undefined)) return undefined
+  const pick = (key: 'median' | 'low' | 'high') => at.map((u) => { const v = u?.[key]; return v === undefined ? Number.NaN : y(v) })
+  return { median: pick('median'), low: pick('low'), high: pick('high') }
+}
+
 function logConcentration(sweep: SweepResult, model: StoichiometryModel): DiagramSeries[] {
-  return sweepSpecies(sweep, model).map((name) =>
-    seriesFor(
-      model,
-      name,
-      sweep.points.map((p) => valueAt(p, (r) => Math.log10(concentrationOf(r, name)))),
-    ),
-  )
+  return sweepSpecies(sweep, model).map((name) => {
+    const series = seriesFor(model, name, sweep.points.map((p) => valueAt(p, (r) => Math.log10(concentrationOf(r, name)))))
+    const band = bandAlong(sweep, (r) => r.species.find((s) => s.name === name)?.log10Uncertainty)
+    return band ? { ...series, band } : series
+  })
 }
 
 function solubility(sweep: SweepResult, model: StoichiometryModel, component: string): DiagramSeries[] {
@@ -215,6 +227,7 @@ function solubility(sweep: SweepResult, model: StoichiometryModel, component: st
       ...styleForIndex(0),
       labelAt: 'end',
       values: sweep.points.map((p) => valueAt(p, (r) => Math.log10(dissolvedTotal(r, model, component)))),
+      ...withBand(bandAlong(sweep, (r) => r.components.find((c) => c.name === component)?.dissolvedUncertainty, Math.log10)),
     },
     {
       key: 'total',
@@ -226,6 +239,8 @@ function solubility(sweep: SweepResult, model: StoichiometryModel, component: st
     },
   ]
 }
+
+const withBand = (band: DiagramSeries['band']) => (band ? { band } : {})
 
 /**
  * The hand method along the sweep: log10 of each component's factor
@@ -299,7 +314,8 @@ export function diagramData(sweep: SweepResult, model: StoichiometryModel, optio
   if ((options.kind === 'logConcentration' || options.kind === 'solubility') && scale !== MOLAR_SCALE) {
     shown = shown.map((s) => {
       const factor = (options.kind === 'solubility' ? scale.component(component) : scale.species(s.key)) ?? Number.NaN
-      return { ...s, values: s.values.map((v) => v + Math.log10(factor)) }
+      const shift = (values: number[]) => values.map((v) => v + Math.log10(factor))
+      return { ...s, values: shift(s.values), ...withBand(s.band && { median: shift(s.band.median), low: shift(s.band.low), high: shift(s.band.high) }) }
     })
   }
   if (options.kind !== 'distribution') yDomain = atLeastTwoDecades(shown)

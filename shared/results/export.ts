@@ -159,6 +159,7 @@ function curveCsv(variableHeader: string, values: number[], points: Result[], ex
     for (const s of point.solids) if (!solids.includes(s.name)) solids.push(s.name)
     for (const c of point.components) if (c.dissolved !== undefined && hasDissolvedTotal(c.name) && !components.includes(c.name)) components.push(c.name)
   }
+  const bands = bandColumns(points, names, components, solids, scale)
   const header = [
     variableHeader,
     'converged',
@@ -168,9 +169,10 @@ function curveCsv(variableHeader: string, values: number[], points: Result[], ex
     ...names.map((n) => `${n} (${scale.unit})`),
     ...components.map((n) => `${dissolvedText(n)} (${scale.componentUnit(n)})`),
     ...solids.flatMap((n) => [`${n} amount (mol/L)`, `${n} saturation index`]),
+    ...bands.headers,
     'reason',
   ]
-  const blanks = extra.headers.length + names.length + components.length + 2 * solids.length
+  const blanks = extra.headers.length + names.length + components.length + 2 * solids.length + bands.headers.length
   const rows = values.map((x, k) => {
     const point = points[k]
     if (!point || !point.converged) {
@@ -188,10 +190,37 @@ function curveCsv(variableHeader: string, values: number[], points: Result[], ex
       ...names.map((n) => scaled(byName.get(n), scale.species(n))),
       ...components.map((n) => scaled(dissolvedByName.get(n), scale.component(n))),
       ...solids.flatMap((n) => [csvNumber(solidByName.get(n)?.amount), csvNumber(solidByName.get(n)?.saturationIndex)]),
+      ...bands.cells(k, point),
       '',
     ]
   })
   return csvLines([header, ...rows])
+}
+
+/**
+ * A Monte Carlo's columns (`uncertainty draws N`), after the others so the
+ * usual columns keep their places: the median and the 2.5 and 97.5 %
+ * quantiles of the pH, of log10 c of every species, of each dissolved total
+ * (in the chosen unit) and of each saturation index. None without draws.
+ */
+function bandColumns(points: Result[], names: string[], components: string[], solids: string[], scale: UnitScale): ExtraColumns {
+  if (!points.some((p) => p.uncertainty?.method === 'monte-carlo')) return { headers: [], cells: () => [] }
+  const three = (what: string) => [`${what} median`, `${what} 2.5 %`, `${what} 97.5 %`]
+  const cells = (u: AnswerUncertainty | undefined, factor: number | null = 1) => [scaled(u?.median, factor), scaled(u?.low, factor), scaled(u?.high, factor)]
+  return {
+    headers: [
+      ...three('pH'),
+      ...names.flatMap((n) => three(`${n} log10 c`)),
+      ...components.flatMap((n) => three(`${dissolvedText(n)} (${scale.componentUnit(n)})`)),
+      ...solids.flatMap((n) => three(`${n} saturation index`)),
+    ],
+    cells: (_k, point) => [
+      ...cells(point.pHUncertainty),
+      ...names.flatMap((n) => cells(point.species.find((s) => s.name === n)?.log10Uncertainty)),
+      ...components.flatMap((n) => cells(point.components.find((c) => c.name === n)?.dissolvedUncertainty, scale.component(n))),
+      ...solids.flatMap((n) => cells(point.solids.find((s) => s.name === n)?.saturationIndexUncertainty)),
+    ],
+  }
 }
 
 /** The JSON export: the object as the solver produced it, indented for reading. */

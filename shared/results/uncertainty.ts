@@ -11,10 +11,11 @@ export function hasUncertainty(result: Result | null | undefined): boolean {
   return result?.uncertainty !== undefined
 }
 
-/** `± 0.05` for a log10 quantity (two decimals, three below 0.01); a dash when there is none. */
+/** `± 0.05` for a log10 quantity (two decimals; two significant digits below 0.01, `± 0` for none); a dash when there is none. */
 export function formatLogUncertainty(u: AnswerUncertainty | undefined): string {
   if (!u || !Number.isFinite(u.sigma)) return '—'
-  return `± ${formatFixed(u.sigma, u.sigma > 0 && u.sigma < 0.01 ? 3 : 2)}`
+  if (u.sigma === 0) return '± 0'
+  return `± ${u.sigma < 0.01 ? String(Number(u.sigma.toPrecision(2))) : formatFixed(u.sigma, 2)}`
 }
 
 /** `± 1.2e-5` for a concentration, times a unit factor; a dash when there is none or the unit cannot take it. */
@@ -27,6 +28,20 @@ export function formatAmountUncertainty(u: AnswerUncertainty | undefined, factor
 export function mainContributorText(u: AnswerUncertainty | undefined): string | null {
   if (!u?.main) return null
   return `mostly ${u.main.reaction} (${formatPercent(u.main.share, 0)} of the variance)`
+}
+
+/**
+ * What a ± cell says on hover: the constant behind most of it (linear), or
+ * the Monte Carlo's band and median (`factor` converts a concentration).
+ */
+export function uncertaintyDetail(u: AnswerUncertainty | undefined, factor: number | null = 1, amount = false): string | null {
+  if (!u) return null
+  if (u.low !== undefined && u.high !== undefined && u.median !== undefined) {
+    if (factor === null) return null
+    const f = (v: number) => (amount ? formatScientific(v * factor, 3) : formatFixed(v, 2))
+    return `95 % of the draws: ${f(u.low)} to ${f(u.high)}; median ${f(u.median)}`
+  }
+  return mainContributorText(u)
 }
 
 /** How the ± were found, in one sentence for a table's note. */

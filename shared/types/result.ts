@@ -41,6 +41,8 @@ export interface UncertaintySummary {
   samples?: number
   seed?: number
   failed?: number
+  /** Monte Carlo: set when fewer draws were made than asked (the time budget ran out), saying how many. */
+  note?: string
 }
 
 export interface SpeciesResult {

@@ -81,3 +81,27 @@ describe('the ± of a single solve in the tables', () => {
     expect(resultCsv(solved(false))).not.toContain('±')
   })
 })
+
+describe('the Monte Carlo band of a titration curve', () => {
+  it('shades the pH band under the curve and says how many draws made it', async () => {
+    const ResultsTitration = (await import('../../../components/results/ResultsTitration.vue')).default
+    const { titration } = await import('../../../server/solver/index')
+    // Acetic acid (pKa 4.76 from memory, ± invented) titrated with caustic soda.
+    const curve = titration(compile(`system "Vinegar titrated"
+component H+ balance
+component CH3COO- total 10 mmol/L
+component Na+ total 0 mol/L
+reaction H2O <=> H+ + OH- pKw 14.00 cite "from memory"
+reaction CH3COOH <=> CH3COO- + H+ pKa 4.76 ± 0.05 cite "from memory"
+sample volume 25 mL
+titrant Na+ 0.1 mol/L
+titrant OH- 0.1 mol/L
+titrate from 0 to 3 mL points 13
+uncertainty draws 40 seed 2
+`).model!)
+    const wrapper = mount(ResultsTitration, { props: { titration: curve, fileName: 'demo/vinegar' } })
+    expect(wrapper.findAll('[data-test="titration-band"]').length).toBeGreaterThan(0)
+    expect(wrapper.find('[data-test="titration-band-note"]').text()).toContain('Monte Carlo over the 1 constant with a ±: 40 draws (seed 2)')
+    expect(wrapper.text()).toMatch(/pH \d\.\d\d \(95 %: \d\.\d\d–\d\.\d\d\)/)
+  })
+})

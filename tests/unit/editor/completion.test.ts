@@ -72,6 +72,13 @@ describe('Poise completion', () => {
     expect(offered('reaction NH4+ <=> NH3 + H+ pKa 9.24 |')).toEqual(['±', '+-', 'dH', 'cite', 'fit'])
   })
 
+  it('offers draws and seed in `uncertainty draws N seed S`', () => {
+    expect(offered('unc|')).toContain('uncertainty')
+    expect(offered('uncertainty |')).toEqual(['draws'])
+    expect(offered('uncertainty draws 200 |')).toEqual(['seed'])
+    expect(offered('uncertainty draws 200 seed 7 |')).toBeNull()
+  })
+
   it('offers the uncertainty only right after the value, and each clause once', () => {
     expect(offered('reaction NH4+ <=> NH3 + H+ pKa 9.24 ± 0.05 |')).toEqual(['dH', 'cite', 'fit'])
     expect(offered('reaction NH4+ <=> NH3 + H+ pKa 9.24 +- 0.05 fit |')).toEqual(['dH', 'cite'])

@@ -171,3 +171,29 @@ describe('the model diff of an uncertainty', () => {
     expect(diffModels(model('pKa 4.76 ± 0.03 cite "demo"'), model('pKa 4.76 +- 0.03 cite "demo"'))).toEqual([])
   })
 })
+
+describe('uncertainty draws N [seed S]', () => {
+  const swept = (line: string, study = 'sweep total Na+ from 5 mmol/L to 15 mmol/L points 11') => acetate('pKa 4.76 ± 0.02 cite "demo"', `${study}\n${line}`)
+
+  it('puts the draws and the seed into the model (seed 1 when none is given)', () => {
+    expect(compile(swept('uncertainty draws 200 seed 7')).model!.monteCarlo).toEqual({ draws: 200, seed: 7, line: 8 })
+    expect(compile(swept('uncertainty draws 200')).model!.monteCarlo).toEqual({ draws: 200, seed: 1, line: 8 })
+    expect(compile(swept('')).model!.monteCarlo).toBeUndefined()
+  })
+
+  it('refuses too few or too many draws, a bad seed, and draws × points beyond the limit, saying what to write', () => {
+    expect(errors(swept('uncertainty draws 10'))).toEqual([{ code: 'P086', message: 'draws is a whole number from 40 to 2000 (fewer make the 2.5–97.5 % band mean little, more take long for bands that no longer move): write uncertainty draws 200' }])
+    expect(errors(swept('uncertainty draws 100.5'))[0]!.code).toBe('P086')
+    expect(errors(swept('uncertainty draws 100 seed -3'))).toEqual([{ code: 'P086', message: 'a seed is a whole number from 0 to 2147483647: write seed 7' }])
+    expect(errors(swept('uncertainty draws 2000', 'sweep total Na+ from 5 mmol/L to 15 mmol/L points 101'))).toEqual([{ code: 'P086', message: '2000 draws of 101 points are 202000 solves, more than the 40000 one run may make: use at most 396 draws, or fewer points' }])
+    expect(errors(swept('uncertainty draws 100\nuncertainty draws 50'))[0]!.code).toBe('P004')
+  })
+
+  it('warns when the line can do nothing: no sweep or curve, or no constant with a ±', () => {
+    const single = compile(acetate('pKa 4.76 ± 0.02 cite "demo"', 'uncertainty draws 200')).diagnostics
+    expect(single.map((d) => [d.code, d.message])).toEqual([['W112', 'uncertainty draws applies to a sweep or a titration curve, not to a map; a single solve (or a dose) gives its ± by linear propagation: the line has no effect here']])
+    const plain = compile(acetate('pKa 4.76 cite "demo"', 'sweep total Na+ from 5 mmol/L to 15 mmol/L points 11\nuncertainty draws 200')).diagnostics
+    expect(plain.map((d) => d.code)).toEqual(['W112'])
+    expect(plain[0]!.message).toContain('no constant carries a ±')
+  })
+})

@@ -154,3 +154,17 @@ describe('linear propagation of the constants’ ± to one solve', () => {
     expect(r.species.some((s) => s.log10Uncertainty !== undefined)).toBe(false)
   })
 })
+
+describe('the ± in the command line’s tables', () => {
+  it('adds ± columns and says how the ± were found, only when a constant carries one', async () => {
+    const { formatResultTable } = await import('../../../server/solver/table')
+    const m = model(monoprotic)
+    const text = formatResultTable(m, solve(m))
+    expect(text).toMatch(/^pH \d\.\d{3} ± 0\.05 /m)
+    expect(text).toContain("± is one standard uncertainty from the 2 constants with a ±, propagated linearly through the solver's sensitivities.")
+    expect(text).toMatch(/^pH ± mostly CH3COOH <=> CH3COO- \+ H\+ \(\d+ % of the variance\)$/m)
+    expect(text.split('\n').find((l) => l.startsWith('species'))).toContain('± log10')
+    const plain = model(monoprotic.replace(' ± 0.01', '').replace(' ± 0.05', ''))
+    expect(formatResultTable(plain, solve(plain))).not.toContain('±')
+  })
+})
