@@ -1,8 +1,8 @@
 /**
  * Poise text for the benchmark: the 8-component / 60-species / 4-solid
- * plating-rinse system the design's targets name, and a generated 200-line
- * file for the compile figure. Constants are demo values (loosely after
- * constants.md, from memory), not data.
+ * plating-rinse system the speed targets name, and a generated 200-line
+ * file for the compile figure. Constants are demo values (loosely after values
+ * from memory), not data.
  */
 
 const METALS = ['Cu', 'Zn', 'Ni'] as const

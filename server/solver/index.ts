@@ -26,7 +26,7 @@ import { attachLinearUncertainty } from './uncertainty'
 import { monteCarloBands } from './montecarlo'
 
 /** Stored with every run, so a result can be traced to the solver that made it. */
-export const SOLVER_VERSION = '1.3.0'
+export const SOLVER_VERSION = '1.3.1'
 
 /** Hard ceilings the server may rely on whatever a caller asks for. */
 export const SOLVER_LIMITS = { maxIterations: 2000, timeBudgetMs: 60_000 } as const

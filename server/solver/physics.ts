@@ -1,30 +1,16 @@
 /**
- * Temperature dependence: van 't Hoff for the constants, and the Debye–Hückel
+ * Temperature dependence of the activity model: the Debye–Hückel
  * parameters A(T) and B(T) computed from the physics of a dielectric
  * continuum with the water properties below (so they stay right away from
- * 25 °C instead of being frozen at a tabulated value).
+ * 25 °C instead of being frozen at a tabulated value). van 't Hoff for the
+ * constants, with the one gas constant, is `vantHoff` in shared/poise/thermo.ts.
  */
-
-/** Molar gas constant, J/(mol K) (CODATA 2018, exact by SI definition of k and N_A). */
-export const GAS_CONSTANT = 8.314462618
+import { KELVIN_OFFSET } from '../../shared/poise/thermo'
 
 const ELEMENTARY_CHARGE = 1.602176634e-19 // C, exact (SI 2019)
 const VACUUM_PERMITTIVITY = 8.8541878128e-12 // F/m (CODATA 2018)
 const BOLTZMANN = 1.380649e-23 // J/K, exact (SI 2019)
 const AVOGADRO = 6.02214076e23 // 1/mol, exact (SI 2019)
-
-export const KELVIN_OFFSET = 273.15
-
-/**
- * log10 K at temperature tC from its value at tRefC and the standard reaction
- * enthalpy dH (kJ/mol), assuming dH constant over the range (van 't Hoff):
- * log10 K(T) = log10 K(T0) − ΔH/(R ln 10) · (1/T − 1/T0).
- */
-export function vantHoff(logKRef: number, dHkJ: number, tC: number, tRefC: number): number {
-  const T = tC + KELVIN_OFFSET
-  const T0 = tRefC + KELVIN_OFFSET
-  return logKRef - ((dHkJ * 1000) / (GAS_CONSTANT * Math.LN10)) * (1 / T - 1 / T0)
-}
 
 /**
  * Relative permittivity of liquid water at 1 atm, 0–100 °C: the cubic of

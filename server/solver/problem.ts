@@ -7,7 +7,8 @@ import type { Model } from '../../shared/poise/model'
 import { ACTIVITY_DAVIES, ACTIVITY_DEBYE_HUCKEL, ACTIVITY_IDEAL, type ActivityCode } from './activity'
 import { ionSizeAngstrom } from '../../shared/poise/ionSize'
 import { MIN_NONZERO_TOTAL } from '../../shared/poise/limits'
-import { debyeHuckelA, debyeHuckelB, vantHoff } from './physics'
+import { debyeHuckelA, debyeHuckelB } from './physics'
+import { vantHoff } from '../../shared/poise/thermo'
 
 /** Component roles in the equations. */
 export const MODE_TOTAL = 0 // unknown, mass balance

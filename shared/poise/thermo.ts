@@ -3,7 +3,8 @@
 /** Molar gas constant, J/(mol·K): exact in the 2019 SI (N_A × k_B). */
 export const GAS_CONSTANT = 8.31446261815324
 export const REFERENCE_TEMPERATURE_C = 25
-const KELVIN = 273.15
+/** 0 °C in kelvin. */
+export const KELVIN_OFFSET = 273.15
 
 /**
  * van 't Hoff with a constant reaction enthalpy:
@@ -12,7 +13,7 @@ const KELVIN = 273.15
  */
 export function vantHoff(logKRef: number, dHkJ: number | null, temperatureC: number, refC = REFERENCE_TEMPERATURE_C): number {
   if (dHkJ === null || dHkJ === 0 || temperatureC === refC) return logKRef
-  const t = temperatureC + KELVIN
-  const t0 = refC + KELVIN
+  const t = temperatureC + KELVIN_OFFSET
+  const t0 = refC + KELVIN_OFFSET
   return logKRef - ((dHkJ * 1000) / (GAS_CONSTANT * Math.LN10)) * (1 / t - 1 / t0)
 }

@@ -33,7 +33,7 @@ describe('results of the zinc sulfide dosing example', () => {
   })
 
   it('closes the sulfide mass balance: dissolved plus ZnS equals the 1.0 mmol/L dosed', () => {
-    // Mass balance of a total component (solver.md): Σ ν c (aqueous) + Σ ν n (solids) = T.
+    // Mass balance of a total component (the definition of a total, common practice): Σ ν c (aqueous) + Σ ν n (solids) = T.
     const zns = model.solids.findIndex((s) => s.name === 'ZnS(s)')
     const hs = model.components.findIndex((c) => c.name === 'HS-')
     for (const point of converged) {

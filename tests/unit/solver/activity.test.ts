@@ -3,7 +3,8 @@
  */
 import { describe, expect, it } from 'vitest'
 import { solve, sweep } from '../../../server/solver/index'
-import { debyeHuckelA, debyeHuckelB, vantHoff, waterDensity, waterPermittivity } from '../../../server/solver/physics'
+import { debyeHuckelA, debyeHuckelB, waterDensity, waterPermittivity } from '../../../server/solver/physics'
+import { vantHoff } from '../../../shared/poise/thermo'
 import { ionSizeAngstrom } from '../../../shared/poise/ionSize'
 import { buildModel, hydroxide } from './modelBuilder'
 
@@ -114,11 +115,11 @@ describe('temperature', () => {
   // van 't Hoff: log10 K(T) = log10 K(T0) − ΔH/(R ln 10) (1/T − 1/T0), the
   // integrated form with constant ΔH (any physical-chemistry text).
   it('moves every constant by van ’t Hoff along a temperature sweep', () => {
-    const R = 8.314462618
+    const R = 8.31446261815324 // J/(mol K): N_A × k_B, both exact in the 2019 SI (BIPM SI Brochure, 9th ed.)
     const temps = [5, 15, 25, 40, 60]
     const model = buildModel({
       components: [{ name: 'H+', charge: 1, mode: 'total', value: 0 }],
-      // Water: pKw 14.00, ΔH(dissociation) = 55.84 kJ/mol (constants.md, from memory):
+      // Water: pKw 14.00, ΔH(dissociation) = 55.84 kJ/mol (from memory):
       // formation of OH- from H+ is the dissociation, logK −14.
       species: [{ ...hydroxide(14), dH: 55.84 }],
       sweep: { variable: 'temperature', component: null, values: temps },

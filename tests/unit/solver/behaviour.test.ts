@@ -9,7 +9,7 @@ import type { Model } from '../../../shared/poise/model'
 import { buildModel, hydroxide, species } from './modelBuilder'
 import { hasNonFinite, verifyResult } from './verify'
 
-// Carbonate with calcium (constants.md, from memory): pKa 6.35, 10.33; calcite pKsp 8.48.
+// Carbonate with calcium (from memory): pKa 6.35, 10.33; calcite pKsp 8.48.
 function calciumCarbonate(extra: Partial<Parameters<typeof buildModel>[0]> = {}): Model {
   return buildModel({
     components: [
@@ -105,7 +105,7 @@ describe('competing solids', () => {
 })
 
 describe('gases and fixed pressures', () => {
-  // Henry's law: [H2CO3*] = KH pCO2 with log KH −1.47 (constants.md, from memory).
+  // Henry's law: [H2CO3*] = KH pCO2 with log KH −1.47 (from memory).
   it('reports the partial pressure of a gas that is not a component', () => {
     const model = buildModel({
       components: [{ name: 'H+', charge: 1, mode: 'pH', value: 5 }, { name: 'CO3^2-', charge: -2, mode: 'total', value: 1e-3 }],

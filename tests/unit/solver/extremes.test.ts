@@ -8,8 +8,8 @@ import { buildModel, hydroxide, species } from './modelBuilder'
 import { hasNonFinite, verifyResult } from './verify'
 
 describe('extreme ranges', () => {
-  // A 2:1 sulfide-like salt M2S(s) with pKsp 50 (constants.md lists ~50 for
-  // Ag2S, from memory; here with S^2- itself as the component). With an excess
+  // A 2:1 sulfide-like salt M2S(s) with pKsp 50 (about 50 for Ag2S,
+  // from memory; here with S^2- itself as the component). With an excess
   // of M the free S^2- follows from Ksp = [M]²[S]: [S] = Ksp / [M]² (the
   // solubility product, common practice).
   it.each([1e-12, 1e-6, 1e-3, 1, 5])('Ksp 1e-50 with the metal total %s mol/L', (MT) => {

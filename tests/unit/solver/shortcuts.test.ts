@@ -10,7 +10,7 @@ import type { Model } from '../../../shared/poise/model'
 import { buildModel, hydroxide, species } from './modelBuilder'
 import { verifyResult } from './verify'
 
-// pKsp of Cu(OH)2 19.66 and of Zn(OH)2 ~16.5 (constants.md, from memory);
+// pKsp of Cu(OH)2 19.66 and of Zn(OH)2 ~16.5 (from memory);
 // pKw 14. Written as formation from the components: M^2+ − 2 H+ with
 // log K = pKsp − 2 pKw.
 const CU_PKSP = 19.66
