@@ -1,13 +1,7 @@
 // Types of scripts/fake-smtp.mjs for the TypeScript that imports it (tests' global setup).
-export interface CapturedMail {
-  id: string
-  receivedAt: string
-  from: string
-  to: string[]
-  subject: string
-  text: string
-  html: string | null
-}
+import type { CapturedMail } from '../shared/types/mail'
+
+export type { CapturedMail }
 
 export interface FakeSmtp {
   port: number

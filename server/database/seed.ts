@@ -13,6 +13,7 @@ import type { Database } from './connect'
 import * as tables from './schema'
 import type { LabRole } from '../../shared/utils/roles'
 import { starterSource } from '../../shared/utils/lab-schemas'
+import { titleOf } from '../../shared/poise/title'
 import { suggestSlug } from '../../shared/utils/slugs'
 
 /** Local-only password of every demo account (documented in the README). */
@@ -41,7 +42,7 @@ export function readExampleSystems(folder: string): ExampleSystem[] {
     .map((name) => {
       const source = readFileSync(join(folder, name), 'utf8')
       const slug = suggestSlug(basename(name, '.poise'))
-      const title = /^\s*system\s+"([^"]+)"/m.exec(source)?.[1] ?? basename(name, '.poise')
+      const title = titleOf(source) ?? basename(name, '.poise')
       return { slug, title, source }
     })
     .filter((example) => example.slug.length >= 2)

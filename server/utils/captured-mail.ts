@@ -5,9 +5,7 @@
  */
 import { readdir, readFile } from 'node:fs/promises'
 import { join } from 'node:path'
-import type { CapturedMail } from '../../scripts/fake-smtp.mjs'
-
-export type { CapturedMail }
+import type { CapturedMail } from '../../shared/types/mail'
 
 /** The folder of captured mail, or null when the server does not capture mail. */
 export function mailCaptureDir(): string | null {

@@ -91,12 +91,6 @@ function decodeUtf8Text(data: Buffer, filename: string): string {
   return text.replace(/^\uFEFF/, '').replace(/\r\n?/g, '\n')
 }
 
-/** The title a Poise text gives itself on its `system "TITLE"` line, if any. */
-export function titleInSource(source: string): string | null {
-  const match = /^\s*system\s+"((?:[^"\\\n]|\\.)+)"/m.exec(source)
-  return match ? match[1]!.replace(/\\(.)/g, '$1').trim() || null : null
-}
-
 /** Checks the text fields of an upload with a zod schema; a 400 in the shape of validateBody's. */
 export function validateFields<S extends z.ZodType>(schema: S, fields: Record<string, string>): z.infer<S> {
   const present = Object.fromEntries(Object.entries(fields).filter(([, value]) => value.trim() !== ''))

@@ -3,6 +3,7 @@
  */
 import { z } from 'zod'
 import { LAB_ROLES } from './roles'
+import { quoteTitle } from '../poise/title'
 
 /** Lower-case letters, digits and single dashes between them: the piece of a URL. */
 export const SLUG_PATTERN = /^[a-z0-9]+(?:-[a-z0-9]+)*$/
@@ -60,6 +61,5 @@ export const MemberParams = z.object({
 
 /** The text a new system starts from when none is given: valid Poise with one comment. */
 export function starterSource(title: string): string {
-  const safeTitle = title.replace(/["\\\n\r]/g, ' ').trim()
-  return `system "${safeTitle}"\n\n# Declare components, species and conditions below.\n`
+  return `system ${quoteTitle(title)}\n\n# Declare components, species and conditions below.\n`
 }

@@ -6,6 +6,7 @@
 import { LabParams, SlugSchema, TITLE_MAX_LENGTH } from '#shared/utils/lab-schemas'
 import { ImportSystemFields, ImportedSystem } from '#shared/utils/upload-schemas'
 import { suggestSlug } from '#shared/utils/slugs'
+import { titleOf } from '#shared/poise/title'
 
 export default defineEventHandler(async (event) => {
   const params = validateParams(event, LabParams)
@@ -13,7 +14,7 @@ export default defineEventHandler(async (event) => {
   const upload = await readPoiseUpload(event)
   const fields = validateFields(ImportSystemFields, upload.fields)
   // A title taken from the file (its `system` line or its name) is cut to fit; one sent was checked above.
-  const title = fields.title || (titleInSource(upload.source) || upload.filename.replace(/\.[^.]+$/, '')).slice(0, TITLE_MAX_LENGTH).trim()
+  const title = fields.title || (titleOf(upload.source) || upload.filename.replace(/\.[^.]+$/, '')).slice(0, TITLE_MAX_LENGTH).trim()
   const slug = fields.slug ?? suggestSlug(title)
   if (!SlugSchema.safeParse(slug).success) {
     throw createError({ statusCode: 400, message: `slug: choose an address for the system (lower-case letters, digits and dashes); "${title}" does not give one`, data: { issues: [{ path: 'slug', message: 'Choose an address, for example rinse-tank' }] } })
