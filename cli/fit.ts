@@ -16,6 +16,7 @@ import { formatWithError } from '../shared/fit/constants'
 import { fitConstants } from '../server/solver/fit'
 import type { FitResult } from '../shared/types/fit'
 import { EXIT } from './exit-codes'
+import { diagnosticLine } from './diagnostic-line'
 
 export function runFit(file: string, dataFile: string, options: { json: boolean; weights: string[] }): number {
   for (const f of [file, dataFile]) {
@@ -31,7 +32,7 @@ export function runFit(file: string, dataFile: string, options: { json: boolean;
   const source = readFileSync(file, 'utf8')
   const compiled = compile(source)
   const errors = compiled.diagnostics.filter((d) => d.severity === 'error')
-  for (const d of errors) console.error(`${file}:${d.range.line}:${d.range.column}: ${d.severity} ${d.code}: ${d.message}`)
+  for (const d of errors) console.error(diagnosticLine(file, d))
   if (errors.length || !compiled.model) return EXIT.badInput
   const parsed = parseDataSet(readFileSync(dataFile, 'utf8'))
   if (!parsed.ok) {

@@ -1,13 +1,14 @@
 /**
  * The commands on local files: `check FILE… [--json]` prints diagnostics
  * (FILE:LINE:COL: severity CODE: message), `solve` is the solver's own
- * command (server/solver/cli.ts). Loaded only when one of them runs.
+ * command (cli/solve.ts). Loaded only when one of them runs.
  */
 import { existsSync, readFileSync } from 'node:fs'
 import { compile } from '../shared/poise/index'
 import { EXIT } from './exit-codes'
+import { diagnosticLine } from './diagnostic-line'
 
-export { runSolveCommand } from '../server/solver/cli'
+export { runSolveCommand } from './solve'
 
 export function check(files: string[], json: boolean): number {
   let worst: number = EXIT.ok
@@ -17,7 +18,7 @@ export function check(files: string[], json: boolean): number {
     const result = compile(readFileSync(file, 'utf8'))
     if (result.diagnostics.some((d) => d.severity === 'error')) worst = EXIT.badInput
     if (json) report.push({ file, diagnostics: result.diagnostics })
-    else for (const d of result.diagnostics) console.log(`${file}:${d.range.line}:${d.range.column}: ${d.severity} ${d.code}: ${d.message}`)
+    else for (const d of result.diagnostics) console.log(diagnosticLine(file, d))
   }
   if (json) console.log(JSON.stringify(files.length === 1 ? report[0] ?? {} : report, null, 2))
   return worst

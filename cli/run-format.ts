@@ -5,7 +5,7 @@
  */
 import { compile, type Model } from '../shared/poise/index'
 import type { AnswerKind, MapAnswer, Result, SweepResult, TitrationResult } from '../shared/types/result'
-import { formatMapTable, formatResultTable, formatSweepTable, formatTitrationTable } from '../server/solver/table'
+import { formatMapTable, formatResultTable, formatSweepTable, formatTitrationTable } from './tables'
 import { OUTPUT_UNITS, parseOutputUnit, unitScale, type OutputUnit } from '../shared/results/units'
 import { CliError, EXIT } from './exit-codes'
 

@@ -25,7 +25,7 @@ import { diagramPrefsKey, parseDiagramPrefs } from '../shared/results/diagramPre
 import { labRoleAtLeast } from '../shared/utils/roles'
 import { RUN_STORE_ROLE } from '../shared/utils/run-rules'
 import type { ResolveLibrary } from '../shared/utils/library-preload'
-import { labLibraryPreloader, resolverFrom } from './libraryTexts'
+import { labLibraryPreloader, resolverFrom } from '../utils/libraryTexts'
 import { browserStorage } from '../utils/storage'
 import { BINARY_ANSWER_TYPE, decodeBinaryAnswer } from '../shared/results/binary-answer'
 import { sweepView, type SweepColumns } from '../shared/results/sweep-columns'

@@ -11,7 +11,7 @@ import { canPrecipitate, saturationIndex, solveWithPhases, SUPERSATURATION_TOLER
 import { RESIDUAL_TOLERANCE } from './newton'
 import { computeSpecies } from './equations'
 import { MIN_NONZERO_TOTAL, MODE_BALANCE, MODE_TOTAL, buildProblem, setComponent, setTemperature, type Problem } from './problem'
-import { buildResult } from './report'
+import { buildResult } from './result'
 import { limitWindows } from './limits'
 import { shortcutOf } from '../../shared/results/shortcut'
 

@@ -18,7 +18,7 @@
  * - a word that is neither an element symbol nor a defined abbreviation is
  *   P011, whose message offers the abbreviation line.
  */
-import type { Reporter } from './report'
+import type { Reporter } from './reporter'
 import type { Statement } from './statements'
 import { isElement } from './elements'
 import { ABBREVIATION_NAME, formatCharge, parseFormula, type Abbreviation, type Abbreviations } from './formula'

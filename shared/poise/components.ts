@@ -1,7 +1,7 @@
 /** `component` statements: formula, mode and value checks, and independence. */
 import type { ModelComponent } from './model'
 import type { ParsedFormula } from './formula'
-import type { Reporter } from './report'
+import type { Reporter } from './reporter'
 import type { Statement } from './statements'
 import { unitInfo, UNIT_HINTS } from './units'
 import { checkRange } from './limits'

@@ -5,7 +5,7 @@
  * dissolved total, a mass unit with its formula mass).
  */
 import type { ModelComponent, ModelLimit } from './model'
-import type { Reporter } from './report'
+import type { Reporter } from './reporter'
 import type { Statement } from './statements'
 import { ATOMIC_WEIGHTS, isElement } from './elements'
 import { parseFormula, type Abbreviations } from './formula'

@@ -10,7 +10,7 @@
  * arithmetic can carry) and may have a usual range (outside it a warning: the
  * number is possible but rarely meant). Every message states the range.
  */
-import type { Reporter } from './report'
+import type { Reporter } from './reporter'
 
 export interface Bound {
   /** Lower end; `open` excludes it (a value must be above it). */

@@ -5,7 +5,7 @@
  * the grid must keep to MAX_MAP_CELLS, and a map is the file's one study.
  */
 import type { ModelComponent, ModelMap } from './model'
-import type { Reporter } from './report'
+import type { Reporter } from './reporter'
 import type { Statement } from './statements'
 import { compileSweep } from './sweep'
 import { formatNumber, MAX_MAP_CELLS } from './limits'

@@ -6,7 +6,7 @@
  */
 import type { ConstantKind } from './model'
 import type { ParsedFormula } from './formula'
-import type { Reporter } from './report'
+import type { Reporter } from './reporter'
 import type { Statement, Tok } from './statements'
 import { formatNumber } from './limits'
 

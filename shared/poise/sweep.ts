@@ -1,6 +1,6 @@
 /** `sweep` statements: checks and the list of values, in model units. */
 import type { ModelComponent, ModelSweep } from './model'
-import type { Reporter } from './report'
+import type { Reporter } from './reporter'
 import type { Quantity, SweepAxis } from './statements'
 import { parseFormula, type Abbreviations } from './formula'
 import { convert, unitInfo, UNIT_HINTS, type Dimension } from './units'

@@ -4,7 +4,7 @@
  * answer reports them) and in L for the sample.
  */
 import type { ModelComponent, ModelTitrant, ModelTitration } from './model'
-import type { Reporter } from './report'
+import type { Reporter } from './reporter'
 import type { Statement, Quantity, Tok } from './statements'
 import type { Known } from './reactions'
 import { parseFormula, type Abbreviations } from './formula'

@@ -4,7 +4,7 @@
  * text itself (they are small). Public: the examples pages are readable
  * signed out.
  */
-import { readExamples } from './[example].get'
+import { readExamples } from '../../utils/examples'
 
 export default defineEventHandler(async () => {
   return { examples: await readExamples() }

@@ -1,6 +1,6 @@
 // Which run and which revision's text the printable report shows.
 import { describe, expect, it, vi } from 'vitest'
-import { loadReport, reportChoice } from '../../../stores/report'
+import { loadReport, reportChoice } from '../../../utils/reportData'
 import type { RunView } from '../../../shared/types/system'
 import { revisionFixture, runFixture } from '../../fixtures/answers'
 

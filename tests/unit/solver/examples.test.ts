@@ -7,7 +7,7 @@
 import { readdirSync, readFileSync } from 'node:fs'
 import { join } from 'node:path'
 import { describe, expect, it, vi } from 'vitest'
-import { runSolveCommand } from '../../../server/solver/cli'
+import { runSolveCommand } from '../../../cli/solve'
 import { solve, sweep } from '../../../server/solver/index'
 // The compiler's own van 't Hoff (shared/poise/thermo.ts), not the solver's: the check stays independent.
 import { vantHoff } from '../../../shared/poise/index'

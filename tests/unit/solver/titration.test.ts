@@ -6,7 +6,7 @@
 import { readFileSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'
 import { describe, expect, it, vi } from 'vitest'
-import { runSolveCommand } from '../../../server/solver/cli'
+import { runSolveCommand } from '../../../cli/solve'
 import { compile } from '../../../shared/poise/index'
 import type { Model } from '../../../shared/poise/model'
 import type { TitrationCurveResult, TitrationDoseResult } from '../../../shared/types/result'

@@ -8,7 +8,7 @@
  */
 import { COMPILER_VERSION } from '#shared/poise/version'
 import type { ExampleResult } from '#shared/types/examples'
-import { Params, readExamples } from '../[example].get'
+import { ExampleParams as Params, readExamples } from '../../../utils/examples'
 
 /** The pool's account for solves nobody signed in for. */
 const SHOWCASE_ACCOUNT = 0

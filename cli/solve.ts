@@ -1,6 +1,6 @@
 /**
  * `npm run -s cli -- solve FILE.poise [--json] [--units UNIT] [--as-element]`,
- * called by cli/local.ts. `--units` (mol/L, mmol/L, µmol/L or umol/L,
+ * called by cli/local.ts (the solver runs here, in this process). `--units` (mol/L, mmol/L, µmol/L or umol/L,
  * mg/L, µg/L or ug/L) sets the unit of the tables; `--as-element` counts
  * components in a mass unit as their element (Ni as Ni, NH3 as N). The JSON
  * is the Result as the solver wrote it, always in mol/L; for a titration
@@ -10,12 +10,13 @@
  * 2 the file could not be read or compiled (diagnostics on stderr).
  */
 import { existsSync, readFileSync } from 'node:fs'
-import { compile } from '../../shared/poise/index'
-import type { Result, SweepResult } from '../../shared/types/result'
-import { SOLVER_LIMITS, solve, solveMap, sweep, titration } from './index'
-import { toMapResult } from '../../shared/results/map-columns'
-import { formatMapTable, formatResultTable, formatSweepTable, formatTitrationTable } from './table'
-import { OUTPUT_UNITS, parseOutputUnit, unitScale } from '../../shared/results/units'
+import { compile } from '../shared/poise/index'
+import type { Result, SweepResult } from '../shared/types/result'
+import { SOLVER_LIMITS, solve, solveMap, sweep, titration } from '../server/solver/index'
+import { toMapResult } from '../shared/results/map-columns'
+import { formatMapTable, formatResultTable, formatSweepTable, formatTitrationTable } from './tables'
+import { diagnosticLine } from './diagnostic-line'
+import { OUTPUT_UNITS, parseOutputUnit, unitScale } from '../shared/results/units'
 
 const USAGE = 'usage: npm run -s cli -- solve FILE.poise [--json] [--units UNIT] [--as-element]'
 
@@ -46,7 +47,7 @@ export async function runSolveCommand(args: string[]): Promise<number> {
   }
   const compiled = compile(readFileSync(file, 'utf8'))
   for (const d of compiled.diagnostics) {
-    console.error(`${file}:${d.range.line}:${d.range.column}: ${d.severity} ${d.code}: ${d.message}`)
+    console.error(diagnosticLine(file, d))
   }
   const model = compiled.model
   if (!model || compiled.diagnostics.some((d) => d.severity === 'error')) return 2

@@ -9,7 +9,7 @@
 import { findUses } from '../shared/poise/index'
 import { labLibraryPreloader, type GetJson, type LibraryTexts } from './libraryTexts'
 import type { RevisionView, RunListAnswer, RunView } from '../shared/types/system'
-import { latestRunOf } from './workbench'
+import { latestRunOf } from '../stores/workbench'
 
 export interface ReportChoice {
   run: number | null

@@ -2,14 +2,14 @@
  * Plain-text tables of a Result and of a sweep, for the CLI: columns aligned,
  * numbers in engineering-friendly exponent form.
  */
-import type { Model } from '../../shared/poise/model'
-import type { MapAnswer, MapAxis, Result, SweepResult, TitrationResult } from '../../shared/types/result'
-import { mapCell } from '../../shared/results/map-columns'
-import { doseSentence, endPointSentences, formatVolume, titrationAsSweep, volumeInUnit } from '../../shared/results/titration'
-import { dissolvedText } from '../../shared/results/names'
-import { MOLAR_SCALE, type UnitScale } from '../../shared/results/units'
-import { limitSentence } from '../../shared/results/limits'
-import { formatAmountUncertainty, formatLogUncertainty, mainContributorText, uncertaintyMethodText } from '../../shared/results/uncertainty'
+import type { Model } from '../shared/poise/model'
+import type { MapAnswer, MapAxis, Result, SweepResult, TitrationResult } from '../shared/types/result'
+import { mapCell } from '../shared/results/map-columns'
+import { doseSentence, endPointSentences, formatVolume, titrationAsSweep, volumeInUnit } from '../shared/results/titration'
+import { dissolvedText } from '../shared/results/names'
+import { MOLAR_SCALE, type UnitScale } from '../shared/results/units'
+import { limitSentence } from '../shared/results/limits'
+import { formatAmountUncertainty, formatLogUncertainty, mainContributorText, uncertaintyMethodText } from '../shared/results/uncertainty'
 
 /** `4.63–4.82`: a point's pH band from `uncertainty draws N`; `-` where it has none. */
 const pHBand = (p: Result) => (p.pHUncertainty?.low !== undefined && p.pHUncertainty.high !== undefined ? `${fixed(p.pHUncertainty.low, 2)}–${fixed(p.pHUncertainty.high, 2)}` : '-')
