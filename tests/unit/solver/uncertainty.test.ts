@@ -157,7 +157,7 @@ describe('linear propagation of the constants’ ± to one solve', () => {
 
 describe('the ± in the command line’s tables', () => {
   it('adds ± columns and says how the ± were found, only when a constant carries one', async () => {
-    const { formatResultTable } = await import('../../../server/solver/table')
+    const { formatResultTable } = await import('../../../cli/tables')
     const m = model(monoprotic)
     const text = formatResultTable(m, solve(m))
     expect(text).toMatch(/^pH \d\.\d{3} ± 0\.05 /m)
