@@ -21,6 +21,7 @@ import { hasBuiltServer, startBuiltServer } from './builtServer'
 import { httpSweepMs, workbenchMs } from './served'
 
 import { join } from 'node:path'
+import { fitFigures } from './fit'
 
 /** `entry` bundled into one ES module file for a plain `node` (as the server bundles its solver worker); its path. */
 async function bundleForNode(entry: string): Promise<string> {
@@ -162,6 +163,10 @@ async function main(json: boolean): Promise<void> {
   })
   const sweepScalingExponent = scalingExponent(scaling.filter((r) => r.components >= 16))
 
+  // A fit: two pKa to 45 titration points (bench/fit.ts).
+  const fit = fitFigures()
+  const fitDiproticMs = fit.fitMs
+
   // Compile of the unchanged 200-line file on a warm server: what a request pays.
   const compileCachedMs = timeMs(() => { compileCached(longSource) }, 40)
 
@@ -191,7 +196,7 @@ async function main(json: boolean): Promise<void> {
   const figures = {
     compileMs, solveColdUs, sweepPointUs, sweep1000Ms, ratioToPlain, cliCheckMs, nodeBareMs, cliRatio,
     sweepPointToNewton, httpToInProcess, sweep20kPeakRssMB, sweepScalingExponent, compileCachedMs, workbenchUsableMs, workbenchFirstResultMs,
-    httpPointsToInProcess, sweep20kPointsPeakRssMB: rssPoints.peakRssMB,
+    httpPointsToInProcess, sweep20kPointsPeakRssMB: rssPoints.peakRssMB, fitDiproticMs,
   }
   if (json) {
     console.log(JSON.stringify(figures))
@@ -218,6 +223,8 @@ async function main(json: boolean): Promise<void> {
   console.log(`  (by columns: ${rssColumns.answerMB.toFixed(0)} MB answer, the process ${rssColumns.startRssMB.toFixed(0)} MB before solving; as points (JSON): peak ${rssPoints.peakRssMB.toFixed(0)} MB, ${rssPoints.answerMB.toFixed(0)} MB answer)`)
   console.log(row('sweep point cost ~ components^k, 16 → 256', `k = ${sweepScalingExponent.toFixed(2)}`, '< 2', sweepScalingExponent < 2))
   for (const r of scaling) console.log(`  ${String(r.components).padStart(4)} components, ${String(r.species).padStart(4)} species: ${r.pointUs.toFixed(0).padStart(8)} µs per point${r.failed ? ` (${r.failed} failed)` : ''}`)
+  console.log(row('fit two pKa to 45 titration points', `${fitDiproticMs.toFixed(0)} ms`, '< 2000 ms', fitDiproticMs < 2000))
+  console.log(`  (${fit.iterations} Levenberg–Marquardt iterations, each a titration solved at the ${fit.points} volumes per evaluation)`)
   console.log(row('compile the unchanged 200-line file, warm', `${compileCachedMs.toFixed(3)} ms`, '< 0.5 ms', compileCachedMs < 0.5))
   if (httpToInProcess === null || workbench === null) {
     console.log('  (no built server in .output/: run `npm run build` for the HTTP and browser figures)')
