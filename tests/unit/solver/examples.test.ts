@@ -65,7 +65,7 @@ describe('solve command', () => {
   it('prints the Result JSON of a file without a sweep', async () => {
     const file = files.map((f) => join(dir, f)).find((f) => {
       const model = compile(readFileSync(f, 'utf8')).model
-      return model && !model.sweep && !model.titration
+      return model && !model.sweep && !model.titration && !model.map
     })!
     const lines: string[] = []
     const log = vi.spyOn(console, 'log').mockImplementation((s: string) => { lines.push(s) })

@@ -135,3 +135,25 @@ describe('Monte Carlo bands on their way out', () => {
     expect(sweepCsv(plain)).not.toContain('2.5 %')
   })
 })
+
+describe('Monte Carlo bands through the columns the workbench receives', () => {
+  it('come back on every point of the sweep view, equal to the solver’s', async () => {
+    const { solveTask } = await import('../../../server/workers/solve.worker')
+    const { decodeBinaryAnswer, binaryAnswerChunks } = await import('../../../shared/results/binary-answer')
+    const { sweepView } = await import('../../../shared/results/sweep-columns')
+    const m = model(bufferSweep(11, 40))
+    const answer = solveTask({ model: m, timeBudgetMs: 60_000, form: 'columns' })
+    const head = new TextEncoder().encode(`{"kind":"sweep","result":${new TextDecoder().decode(answer.resultBytes)}}`)
+    const chunks = binaryAnswerChunks(head, answer.resultArrays!)
+    const whole = new Uint8Array(chunks.reduce((n, c) => n + c.byteLength, 0))
+    let at = 0
+    for (const c of chunks) { whole.set(c, at); at += c.byteLength }
+    const view = sweepView(decodeBinaryAnswer<{ result: Parameters<typeof sweepView>[0] }>(whole.buffer).result)
+    const direct = sweep(m)
+    for (let i = 0; i < direct.points.length; i++) {
+      expect(view.points[i]!.pHUncertainty).toEqual(direct.points[i]!.pHUncertainty)
+      expect(view.points[i]!.species.map((s) => s.log10Uncertainty)).toEqual(direct.points[i]!.species.map((s) => s.log10Uncertainty))
+      expect(view.points[i]!.uncertainty).toEqual(direct.points[i]!.uncertainty)
+    }
+  })
+})
