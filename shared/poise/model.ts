@@ -95,13 +95,11 @@ export interface ModelGas extends Formation {
   elements: Record<string, number>
 }
 
-export type ConstantKind =
-  | 'logK' | 'K' | 'pK'
-  | 'logbeta' | 'beta'
-  | 'pKa' | 'Ka'
-  | 'pKsp' | 'Ksp' | 'logKsp'
-  | 'pKw'
-  | 'logKH'
+/** The kinds of an equilibrium constant a reaction line may give (the lexer, completion and the checker read this list). */
+export const CONSTANT_KINDS = ['logK', 'K', 'pK', 'logbeta', 'beta', 'pKa', 'Ka', 'pKsp', 'Ksp', 'logKsp', 'pKw', 'logKH'] as const
+export type ConstantKind = (typeof CONSTANT_KINDS)[number]
+/** Kinds read only right after the last species of a reaction (elsewhere `K`, `Ka`, `Ksp` could be formulas). */
+export const KINDS_AFTER_FORMULA_ONLY: ReadonlySet<ConstantKind> = new Set(['K', 'Ka', 'Ksp'])
 
 /** A reaction as the file wrote it (for reports and model diffs). */
 export interface ModelReaction {

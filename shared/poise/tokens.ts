@@ -10,6 +10,8 @@
  * custom patterns that look at the token before them.
  */
 import { createToken, Lexer, type IToken, type TokenType } from 'chevrotain'
+import { UNIT_SPELLINGS, UNITS_AFTER_NUMBER_ONLY } from './units'
+import { CONSTANT_KINDS as CONSTANT_KIND_LIST, KINDS_AFTER_FORMULA_ONLY } from './model'
 
 
 export const Comment = createToken({ name: 'Comment', pattern: /#[^\n\r]*/, group: 'comments' })
@@ -27,12 +29,11 @@ export const NumberLiteral = createToken({
   label: 'a number',
 })
 
-const lowerUnits = [
-  'mmol/L', 'umol/L', 'µmol/L', 'μmol/L', 'nmol/L', 'mol/L', 'mM', 'uM', 'µM', 'μM', 'nM',
-  'mg/L', 'ug/L', 'µg/L', 'μg/L', 'g/L', '°C', 'atm', 'bar', 'kPa', 'kJ/mol', 'kcal/mol',
-]
-/** Units read only directly after a number: the upper-case ones, and lengths and volumes that could be words elsewhere. */
-const upperUnits = ['J/mol', 'Pa', 'M', 'C', 'K', 'Å', 'Å', 'pm', 'nm', 'mL', 'uL', 'µL', 'μL', 'L']
+/** Longest first, so a regex alternation never stops at a shorter spelling. */
+const longestFirst = <T extends string>(list: readonly T[]): T[] => [...list].sort((a, b) => b.length - a.length)
+// The units and where they may stand come from units.ts, the one table of units.
+const lowerUnits = longestFirst(UNIT_SPELLINGS.filter((u) => !UNITS_AFTER_NUMBER_ONLY.has(u)))
+const upperUnits = longestFirst(UNIT_SPELLINGS.filter((u) => UNITS_AFTER_NUMBER_ONLY.has(u)))
 const escape = (s: string) => s.replace(/[/^$.*+?()[\]{}|\\]/g, '\\$&')
 const unitAfterNumber = new RegExp(`(?:${[...lowerUnits, ...upperUnits].map(escape).join('|')})(?![A-Za-z0-9_/()^+\\-·:])`, 'y')
 const unitAnywhere = new RegExp(`(?:${lowerUnits.map(escape).join('|')})(?![A-Za-z0-9_/()^+\\-·:])`, 'y')
@@ -55,12 +56,13 @@ export const Unit = createToken({
       lastTokenIs(tokens, NumberLiteral) ? stickyExec(unitAfterNumber, text, offset) : stickyExec(unitAnywhere, text, offset),
   },
   line_breaks: false,
-  start_chars_hint: ['m', 'u', 'µ', 'μ', 'n', 'M', 'g', '°', 'a', 'b', 'k', 'J', 'P', 'C', 'K', 'Å', 'Å', 'p', 'L'],
+  start_chars_hint: [...new Set(UNIT_SPELLINGS.map((u) => u[0]!))],
   label: 'a unit',
 })
 
-const lowerKinds = ['logKsp', 'logKH', 'logK', 'logbeta', 'pKsp', 'pKa', 'pKw', 'pK', 'beta']
-const upperKinds = ['Ksp', 'Ka', 'K']
+// The kinds come from model.ts, the one list of constant kinds.
+const lowerKinds = longestFirst(CONSTANT_KIND_LIST.filter((k) => !KINDS_AFTER_FORMULA_ONLY.has(k)))
+const upperKinds = longestFirst(CONSTANT_KIND_LIST.filter((k) => KINDS_AFTER_FORMULA_ONLY.has(k)))
 const kindAfterFormula = new RegExp(`(?:${[...lowerKinds, ...upperKinds].join('|')})(?![A-Za-z0-9_\\-()^+·:])`, 'y')
 const kindAnywhere = new RegExp(`(?:${lowerKinds.join('|')})(?![A-Za-z0-9_\\-])`, 'y')
 
@@ -159,5 +161,5 @@ export const allTokens: TokenType[] = [
 /** Words offered by completion. */
 export const KEYWORDS: string[] = KEYWORD_TOKENS.map((t) => String(t.PATTERN))
 /** The ångström sign (U+212B) reads like the letter Å but is not offered twice. */
-export const UNITS: string[] = [...lowerUnits, ...upperUnits].filter((u) => u !== 'Å')
-export const CONSTANT_KINDS: string[] = ['logK', 'K', 'pK', 'logbeta', 'beta', 'pKa', 'Ka', 'pKsp', 'Ksp', 'logKsp', 'pKw', 'logKH']
+export const UNITS: string[] = [...UNIT_SPELLINGS].filter((u) => u !== 'Å')
+export const CONSTANT_KINDS: string[] = [...CONSTANT_KIND_LIST]

@@ -23,7 +23,7 @@ const table: Record<string, UnitInfo> = {
   // Ion sizes to ångström (1 Å = 100 pm = 0.1 nm; the Å letter and the ångström sign both read).
   'Å': u('length', 1), 'Å': u('length', 1), pm: u('length', 0.01), nm: u('length', 10),
   // Volumes to litres (1 mL = 1e-3 L, 1 µL = 1e-6 L; SI prefixes).
-  L: u('volume', 1), mL: u('volume', 1e-3),
+  mL: u('volume', 1e-3),
 }
 for (const m of MICRO) {
   table[`${m}L`] = u('volume', 1e-6)
@@ -31,6 +31,17 @@ for (const m of MICRO) {
   table[`${m}M`] = u('concentration', 1e-6)
   table[`${m}g/L`] = u('mass-concentration', 1e-6)
 }
+// After the prefixed volumes, so lists offer mL and µL before L.
+table.L = u('volume', 1)
+
+/** Every spelling the language reads as a unit (the keys of the table above). */
+export const UNIT_SPELLINGS: readonly string[] = Object.keys(table)
+
+/**
+ * Units read only directly after a number: upper-case ones and lengths and
+ * volumes that could be a formula or a word elsewhere (M, C, K, L, Pa, nm …).
+ */
+export const UNITS_AFTER_NUMBER_ONLY: ReadonlySet<string> = new Set(['J/mol', 'Pa', 'M', 'C', 'K', 'Å', 'Å', 'pm', 'nm', 'mL', 'L', ...MICRO.map((m) => `${m}L`)])
 
 export function unitInfo(unit: string): UnitInfo | null {
   return Object.prototype.hasOwnProperty.call(table, unit) ? table[unit]! : null

@@ -1,6 +1,9 @@
 import { describe, expect, it } from 'vitest'
 import { compile, KEYWORDS, UNITS, CONSTANT_KINDS } from '../../../shared/poise/index'
 import { CLEAN } from './helpers'
+import { lexForParser } from '../../../shared/poise/lexer'
+import { UNIT_SPELLINGS, UNITS_AFTER_NUMBER_ONLY, unitInfo } from '../../../shared/poise/units'
+import { KINDS_AFTER_FORMULA_ONLY } from '../../../shared/poise/model'
 
 describe('symbols for completion and hover', () => {
   const r = compile(CLEAN)
@@ -23,5 +26,24 @@ describe('symbols for completion and hover', () => {
     expect(KEYWORDS).toEqual(expect.arrayContaining(['component', 'reaction', 'debye-huckel', 'pH', 'dH']))
     expect(UNITS).toEqual(expect.arrayContaining(['mmol/L', 'mg/L', 'atm', 'kJ/mol', 'K']))
     expect(CONSTANT_KINDS).toEqual(expect.arrayContaining(['pKa', 'logbeta', 'pKsp', 'logKH', 'pKw']))
+  })
+
+  it('reads every unit of the unit table after a number, and only those not reserved for that anywhere', () => {
+    for (const unit of UNIT_SPELLINGS) {
+      const afterNumber = lexForParser(`2 ${unit}\n`).tokens.map((t) => [t.tokenType.name, t.image])
+      expect(afterNumber[1], unit).toEqual(['Unit', unit])
+      expect(unitInfo(unit), unit).not.toBeNull()
+      const alone = lexForParser(`${unit}\n`).tokens[0]!
+      expect(alone.tokenType.name === 'Unit', unit).toBe(!UNITS_AFTER_NUMBER_ONLY.has(unit))
+    }
+  })
+
+  it('reads every constant kind after the last species of a reaction, the short ones only there', () => {
+    for (const kind of CONSTANT_KINDS) {
+      const tokens = lexForParser(`reaction A <=> B ${kind} 2\n`).tokens
+      expect(tokens.find((t) => t.image === kind)?.tokenType.name, kind).toBe('ConstantKind')
+      const alone = lexForParser(`${kind} 2\n`).tokens[0]!
+      expect(alone.tokenType.name === 'ConstantKind', kind).toBe(!KINDS_AFTER_FORMULA_ONLY.has(kind as never))
+    }
   })
 })
