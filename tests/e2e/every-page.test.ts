@@ -83,7 +83,7 @@ describe('every page is clean', () => {
     const problems: string[] = []
     for (const [path, name] of pages) problems.push(...await problemsOn(path, name))
     expect(problems).toEqual([])
-  })
+  }, 180_000)
 
   it('signed out: the language reference, the examples and one example', async () => {
     const pages: [string, string][] = [
@@ -174,7 +174,7 @@ describe('every page is clean', () => {
     const problems: string[] = []
     for (const [path, name] of pages) problems.push(...await problemsOn(path, name, owner.cookie))
     expect(problems).toEqual([])
-  })
+  }, 180_000)
 
   it('as the site administrator: the admin pages and the demo lab', async () => {
     const admin = await signInAs('admin')
