@@ -16,9 +16,10 @@ export interface ExampleResult {
   slug: string
   title: string
   kind: AnswerKind
-  solverVersion: string
+  /** null for a map (compiled, not solved here). */
+  solverVersion: string | null
   compilerVersion: string
   model: Model
-  /** The Result, SweepResult or TitrationResult, as the workbench receives it. */
+  /** The Result, SweepResult or TitrationResult, as the workbench receives it; null for a map (not solved here). */
   result: unknown
 }

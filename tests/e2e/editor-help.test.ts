@@ -46,9 +46,10 @@ describe('help in the editor', () => {
     expect(kinds.sort()).toEqual(['K', 'beta', 'logK', 'logbeta', 'pK'])
     await page.keyboard.press('Escape')
     await page.keyboard.type('\ntemp')
-    await page.locator('.cm-tooltip-autocomplete').waitFor()
+    await page.locator('.cm-tooltip-autocomplete li[aria-selected]', { hasText: 'temperature' }).waitFor()
     await page.keyboard.press('Enter')
-    await expect(page.locator('.cm-line').last().textContent()).resolves.toBe('temperature ')
+    const lines = await page.locator('.cm-line').allTextContents()
+    expect(lines.filter((l) => l.startsWith('temperature'))).toEqual(['temperature 25 C', 'temperature '])
     await screenshot(page, 'editor-help-completion')
 
     // Hover on a number with its unit: the value in mol/L.

@@ -168,6 +168,11 @@ describe('examples', () => {
     expect(first.body.result.points.every((p: { converged: boolean }) => p.converged)).toBe(true)
     const again = await api('/api/examples/nickel-rinse-discharge/result')
     expect(again.body).toEqual(first.body)
+    // A map is compiled and described, not solved for a visitor.
+    const map = await api('/api/examples/copper-hydroxide-carbonate-map/result')
+    expect(map.status).toBe(200)
+    expect(map.body.kind).toBe('map')
+    expect(map.body.result).toBeNull()
     const missing = await api('/api/examples/no-such-thing/result')
     expect(missing.status).toBe(404)
     expect((await api('/api/examples/Not_A_Name/result')).status).toBe(400)

@@ -4,7 +4,8 @@
  * answer (a Result, a sweep or a titration), computed by the solver pool on
  * first request and kept for the life of the process (the examples ship with
  * the server, so the answer cannot change until it restarts). Nothing is
- * stored; at most one solve per example, counted as one shared account.
+ * stored; at most one solve per example, counted as one shared account. A
+ * map example is compiled, not solved (its answer is many sweeps).
  */
 import { COMPILER_VERSION } from '#shared/poise/version'
 import type { ExampleResult } from '#shared/types/examples'
@@ -16,6 +17,8 @@ const answers = new Map<string, Promise<ExampleResult>>()
 
 async function solveExample(slug: string, title: string, source: string): Promise<ExampleResult> {
   const { model } = compileForSolve(source)
+  // A map is many sweeps: its example page describes it and leaves the solve to the workbench.
+  if (model.map) return { slug, title, kind: 'map', solverVersion: null, compilerVersion: COMPILER_VERSION, model, result: null }
   const output = await solveInPool(model, SHOWCASE_ACCOUNT)
   return { slug, title, kind: output.kind, solverVersion: output.solverVersion, compilerVersion: COMPILER_VERSION, model, result: JSON.parse(output.resultJson) }
 }
