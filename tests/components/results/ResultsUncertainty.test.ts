@@ -105,3 +105,18 @@ uncertainty draws 40 seed 2
     expect(wrapper.text()).toMatch(/pH \d\.\d\d \(95 %: \d\.\d\d–\d\.\d\d\)/)
   })
 })
+
+describe('the Monte Carlo band in the report’s table of sweep points', () => {
+  it('adds the pH band and a ± to each dissolved total, and says how they were found', async () => {
+    const ResultsSweepTable = (await import('../../../components/results/ResultsSweepTable.vue')).default
+    const { sweep } = await import('../../../server/solver/index')
+    const model = compile(text(true) + 'sweep total Na+ from 2 mmol/L to 8 mmol/L points 4\nuncertainty draws 40 seed 4\n').model!
+    const answer = sweep(model)
+    const wrapper = mount(ResultsSweepTable, { props: { sweep: answer, model } })
+    const band = answer.points[1]!.pHUncertainty!
+    expect(wrapper.findAll('[data-test="sweep-ph-band"]')[1]!.text()).toBe(`${band.low!.toFixed(2)}–${band.high!.toFixed(2)}`)
+    expect(wrapper.find('[data-test="sweep-band-note"]').text()).toContain('40 draws (seed 4)')
+    const plain = compile(text(false) + 'sweep total Na+ from 2 mmol/L to 8 mmol/L points 4\n').model!
+    expect(mount(ResultsSweepTable, { props: { sweep: sweep(plain), model: plain } }).find('[data-test="sweep-ph-band"]').exists()).toBe(false)
+  })
+})
