@@ -400,14 +400,14 @@ function studyValues(model: Model, data: DataSet): Study | string {
   }
 }
 
-/** Exact solves of the study at each value, continued from point to point. */
+/** Exact solves of the study at each value, continued from point to point (never the file's Monte Carlo draws). */
 function solveStudy(model: Model, kind: Study['kind'], values: number[], component: string | null, options: SolveOptions): Result[] {
   if (kind === 'volume') {
     const t = model.titration!
-    const out = titration({ ...model, sweep: null, limits: undefined, titration: { ...t, values, targetPH: null } }, options)
+    const out = titration({ ...model, sweep: null, limits: undefined, monteCarlo: undefined, titration: { ...t, values, targetPH: null } }, options)
     return 'points' in out ? out.points : values.map(() => ({ converged: false, reason: out.reason } as Result))
   }
-  const swept: Model = { ...model, titration: undefined, limits: undefined, sweep: { variable: kind, component: kind === 'pH' ? null : component, values, log: false, line: 0 } }
+  const swept: Model = { ...model, titration: undefined, limits: undefined, monteCarlo: undefined, sweep: { variable: kind, component: kind === 'pH' ? null : component, values, log: false, line: 0 } }
   return sweep(swept, options).points
 }
 

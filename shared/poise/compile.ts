@@ -457,8 +457,9 @@ function compileMonteCarlo(stmt: Extract<Statement, { kind: 'uncertainty' }> | u
     report.error('P086', `${draws} draws of ${points} points are ${draws * points} solves, more than the ${MAX_MONTE_CARLO_SOLVES} one run may make: ${most >= MIN_MONTE_CARLO_DRAWS ? `use at most ${most} draws, or ` : ''}fewer points`, stmt.draws.number)
     return null
   }
-  if (points === null) report.warning('W112', 'uncertainty draws applies to a sweep or a titration curve, not to a map; a single solve (or a dose) gives its ± by linear propagation: the line has no effect here', stmt.keyword)
-  else if (!anyUncertain) report.warning('W112', 'no constant carries a ± (write it after the value: pKa 4.76 ± 0.02), so every draw would be the same: the line has no effect', stmt.keyword)
+  // A line with no effect leaves no trace in the model (a map's rows, say, never draw).
+  if (points === null) { report.warning('W112', 'uncertainty draws applies to a sweep or a titration curve, not to a map; a single solve (or a dose) gives its ± by linear propagation: the line has no effect here', stmt.keyword); return null }
+  if (!anyUncertain) { report.warning('W112', 'no constant carries a ± (write it after the value: pKa 4.76 ± 0.02), so every draw would be the same: the line has no effect', stmt.keyword); return null }
   return { draws, seed, line: report.lineOf(stmt.from) }
 }
 

@@ -195,5 +195,8 @@ describe('uncertainty draws N [seed S]', () => {
     const plain = compile(acetate('pKa 4.76 cite "demo"', 'sweep total Na+ from 5 mmol/L to 15 mmol/L points 11\nuncertainty draws 200')).diagnostics
     expect(plain.map((d) => d.code)).toEqual(['W112'])
     expect(plain[0]!.message).toContain('no constant carries a ±')
+    // Neither leaves a Monte Carlo in the model.
+    expect(compile(acetate('pKa 4.76 ± 0.02 cite "demo"', 'uncertainty draws 200')).model!.monteCarlo).toBeUndefined()
+    expect(compile(acetate('pKa 4.76 cite "demo"', 'sweep total Na+ from 5 mmol/L to 15 mmol/L points 11\nuncertainty draws 200')).model!.monteCarlo).toBeUndefined()
   })
 })

@@ -157,3 +157,30 @@ describe('Monte Carlo bands through the columns the workbench receives', () => {
     }
   })
 })
+
+describe('a fit of a file that asks for Monte Carlo draws', () => {
+  it('fits its constants on exact solves alone, as if the draws line were not there', async () => {
+    const { fitConstants } = await import('../../../server/solver/fit')
+    const { parseDataSet } = await import('../../../shared/fit/dataset')
+    const text = (draws: string) => acetate('0 mol/L', `sample volume 25 mL
+titrant Na+ 0.1 mol/L
+titrant OH- 0.1 mol/L
+titrate from 0 to 2 mL points 5
+${draws}`).replace('pKa 4.76 ± 0.03', 'pKa 4.70 ± 0.03 fit')
+    // pH read off a curve with pKa 4.76 (invented measurements, rounded to 0.001).
+    const truth = titration(model(text('').replace('pKa 4.70', 'pKa 4.76'))) as TitrationCurveResult
+    const parsed = parseDataSet('volume mL,pH\n' + [0.25, 0.5, 0.75, 1, 1.25, 1.5, 1.75].map((v) => {
+      const k = truth.values.findIndex((x) => Math.abs(x - v) < 1e-9)
+      const at = k >= 0 ? truth.points[k]!.pH : (titration(model(text('').replace('pKa 4.70', 'pKa 4.76').replace('titrate from 0 to 2 mL points 5', `titrate from 0 to ${v} mL points 2`))) as TitrationCurveResult).points[1]!.pH
+      return `${v},${at.toFixed(3)}`
+    }).join('\n'))
+    if (!parsed.ok) throw new Error(JSON.stringify(parsed.problems))
+    const plain = fitConstants(text(''), parsed.data)
+    // 2000 draws at every step of the fit would take minutes: the fit must leave them out.
+    const drawn = fitConstants(text('uncertainty draws 2000 seed 3'), parsed.data)
+    expect(plain.ok && drawn.ok).toBe(true)
+    if (!plain.ok || !drawn.ok) return
+    expect(drawn.fit.constants).toEqual(plain.fit.constants)
+    expect(Math.abs(drawn.fit.constants[0]!.value - 4.76)).toBeLessThan(0.01)
+  })
+})
