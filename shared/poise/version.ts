@@ -10,4 +10,4 @@
  * cannot contain; major for anything that changes the model of an existing
  * text. Messages, completion and hover do not need a bump.
  */
-export const COMPILER_VERSION = '1.4.0'
+export const COMPILER_VERSION = '1.4.1'
