@@ -3,17 +3,11 @@
  * huge sweep from occupying the pool; the messages say what to change.
  */
 import type { Model } from '../../shared/poise/model'
-import { MAX_MAP_CELLS, MAX_SWEEP_POINTS } from '../../shared/poise/limits'
+import { SIZE_LIMITS } from '../../shared/poise/limits'
 
 export const SOLVE_LIMITS = {
-  /** Largest Poise source accepted, in characters. */
-  maxSourceChars: 200_000,
-  /** The language's own limit: a compiled model never exceeds it; a stored or hand-made one is checked again. */
-  maxSweepPoints: MAX_SWEEP_POINTS,
-  /** The language's own limit on a map's cells, checked again for a stored or hand-made model. */
-  maxMapCells: MAX_MAP_CELLS,
-  maxSpecies: 500,
-  maxSolids: 60,
+  /** The language's own size limits, this very object: a compiled model keeps to them; a stored or hand-made one is checked again. */
+  size: SIZE_LIMITS,
   /** Wall-clock budget of one run (a whole sweep) inside the worker. */
   timeBudgetMs: 20_000,
   /** Wall-clock budget of one fit (every step a solve of the whole data set) inside the worker; past it the fit stops unconverged. */
@@ -26,25 +20,25 @@ export const SOLVE_LIMITS = {
 /** A message saying which limit the model exceeds, or null when it fits. */
 export function modelLimitProblem(model: Model): string | null {
   const points = model.sweep?.values.length ?? 0
-  if (points > SOLVE_LIMITS.maxSweepPoints) {
-    return `The sweep has ${points} points; at most ${SOLVE_LIMITS.maxSweepPoints} are allowed. Use a larger step or fewer points.`
+  if (points > SOLVE_LIMITS.size.maxSweepPoints) {
+    return `The sweep has ${points} points; at most ${SOLVE_LIMITS.size.maxSweepPoints} are allowed. Use a larger step or fewer points.`
   }
   if (model.map) {
     const nx = model.map.x?.values?.length ?? 0
     const ny = model.map.y?.values?.length ?? 0
-    if (nx > SOLVE_LIMITS.maxSweepPoints || ny > SOLVE_LIMITS.maxSweepPoints || nx * ny > SOLVE_LIMITS.maxMapCells) {
-      return `The map has ${nx} × ${ny} = ${nx * ny} cells; at most ${SOLVE_LIMITS.maxMapCells} are allowed, and ${SOLVE_LIMITS.maxSweepPoints} points on an axis. Use fewer points on an axis.`
+    if (nx > SOLVE_LIMITS.size.maxSweepPoints || ny > SOLVE_LIMITS.size.maxSweepPoints || nx * ny > SOLVE_LIMITS.size.maxMapCells) {
+      return `The map has ${nx} × ${ny} = ${nx * ny} cells; at most ${SOLVE_LIMITS.size.maxMapCells} are allowed, and ${SOLVE_LIMITS.size.maxSweepPoints} points on an axis. Use fewer points on an axis.`
     }
   }
   const titrationPoints = model.titration?.values?.length ?? 0
-  if (titrationPoints > SOLVE_LIMITS.maxSweepPoints) {
-    return `The titration has ${titrationPoints} points; at most ${SOLVE_LIMITS.maxSweepPoints} are allowed. Use a larger step or fewer points.`
+  if (titrationPoints > SOLVE_LIMITS.size.maxSweepPoints) {
+    return `The titration has ${titrationPoints} points; at most ${SOLVE_LIMITS.size.maxSweepPoints} are allowed. Use a larger step or fewer points.`
   }
-  if (model.species.length > SOLVE_LIMITS.maxSpecies) {
-    return `The system has ${model.species.length} species; at most ${SOLVE_LIMITS.maxSpecies} are allowed. Split it into smaller systems.`
+  if (model.species.length > SOLVE_LIMITS.size.maxSpecies) {
+    return `The system has ${model.species.length} species; at most ${SOLVE_LIMITS.size.maxSpecies} are allowed. Split it into smaller systems.`
   }
-  if (model.solids.length > SOLVE_LIMITS.maxSolids) {
-    return `The system has ${model.solids.length} solids; at most ${SOLVE_LIMITS.maxSolids} are allowed.`
+  if (model.solids.length > SOLVE_LIMITS.size.maxSolids) {
+    return `The system has ${model.solids.length} solids; at most ${SOLVE_LIMITS.size.maxSolids} are allowed.`
   }
   return null
 }

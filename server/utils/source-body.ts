@@ -13,13 +13,13 @@ export const SourceBody = z.object({
 
 export async function readSourceBody(event: H3Event): Promise<string> {
   const { source } = await validateBody(event, SourceBody)
-  if (source.length > SOLVE_LIMITS.maxSourceChars) throw tooLarge()
+  if (source.length > SOLVE_LIMITS.size.maxSourceChars) throw tooLarge()
   return source
 }
 
 function tooLarge() {
   return createError({
     statusCode: 413,
-    message: `The Poise text is larger than ${SOLVE_LIMITS.maxSourceChars.toLocaleString('en')} characters. Split the system or move shared constants into a lab library.`,
+    message: `The Poise text is larger than ${SOLVE_LIMITS.size.maxSourceChars.toLocaleString('en')} characters. Split the system or move shared constants into a lab library.`,
   })
 }

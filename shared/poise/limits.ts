@@ -151,18 +151,25 @@ export const NUMBER_MIN = 2.2250738585072014e-308
  */
 export const MIN_NONZERO_TOTAL = 1e-300
 
-/** At most this many points in one sweep or titration; the compiler and the server's request limits both use it. */
-export const MAX_SWEEP_POINTS = 5000
+/**
+ * How big one system may be. One object, read by the checker (sweep, map and
+ * titration points) and by the server's request limits (`SOLVE_LIMITS.size`
+ * in server/utils/solve-limits.ts is this very object).
+ */
+export const SIZE_LIMITS = {
+  /** Largest Poise source accepted, in characters. */
+  maxSourceChars: 200_000,
+  /** At most this many points in one sweep or titration, and on each axis of a map. */
+  maxSweepPoints: 5000,
+  /** At most this many cells (points of the first axis × points of the second) in one `map`. */
+  maxMapCells: 40_000,
+  maxSpecies: 500,
+  maxSolids: 60,
+} as const
 /** A data set for fitting (shared/fit/dataset.ts) has at most this many rows of data: each is an exact solve at every step of a fit. */
 export const MAX_DATASET_ROWS = 500
 /** …and at most this many columns (the study variable and the measurements). */
 export const MAX_DATASET_COLUMNS = 16
-/**
- * At most this many cells (points of the first axis × points of the second)
- * in one `map`; each axis also keeps to MAX_SWEEP_POINTS. The compiler and
- * the server's request limits both use it.
- */
-export const MAX_MAP_CELLS = 40_000
 /**
  * `uncertainty draws N`: a Monte Carlo needs some tens of draws before its
  * 2.5 and 97.5 % quantiles mean anything (with 40 draws they are the 1st and
@@ -264,9 +271,9 @@ export function limitsTable(): string {
     ...rows,
     `| a non-zero concentration | ${formatNumber(MIN_NONZERO_TOTAL)} mol/L or more in size (the solver cannot resolve less; write 0 to leave a component out) | — |`,
     `| any number written | 0, or ${formatNumber(NUMBER_MIN)} to ${formatNumber(NUMBER_MAX)} in size | — |`,
-    `| sweep points | 2 to ${MAX_SWEEP_POINTS} | — |`,
-    `| titration points | 2 to ${MAX_SWEEP_POINTS} | — |`,
-    `| map cells (points of the first axis × points of the second) | 4 to ${MAX_MAP_CELLS} (each axis 2 to ${MAX_SWEEP_POINTS}) | — |`,
+    `| sweep points | 2 to ${SIZE_LIMITS.maxSweepPoints} | — |`,
+    `| titration points | 2 to ${SIZE_LIMITS.maxSweepPoints} | — |`,
+    `| map cells (points of the first axis × points of the second) | 4 to ${SIZE_LIMITS.maxMapCells} (each axis 2 to ${SIZE_LIMITS.maxSweepPoints}) | — |`,
     `| \`uncertainty draws\` | ${MIN_MONTE_CARLO_DRAWS} to ${MAX_MONTE_CARLO_DRAWS}, and draws × points of the sweep or titration at most ${MAX_MONTE_CARLO_SOLVES} | — |`,
     `| \`seed\` | a whole number from 0 to ${MAX_MONTE_CARLO_SEED} | — |`,
     `| atoms of one element in a formula | 1 to ${MAX_ATOM_COUNT} | — |`,

@@ -2,13 +2,13 @@
  * `map VARIABLE from A to B (step D | points N) [log] by VARIABLE from A to B
  * (step D | points N) [log]`: two axes, each checked as a sweep is
  * (shared/poise/sweep.ts), then together: they must vary different things,
- * the grid must keep to MAX_MAP_CELLS, and a map is the file's one study.
+ * the grid must keep to SIZE_LIMITS.maxMapCells, and a map is the file's one study.
  */
 import type { ModelComponent, ModelMap } from './model'
 import type { Reporter } from './reporter'
 import type { Statement } from './statements'
 import { compileSweep } from './sweep'
-import { formatNumber, MAX_MAP_CELLS } from './limits'
+import { formatNumber, SIZE_LIMITS } from './limits'
 import { parseFormula, type Abbreviations } from './formula'
 
 type MapStatement = Extract<Statement, { kind: 'map' }>
@@ -51,8 +51,8 @@ export function compileMap(s: MapStatement, components: ModelComponent[], others
   const y = compileSweep(s.y, components, report, abbreviations, 'map axis')
   if (!x || !y || !ok) return null
   const cells = x.values.length * y.values.length
-  if (cells > MAX_MAP_CELLS) {
-    report.error('P094', `this map has ${x.values.length} × ${y.values.length} = ${formatNumber(cells)} cells; it may have at most ${formatNumber(MAX_MAP_CELLS)}: use fewer points on an axis`, { from: s.x.from, to: s.y.to })
+  if (cells > SIZE_LIMITS.maxMapCells) {
+    report.error('P094', `this map has ${x.values.length} × ${y.values.length} = ${formatNumber(cells)} cells; it may have at most ${formatNumber(SIZE_LIMITS.maxMapCells)}: use fewer points on an axis`, { from: s.x.from, to: s.y.to })
     return null
   }
   return { x, y, line: report.lineOf(s.keyword.from) }

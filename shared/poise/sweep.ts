@@ -4,7 +4,7 @@ import type { Reporter } from './reporter'
 import type { Quantity, SweepAxis } from './statements'
 import { parseFormula, type Abbreviations } from './formula'
 import { convert, unitInfo, UNIT_HINTS, type Dimension } from './units'
-import { checkRange, formatNumber, MAX_SWEEP_POINTS, type LimitName } from './limits'
+import { checkRange, formatNumber, SIZE_LIMITS, type LimitName } from './limits'
 
 const round = (x: number) => Number(x.toPrecision(12))
 
@@ -74,8 +74,8 @@ export function compileSweep(s: SweepAxis, components: ModelComponent[], report:
   let values: number[]
   if (s.points) {
     const n = s.points.value
-    if (!Number.isInteger(n) || n < 2 || n > MAX_SWEEP_POINTS) {
-      report.error('P080', `points must be a whole number from 2 to ${MAX_SWEEP_POINTS}, not ${formatNumber(n)}`, s.points.number)
+    if (!Number.isInteger(n) || n < 2 || n > SIZE_LIMITS.maxSweepPoints) {
+      report.error('P080', `points must be a whole number from 2 to ${SIZE_LIMITS.maxSweepPoints}, not ${formatNumber(n)}`, s.points.number)
       return null
     }
     const a = s.log ? Math.log10(from) : from
@@ -93,11 +93,11 @@ export function compileSweep(s: SweepAxis, components: ModelComponent[], report:
     const ratio = (b - a) / step
     // A tiny step can make the count overflow: it is only shown when it is a sensible number.
     const count = step === 0 || !Number.isFinite(ratio) ? Infinity : Math.floor(ratio + 1e-9) + 1
-    if (!(count >= 2) || count > MAX_SWEEP_POINTS) {
+    if (!(count >= 2) || count > SIZE_LIMITS.maxSweepPoints) {
       const shown = count <= 1e9 ? `${formatNumber(count)} points` : 'more than a billion points'
       report.error('P080', step === 0 || count < 2
         ? `the step ${s.step!.number.image} does not lead from ${s.start.number.image} to ${s.end.number.image}: use a step with the sign of (to − from), not 0`
-        : `this ${noun} has ${shown}; it may have 2 to ${MAX_SWEEP_POINTS}: use a larger step`, s.step!.number)
+        : `this ${noun} has ${shown}; it may have 2 to ${SIZE_LIMITS.maxSweepPoints}: use a larger step`, s.step!.number)
       return null
     }
     values = Array.from({ length: count }, (_, i) => a + step * i)

@@ -9,7 +9,7 @@ import type { Statement, Quantity, Tok } from './statements'
 import type { Known } from './reactions'
 import { parseFormula, type Abbreviations } from './formula'
 import { unitInfo, UNIT_HINTS } from './units'
-import { checkRange, formatNumber, MAX_SWEEP_POINTS } from './limits'
+import { checkRange, formatNumber, SIZE_LIMITS } from './limits'
 
 type SampleStatement = Extract<Statement, { kind: 'sampleVolume' }>
 type TitrantStatement = Extract<Statement, { kind: 'titrant' }>
@@ -159,8 +159,8 @@ export function compileTitration(s: TitrationStatements, components: ModelCompon
     let volumes: number[]
     if (titrate.points) {
       const n = titrate.points.value
-      if (!Number.isInteger(n) || n < 2 || n > MAX_SWEEP_POINTS) {
-        report.error('P080', `points must be a whole number from 2 to ${MAX_SWEEP_POINTS}, not ${formatNumber(n)}`, titrate.points.number)
+      if (!Number.isInteger(n) || n < 2 || n > SIZE_LIMITS.maxSweepPoints) {
+        report.error('P080', `points must be a whole number from 2 to ${SIZE_LIMITS.maxSweepPoints}, not ${formatNumber(n)}`, titrate.points.number)
         return null
       }
       volumes = Array.from({ length: n }, (_, i) => from + ((to - from) * i) / (n - 1))
@@ -179,10 +179,10 @@ export function compileTitration(s: TitrationStatements, components: ModelCompon
       const d = step.value * info.factor
       const ratio = (to - from) / d
       const count = Number.isFinite(ratio) ? Math.floor(ratio + 1e-9) + 1 : Infinity
-      if (count > MAX_SWEEP_POINTS || count < 2) {
+      if (count > SIZE_LIMITS.maxSweepPoints || count < 2) {
         report.error('P080', count < 2
           ? `the step ${step.number.image} is larger than the titration: use a step below ${formatNumber((to - from) / info.factor)}`
-          : `this titration has ${count <= 1e9 ? `${formatNumber(count)} points` : 'more than a billion points'}; it may have 2 to ${MAX_SWEEP_POINTS}: use a larger step`, step.number)
+          : `this titration has ${count <= 1e9 ? `${formatNumber(count)} points` : 'more than a billion points'}; it may have 2 to ${SIZE_LIMITS.maxSweepPoints}: use a larger step`, step.number)
         return null
       }
       volumes = Array.from({ length: count }, (_, i) => from + d * i)

@@ -6,7 +6,7 @@
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import { compile } from '../../../shared/poise/index'
-import { formatNumber, LIMITS, MAX_SWEEP_POINTS, rangeText } from '../../../shared/poise/limits'
+import { formatNumber, LIMITS, SIZE_LIMITS, rangeText } from '../../../shared/poise/limits'
 import { SOLVE_LIMITS } from '../../../server/utils/solve-limits'
 import { solve, sweep } from '../../../server/solver/index'
 import { CLEAN } from './helpers'
@@ -105,13 +105,15 @@ describe('outside the usual range, a warning with the range (W106)', () => {
 describe('sweeps and formulas', () => {
   it('counts sweep points without overflowing into the message', () => {
     const { found } = only(withLine('sweep pH from 2 to 12 step 1e-300'), 'P080')
-    expect(found.message).toBe(`this sweep has more than a billion points; it may have 2 to ${MAX_SWEEP_POINTS}: use a larger step`)
+    expect(found.message).toBe(`this sweep has more than a billion points; it may have 2 to ${SIZE_LIMITS.maxSweepPoints}: use a larger step`)
     expect(only(withLine('sweep pH from 2 to 12 step 0.001'), 'P080').found.message).toContain('this sweep has 10001 points; it may have 2 to 5000')
     expect(only(withLine('sweep pH from 2 to 12 points 1e308'), 'P080').found.message).toBe('points must be a whole number from 2 to 5000, not 1e308')
   })
-  it('uses one sweep-point limit in the language and on the server', () => {
-    expect(SOLVE_LIMITS.maxSweepPoints).toBe(MAX_SWEEP_POINTS)
-    expect(compile(withLine(`sweep pH from 2 to 12 points ${MAX_SWEEP_POINTS}`)).model!.sweep!.values).toHaveLength(MAX_SWEEP_POINTS)
+  it('uses one set of size limits in the language and on the server: the same object', () => {
+    expect(SOLVE_LIMITS.size).toBe(SIZE_LIMITS)
+    // The checker refuses one point past the limit, the server's check of a model says the same limit.
+    expect(only(withLine(`sweep pH from 2 to 12 points ${SIZE_LIMITS.maxSweepPoints + 1}`), 'P080').found.message).toContain(`from 2 to ${SIZE_LIMITS.maxSweepPoints}`)
+    expect(compile(withLine(`sweep pH from 2 to 12 points ${SIZE_LIMITS.maxSweepPoints}`)).model!.sweep!.values).toHaveLength(SIZE_LIMITS.maxSweepPoints)
   })
   it('bounds atom counts and charges, so no balance message can overflow', () => {
     expect(only(withLine('component C1001 total 1 mM'), 'P010').found.message).toContain('1 to 1000 atoms')

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { EditorState } from '@codemirror/state'
 import { compile } from '../../../shared/poise/index'
-import { MAX_MAP_CELLS, MAX_SWEEP_POINTS } from '../../../shared/poise/limits'
+import { SIZE_LIMITS } from '../../../shared/poise/limits'
 import { poiseSymbolsField, setPoiseSymbols } from '../../../codemirror/analysis'
 import { completionsAt } from '../../../codemirror/completion'
 import { symbolAt } from '../../../codemirror/hover'
@@ -56,13 +56,13 @@ describe('map: two axes, each as a sweep', () => {
   })
 
   it('refuses more cells than the one limit, saying how many and what to change', () => {
-    const side = Math.ceil(Math.sqrt(MAX_MAP_CELLS)) + 1
+    const side = Math.ceil(Math.sqrt(SIZE_LIMITS.maxMapCells)) + 1
     const out = errors(`map pH from 2 to 12 points ${side} by total Na+ from 1 to 20 mmol/L points ${side}`)
     expect(out.map((e) => e.code)).toEqual(['P094'])
-    expect(out[0]!.message).toBe(`this map has ${side} × ${side} = ${side * side} cells; it may have at most ${MAX_MAP_CELLS}: use fewer points on an axis`)
+    expect(out[0]!.message).toBe(`this map has ${side} × ${side} = ${side * side} cells; it may have at most ${SIZE_LIMITS.maxMapCells}: use fewer points on an axis`)
     // An axis keeps the sweep's own limit.
-    expect(errors(`map pH from 2 to 12 points ${MAX_SWEEP_POINTS + 1} by total Na+ from 1 to 20 mmol/L points 2`)[0]!.message)
-      .toBe(`points must be a whole number from 2 to ${MAX_SWEEP_POINTS}, not ${MAX_SWEEP_POINTS + 1}`)
+    expect(errors(`map pH from 2 to 12 points ${SIZE_LIMITS.maxSweepPoints + 1} by total Na+ from 1 to 20 mmol/L points 2`)[0]!.message)
+      .toBe(`points must be a whole number from 2 to ${SIZE_LIMITS.maxSweepPoints}, not ${SIZE_LIMITS.maxSweepPoints + 1}`)
   })
 
   it('says what is wrong with one axis in the words of a map', () => {

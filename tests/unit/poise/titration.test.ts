@@ -1,7 +1,7 @@
 /** The titration statements: `sample volume`, `titrant`, `titrate`, their model and every error. */
 import { describe, expect, it } from 'vitest'
 import { compile } from '../../../shared/poise/index'
-import { MAX_SWEEP_POINTS } from '../../../shared/poise/limits'
+import { SIZE_LIMITS } from '../../../shared/poise/limits'
 
 const SAMPLE = `system "Hydrochloric acid with caustic"
 component H+ balance
@@ -108,8 +108,8 @@ titrate from 0 µL to 500 uL points 11
     ])
     const many = errors(SAMPLE + CURVE.replace('step 0.05', 'step 0.001'))
     expect(many.map((x) => x.code)).toEqual(['P080'])
-    expect(many[0]!.message).toContain(`2 to ${MAX_SWEEP_POINTS}`)
-    expect(errors(SAMPLE + CURVE.replace('step 0.05', `points ${MAX_SWEEP_POINTS + 1}`))[0]!.message).toContain(`from 2 to ${MAX_SWEEP_POINTS}`)
+    expect(many[0]!.message).toContain(`2 to ${SIZE_LIMITS.maxSweepPoints}`)
+    expect(errors(SAMPLE + CURVE.replace('step 0.05', `points ${SIZE_LIMITS.maxSweepPoints + 1}`))[0]!.message).toContain(`from 2 to ${SIZE_LIMITS.maxSweepPoints}`)
     expect(errors(SAMPLE + 'sample volume 25 mL\ntitrant Na+ 0.1 mol/L\ntitrant OH- 0.1 mol/L\ntitrate to pH 17\n').map((x) => x.code)).toEqual(['P083'])
   })
 
