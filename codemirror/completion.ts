@@ -20,8 +20,7 @@ import { parseFormula } from '../shared/poise/formula'
 import { kindMismatch, type PreparedTerm } from '../shared/poise/reactions'
 import type { ConstantKind as ConstantKindName } from '../shared/poise/model'
 import { quantityDimensions, unitInfo, type Dimension } from '../shared/poise/units'
-import { poiseSymbolsField } from './analysis'
-import { abbreviationsOf } from './hover'
+import { abbreviationsOf, poiseSymbolsField } from './analysis'
 
 /** The part of a word already typed: formulas, keywords with `-`, units such as `mmol/L`, `°C`. */
 const WORD_BEFORE_CURSOR = /[A-Za-z°µμ][\w°µμ/()^·:+-]*$/

@@ -6,8 +6,8 @@
 import { hoverTooltip, type Tooltip } from '@codemirror/view'
 import type { EditorState } from '@codemirror/state'
 import type { PoiseSymbol } from '../shared/poise/index'
-import { isWater, parseFormula, type Abbreviations, type ParsedFormula } from '../shared/poise/formula'
-import { poiseSymbolsField } from './analysis'
+import { isWater, parseFormula, type ParsedFormula } from '../shared/poise/formula'
+import { abbreviationsOf, poiseSymbolsField } from './analysis'
 import { lexLine, type LineToken } from './language'
 import type { ConstantKind } from '../shared/poise/model'
 import { logKFromConstant, logKUncertaintyFromConstant } from '../shared/poise/reactions'
@@ -91,17 +91,6 @@ function describeFormation(symbol: PoiseSymbol): string {
   if (symbol.logK === null) return 'formation constant not resolved (see the diagnostics)'
   const label = symbol.kind === 'species' ? 'log₁₀ β' : 'log₁₀ K'
   return `${label} = ${symbol.logK.toFixed(2)} (formation from the components)`
-}
-
-/** The file's abbreviations as the formula reader takes them, from the last compile's symbols (memoised per symbol list). */
-const tables = new WeakMap<readonly PoiseSymbol[], Abbreviations>()
-export function abbreviationsOf(symbols: readonly PoiseSymbol[]): Abbreviations {
-  let table = tables.get(symbols)
-  if (!table) {
-    table = new Map(symbols.filter((s) => s.kind === 'abbreviation').map((s) => [s.name, { name: s.name, formula: s.stands ?? '', elements: s.elements, from: s.definedAt.from }]))
-    tables.set(symbols, table)
-  }
-  return table
 }
 
 /** The symbol a formula written in the document stands for, whichever way it is written (`Ca²⁺`, `Ca^2+`, `NiCit^-`). */

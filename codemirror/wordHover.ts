@@ -13,8 +13,7 @@ import { parseFormula } from '../shared/poise/formula'
 import { formatNumber } from '../shared/poise/limits'
 import { convert, parseNumber, unitInfo, type Dimension } from '../shared/poise/units'
 import { referenceLink } from '../utils/referenceLink'
-import { poiseSymbolsField } from './analysis'
-import { abbreviationsOf } from './hover'
+import { abbreviationsOf, poiseSymbolsField } from './analysis'
 import { lexLine, type LineToken } from './language'
 
 export interface WordDescription {
