@@ -17,7 +17,8 @@ import { computed, ref, shallowRef } from 'vue'
 import { compile } from '../shared/poise/index'
 import type { Diagnostic } from '../shared/poise/diagnostics'
 import type { Model } from '../shared/poise/model'
-import type { Answer, AnswerKind, Result, SweepResult, TitrationResult } from '../shared/types/result'
+import type { Answer, AnswerKind, MapAnswer, Result, SweepResult, TitrationResult } from '../shared/types/result'
+import { mapCell } from '../shared/results/map-columns'
 import type { PreviewAnswer, RevisionView, RunListAnswer, RunView, SystemAnswer } from '../shared/types/system'
 import { titrationAsSweep } from '../shared/results/titration'
 import { distributableComponents, type StoichiometryModel } from '../shared/results/share'
@@ -198,6 +199,8 @@ export const useWorkbenchStore = defineStore('workbench', () => {
   /** The shown answer no longer matches the editor's text. */
   const shownIsStale = computed(() => shown.value !== null && shown.value.source !== source.value)
   const sweep = computed<SweepResult | null>(() => (shown.value?.kind === 'sweep' ? (shown.value.result as SweepResult) : null))
+  /** The map answer on show (its cells by columns); `pointIndex` is then the chosen cell, row after row. */
+  const map = computed<MapAnswer | null>(() => (shown.value?.kind === 'map' ? (shown.value.result as MapAnswer) : null))
   /** The titration answer on show: its curve, or the dose to a target pH. */
   const titration = computed<TitrationResult | null>(() => (shown.value?.kind === 'titration' ? (shown.value.result as TitrationResult) : null))
   /** A titration curve as a sweep over the added volume, for the species diagrams. */
@@ -209,6 +212,14 @@ export const useWorkbenchStore = defineStore('workbench', () => {
     if (t) {
       if (!('points' in t)) return t.point
       return t.points[Math.min(Math.max(pointIndex.value, 0), t.points.length - 1)] ?? null
+    }
+    const m = map.value
+    if (m) {
+      const nx = m.x.values.length
+      const cells = nx * m.y.values.length
+      if (cells === 0) return null
+      const k = Math.min(Math.max(pointIndex.value, 0), cells - 1)
+      return mapCell(m, Math.floor(k / nx), k % nx)
     }
     if (!sweep.value) return shown.value.result as Result
     const points = sweep.value.points
@@ -331,7 +342,7 @@ export const useWorkbenchStore = defineStore('workbench', () => {
           }
         }
       }
-      if (ticket === runTicket) pointIndex.value = Math.min(pointIndex.value, (sweep.value?.points.length ?? (titration.value && 'points' in titration.value ? titration.value.points.length : 1)) - 1)
+      if (ticket === runTicket) pointIndex.value = Math.min(pointIndex.value, (sweep.value?.points.length ?? (map.value ? map.value.x.values.length * map.value.y.values.length : null) ?? (titration.value && 'points' in titration.value ? titration.value.points.length : 1)) - 1)
     } catch (error) {
       if (ticket === runTicket) runProblem.value = problemFrom(error)
     } finally {
@@ -412,7 +423,7 @@ export const useWorkbenchStore = defineStore('workbench', () => {
   }
 
   return {
-    answer, source, diagnostics, shown, olderRun, titration, titrationSweep, pointIndex, running, saving, runProblem, saveProblem, conflict, resolveLibrary, librariesLoading,
+    answer, source, diagnostics, shown, olderRun, titration, titrationSweep, map, pointIndex, running, saving, runProblem, saveProblem, conflict, resolveLibrary, librariesLoading,
     latest, canEdit, canStore, dirty, plan, errorCount, shownModel, shownModelRecompiled, shownIsStale, sweep, pointResult,
     open, loadLastRun, loadLibraries, run, save, keepMine, takeTheirs,
   }

@@ -6,7 +6,8 @@
  * Nitro.
  */
 import type { Result, SweepResult } from '../types/result'
-import { isTitrationResult } from '../types/result'
+import { isMapAnswer, isTitrationResult } from '../types/result'
+import { mapCell } from '../results/map-columns'
 import { hasDissolvedTotal } from '../results/names'
 
 /** A concentration below this (mol/L) is treated as absent when computing factors. */
@@ -86,6 +87,7 @@ function sweepLabel(s: SweepResult): string {
 
 /** Why two answers cannot be compared point by point, or null when they can. */
 export function incomparableReason(a: SolvedAnswer, b: SolvedAnswer): string | null {
+  if (isMapAnswer(a) || isMapAnswer(b)) return 'Map answers are not compared cell by cell: open each revision\'s run to read its map.'
   if (isTitrationResult(a) || isTitrationResult(b)) return 'Titration answers are not compared point by point: open each revision\'s run to read its curve and end points.'
   if (isSweep(a) !== isSweep(b)) return 'One revision is a sweep and the other a single solve, so their answers are not compared point by point.'
   if (isSweep(a) && isSweep(b)) {
@@ -146,6 +148,9 @@ function largest<T>(items: T[], size: (t: T) => number): T | null {
  * only the first point of each.
  */
 export function diffResults(a: SolvedAnswer, b: SolvedAnswer): ResultsDiff {
+  // A map's first point is its first cell.
+  if (isMapAnswer(a) && a.x.values.length && a.y.values.length) a = mapCell(a, 0, 0)
+  if (isMapAnswer(b) && b.x.values.length && b.y.values.length) b = mapCell(b, 0, 0)
   const comparable = incomparableReason(a, b) === null
   const points = comparable
     ? pairs(a, b)
