@@ -211,26 +211,33 @@ export function failedMask(answer: MapAnswer): Uint8Array {
   return out
 }
 
+/**
+ * Where a solid counts as saturated for its boundary line: a solid present
+ * has SI 0 to rounding (±1e-15), so the line is drawn a hair below 0 and
+ * never wanders through the cells where the solid is present.
+ */
+export const SATURATED_SI = -1e-6
+
 /** The solids whose SI changes sign somewhere on the grid: their SI = 0 lines are boundaries worth drawing. */
 export function solidBoundaries(answer: MapAnswer, model: MapModel): { name: string; si: Float64Array }[] {
   return model.solids.flatMap((s) => {
     const si = quantityGrid(answer, `si:${s.name}`)
     let above = false
     let below = false
-    for (const v of si) { if (v >= 0) above = true; else if (v < 0) below = true }
+    for (const v of si) { if (v >= SATURATED_SI) above = true; else if (v < SATURATED_SI) below = true }
     return above && below ? [{ name: s.name, si }] : []
   })
 }
 
-/** A cell on a solid's SI = 0 line (SI ≥ 0 beside a cell below 0), the middle one of them, for its label; −1 when none. */
+/** A cell on a solid's SI = 0 line (saturated beside a cell that is not), the middle one of them, for its label; −1 when none. */
 export function boundaryAnchor(si: Float64Array, nx: number): number {
   const ny = si.length / nx
   const edge: number[] = []
   for (let k = 0; k < si.length; k++) {
-    if (!(si[k]! >= 0)) continue
+    if (!(si[k]! >= SATURATED_SI)) continue
     const i = Math.floor(k / nx)
     const j = k % nx
-    const below = (ii: number, jj: number) => ii >= 0 && jj >= 0 && ii < ny && jj < nx && si[ii * nx + jj]! < 0
+    const below = (ii: number, jj: number) => ii >= 0 && jj >= 0 && ii < ny && jj < nx && si[ii * nx + jj]! < SATURATED_SI
     if (below(i - 1, j) || below(i + 1, j) || below(i, j - 1) || below(i, j + 1)) edge.push(k)
   }
   return edge.length ? edge[Math.floor(edge.length / 2)]! : -1

@@ -44,7 +44,7 @@ describe('ResultsMap', () => {
     await wrapper.setProps({ cell: 8 * 19 + 18 })
     const text = wrapper.find('[data-test="map-readout"]').text()
     expect(text).toContain('pH 12.00')
-    expect(text).toContain('most Cu²⁺ as Cu(OH)₂(s)')
+    expect(text).toContain('Cu(OH)₂(s) holds most Cu²⁺')
     expect(text).toContain('solids present: Cu(OH)₂(s)')
     wrapper.unmount()
   })

@@ -8,7 +8,7 @@ import { describe, expect, it } from 'vitest'
 import { compile } from '../../../shared/poise/index'
 import { solveMap } from '../../../server/solver/index'
 import { mapCell } from '../../../shared/results/map-columns'
-import { axisExtent, boundaryAnchor, mapCsv, nearestIndex, predominance, predominanceComponents, quantityGrid, solidBoundaries } from '../../../shared/results/map'
+import { SATURATED_SI, axisExtent, boundaryAnchor, mapCsv, nearestIndex, predominance, predominanceComponents, quantityGrid, solidBoundaries } from '../../../shared/results/map'
 import { unitScale } from '../../../shared/results/units'
 
 const source = readFileSync(resolve(import.meta.dirname, '../../../examples/copper-hydroxide-carbonate-map.poise'), 'utf8')
@@ -59,7 +59,8 @@ describe('colour map, boundaries and CSV', () => {
     const lines = solidBoundaries(map, model)
     expect(lines.map((l) => l.name)).toEqual(['Cu(OH)2(s)'])
     const at = boundaryAnchor(lines[0]!.si, nx)
-    expect(lines[0]!.si[at]).toBeGreaterThanOrEqual(0)
+    expect(lines[0]!.si[at]).toBeGreaterThanOrEqual(SATURATED_SI)
+    expect(at).toBeGreaterThanOrEqual(0)
   })
   it('finds the cell nearest a point, by log on a log axis; the grid reaches half a step past its ends', () => {
     expect(nearestIndex(map.y, 2e-4)).toBe(2)
