@@ -31,6 +31,14 @@ export interface MapOptions extends SolveOptions {
   progressEveryMs?: number
   /** Asked before each cell; once it answers true the map stops, keeping the cells done. */
   cancelled?: () => boolean
+  /**
+   * Only rows [from, to) (a job's slice): the answer's cells are those rows'
+   * (cell 0 is the first cell of row `from`), the first row started afresh
+   * (cold starts, then along the row). Default: every row.
+   */
+  rows?: { from: number; to: number }
+  /** Sees each cell as it is solved, by its index over the whole grid (row × nx + column), before it goes into the columns. */
+  onCell?: (index: number, cell: Result) => void
 }
 
 export const CANCELLED_CELL_REASON = 'Not solved: the map was cancelled before this cell.'
@@ -43,14 +51,19 @@ function axisOf(sw: ModelSweep): MapAxis {
 export function solveMap(model: Model, options: MapOptions = {}): MapAnswer {
   const map = model.map
   const x: MapAxis = map ? axisOf(map.x) : { variable: 'pH', component: null, values: [], log: false }
-  const y: MapAxis = map ? axisOf(map.y) : { variable: 'pH', component: null, values: [], log: false }
+  const yAll: MapAxis = map ? axisOf(map.y) : { variable: 'pH', component: null, values: [], log: false }
   const nx = x.values.length
-  const total = nx * y.values.length
+  const firstRow = Math.max(0, Math.min(yAll.values.length, Math.floor(options.rows?.from ?? 0)))
+  const endRow = Math.max(firstRow, Math.min(yAll.values.length, Math.floor(options.rows?.to ?? yAll.values.length)))
+  // The answer's y axis holds the rows solved, so its cells read as a map of their own.
+  const y: MapAxis = firstRow === 0 && endRow === yAll.values.length ? yAll : { ...yAll, values: yAll.values.slice(firstRow, endRow) }
+  const total = nx * (endRow - firstRow)
   const cells = new ColumnsBuilder()
   let failedCells = 0
   let cancelled = false
   const add = (r: Result) => {
     if (!r.converged) failedCells++
+    options.onCell?.(firstRow * nx + cells.length, r)
     cells.add(r)
   }
   const fillRest = (reason: string) => {
@@ -86,8 +99,8 @@ export function solveMap(model: Model, options: MapOptions = {}): MapAnswer {
       lastReport = performance.now()
       try { options.onProgress?.(done, total) } catch { /* a listener's failure is not the map's */ }
     }
-    for (let i = 0; i < y.values.length; i++) {
-      const badRow = applySweepValue(p, map.y.variable, yTarget.index, y.values[i])
+    for (let i = firstRow; i < endRow; i++) {
+      const badRow = applySweepValue(p, map.y.variable, yTarget.index, yAll.values[i]!)
       while (recent.length) spare.push(recent.pop()!.state)
       for (let j = 0; j < nx; j++) {
         if (options.cancelled?.()) {

@@ -138,6 +138,16 @@ describe('running a map', () => {
     for (const c of failed) expect(c.reason).toMatch(/\w/)
   })
 
+  it('solves a slice of rows as a map of its own, telling each cell\'s index over the whole grid', () => {
+    const whole = solveMap(model)
+    const seen: number[] = []
+    const slice = solveMap(model, { rows: { from: 2, to: 4 }, onCell: (k) => seen.push(k) })
+    expect(slice.y.values).toEqual(model.map!.y.values.slice(2, 4))
+    expect(slice.cellsDone).toBe(30)
+    expect(seen).toEqual(Array.from({ length: 30 }, (_, k) => 30 + k))
+    for (const [i, j] of [[0, 0], [1, 9], [1, 14]] as const) expectClose(mapCell(slice, i, j), mapCell(whole, i + 2, j))
+  })
+
   it('answers a model without a map with an empty grid, not an exception', () => {
     const { map: _map, ...plain } = model
     expect(solveMap(plain as Model)).toMatchObject({ cellsDone: 0, failedCells: 0, cancelled: false })
