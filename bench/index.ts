@@ -5,7 +5,7 @@
  */
 import { compile } from '../shared/poise/index'
 import type { Model } from '../shared/poise/model'
-import { solve, sweep, SOLVER_VERSION } from '../server/solver/index'
+import { solve, solveMap, sweep, SOLVER_VERSION } from '../server/solver/index'
 import { newton } from '../server/solver/newton'
 import { Workspace, type SolverState } from '../server/solver/workspace'
 import { buildProblem } from '../server/solver/problem'
@@ -110,6 +110,19 @@ async function main(json: boolean): Promise<void> {
   }, 9, 2)
   const sweepPointUs = (sweep1000Ms / 1000) * 1000
 
+  // A 100 × 50 map against the same cells as 50 sweeps of 100 points (one per row): continuation along rows
+  // with each row started from the one before should cost what the cells cost as sweep points.
+  const mapModel = compiled(benchSystemSource('map pH from 4 to 12 points 100 by total Cu^2+ from 1e-5 to 1e-3 mol/L points 50 log'))
+  let mapFailedCells = 0
+  const map5000Ms = timeMs(() => { mapFailedCells = solveMap(mapModel, { timeBudgetMs: 60_000 }).failedCells }, 3, 1)
+  const rowSweepsMs = timeMs(() => {
+    for (const total of mapModel.map!.y.values) {
+      const row = { ...mapModel, map: undefined, sweep: { ...mapModel.map!.x }, components: mapModel.components.map((c) => (c.name === 'Cu^2+' ? { ...c, value: total } : c)) }
+      sweep(row, { timeBudgetMs: 60_000 })
+    }
+  }, 3, 1)
+  const mapCellToSweepPoint = map5000Ms / rowSweepsMs
+
   // The same Newton step, ours against a plain typed-array one, from the
   // converged cold solve with every log c nudged by 0.01 (a typical
   // continuation iteration with the solids present).
@@ -196,7 +209,7 @@ async function main(json: boolean): Promise<void> {
   const figures = {
     compileMs, solveColdUs, sweepPointUs, sweep1000Ms, ratioToPlain, cliCheckMs, nodeBareMs, cliRatio,
     sweepPointToNewton, httpToInProcess, sweep20kPeakRssMB, sweepScalingExponent, compileCachedMs, workbenchUsableMs, workbenchFirstResultMs,
-    httpPointsToInProcess, sweep20kPointsPeakRssMB: rssPoints.peakRssMB, fitDiproticMs,
+    httpPointsToInProcess, sweep20kPointsPeakRssMB: rssPoints.peakRssMB, fitDiproticMs, map5000Ms, mapCellToSweepPoint,
   }
   if (json) {
     console.log(JSON.stringify(figures))
@@ -212,6 +225,8 @@ async function main(json: boolean): Promise<void> {
   console.log(row('one solve, cold start', `${solveColdUs.toFixed(0)} µs`, '< 1000 µs', solveColdUs < 1000))
   console.log(row('one sweep point with continuation (mean)', `${sweepPointUs.toFixed(1)} µs`, '< 100 µs', sweepPointUs < 100))
   console.log(row('1,000-point pH sweep, end to end', `${sweep1000Ms.toFixed(1)} ms`, '< 150 ms', sweep1000Ms < 150))
+  console.log(row('100 × 50 map / the same cells as 50 sweeps', `${mapCellToSweepPoint.toFixed(2)}×`, '≤ 1.2×', mapCellToSweepPoint <= 1.2))
+  console.log(`  (map ${map5000Ms.toFixed(0)} ms, ${mapFailedCells} cells failed; rows as sweeps ${rowSweepsMs.toFixed(0)} ms)`)
   console.log(row('Newton step, ours / plain Float64Array', `${ratioToPlain.toFixed(2)}×`, '≤ 3×', ratioToPlain <= 3))
   console.log(`  (step: ours ${ourStepUs.toFixed(1)} µs, plain ${plainStepUs.toFixed(1)} µs; results agree to ${agree.toExponential(1)} log units; ${failedPoints} sweep points failed)`)
   console.log(row('equipoise check of an example, new process', `${cliCheckMs.toFixed(0)} ms`, '< 300 ms', cliCheckMs < 300))

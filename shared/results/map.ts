@@ -18,7 +18,7 @@ import { MOLAR_SCALE, type UnitScale } from './units'
 /** The part of the model the map readers need. */
 export type MapModel = Pick<Model, 'components' | 'species' | 'solids'>
 
-/** Axis label in words with its unit; a log axis says log10. */
+/** Axis label in words with its unit (a log axis is drawn in log10 of it, ticks written as powers of ten). */
 export function mapAxisLabel(axis: MapAxis): string {
   const name = axis.component ? typesetFormula(axis.component) : ''
   switch (axis.variable) {
@@ -34,24 +34,26 @@ export function axisPosition(axis: MapAxis, v: number): number {
   return axis.log ? Math.log10(v) : v
 }
 
-/** The index of the axis value nearest to v (v in the axis' own units). */
-export function nearestIndex(axis: MapAxis, v: number): number {
-  const at = axisPosition(axis, v)
+/** The index of the axis value nearest to a position on it (log10 of the value on a log axis). */
+export function nearestIndex(axis: MapAxis, position: number): number {
   let best = 0
   let bestDistance = Infinity
   axis.values.forEach((value, i) => {
-    const d = Math.abs(axisPosition(axis, value) - at)
+    const d = Math.abs(axisPosition(axis, value) - position)
     if (d < bestDistance) { best = i; bestDistance = d }
   })
   return best
 }
 
-/** The edges of the grid along an axis: half a step beyond the first and last values (in its own units). */
-export function axisExtent(axis: MapAxis): [number, number] {
+/**
+ * The edges of the grid along an axis, as positions (log10 on a log axis):
+ * half a step beyond the first and last values. A map is drawn in positions,
+ * where its grid is even, so a contour's grid lies on its cells.
+ */
+export function positionExtent(axis: MapAxis): [number, number] {
   const p = axis.values.map((v) => axisPosition(axis, v))
   const half = p.length > 1 ? (p[p.length - 1]! - p[0]!) / (p.length - 1) / 2 : 0.5
-  const back = (x: number) => (axis.log ? Math.pow(10, x) : x)
-  return [back(p[0]! - half), back(p[p.length - 1]! + half)]
+  return [p[0]! - half, p[p.length - 1]! + half]
 }
 
 /** Components a predominance map can be drawn for: held by some species or solid, never negatively (H+ is not one). */

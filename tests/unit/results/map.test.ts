@@ -8,7 +8,7 @@ import { describe, expect, it } from 'vitest'
 import { compile } from '../../../shared/poise/index'
 import { solveMap } from '../../../server/solver/index'
 import { mapCell } from '../../../shared/results/map-columns'
-import { SATURATED_SI, axisExtent, boundaryAnchor, mapCsv, nearestIndex, predominance, predominanceComponents, quantityGrid, solidBoundaries } from '../../../shared/results/map'
+import { SATURATED_SI, positionExtent, boundaryAnchor, mapCsv, nearestIndex, predominance, predominanceComponents, quantityGrid, solidBoundaries } from '../../../shared/results/map'
 import { unitScale } from '../../../shared/results/units'
 
 const source = readFileSync(resolve(import.meta.dirname, '../../../examples/copper-hydroxide-carbonate-map.poise'), 'utf8')
@@ -62,13 +62,14 @@ describe('colour map, boundaries and CSV', () => {
     expect(lines[0]!.si[at]).toBeGreaterThanOrEqual(SATURATED_SI)
     expect(at).toBeGreaterThanOrEqual(0)
   })
-  it('finds the cell nearest a point, by log on a log axis; the grid reaches half a step past its ends', () => {
-    expect(nearestIndex(map.y, 2e-4)).toBe(2)
-    expect(nearestIndex(map.y, 6e-4)).toBe(3)
+  it('finds the cell nearest a position, log10 on a log axis; the grid reaches half a step past its ends', () => {
+    expect(nearestIndex(map.y, Math.log10(2e-4))).toBe(2)
+    expect(nearestIndex(map.y, Math.log10(6e-4))).toBe(3)
     expect(nearestIndex(map.x, 7.4)).toBe(4)
-    const [a, b] = axisExtent(map.y)
-    expect(Math.log10(a)).toBeCloseTo(-6.5, 12)
-    expect(Math.log10(b)).toBeCloseTo(-1.5, 12)
+    const [a, b] = positionExtent(map.y)
+    expect(a).toBeCloseTo(-6.5, 12)
+    expect(b).toBeCloseTo(-1.5, 12)
+    expect(positionExtent(map.x)).toEqual([2.5, 12.5])
   })
   it('writes one CSV line a cell with both axes, the dominant holder and the numbers at full precision', () => {
     const lines = mapCsv(map, model, { component: 'Cu^2+' }).trimEnd().split('\r\n')
