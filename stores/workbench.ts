@@ -21,13 +21,11 @@ import type { Answer, AnswerKind, MapAnswer, Result, SweepResult, TitrationResul
 import { mapCell } from '../shared/results/map-columns'
 import type { PreviewAnswer, RevisionView, RunListAnswer, RunView, SystemAnswer } from '../shared/types/system'
 import { titrationAsSweep } from '../shared/results/titration'
-import { distributableComponents, type StoichiometryModel } from '../shared/results/share'
-import { diagramPrefsKey, parseDiagramPrefs } from '../shared/results/diagramPrefs'
 import { labRoleAtLeast } from '../shared/utils/roles'
 import { RUN_STORE_ROLE } from '../shared/utils/run-rules'
 import type { ResolveLibrary } from '../shared/utils/library-preload'
 import { labLibraryPreloader, resolverFrom } from '../utils/libraryTexts'
-import { browserStorage } from '../utils/storage'
+import { latestRunOf } from '../utils/picks'
 import { BINARY_ANSWER_TYPE, decodeBinaryAnswer } from '../shared/results/binary-answer'
 import { sweepView, type SweepColumns } from '../shared/results/sweep-columns'
 
@@ -111,35 +109,7 @@ export function problemFrom(error: unknown): ServerProblem {
   return { status, message, diagnostics }
 }
 
-/** The newest run of the given revision from a newest-first list, or null. */
-export function latestRunOf(runs: RunView[], revision: number): RunView | null {
-  return runs.find((run) => run.revision === revision) ?? null
-}
-
-/**
- * The component to share out first: the one held by the most species (the
- * phosphate of a sodium phosphate buffer, not its sodium); ties go to the
- * first declared.
- */
-export function richestComponent(model: StoichiometryModel): string | null {
-  let best: string | null = null
-  let most = 0
-  for (const name of distributableComponents(model)) {
-    const j = model.components.findIndex((c) => c.name === name)
-    const holders = model.species.filter((s) => (s.nu[j] ?? 0) > 0).length
-    if (holders > most) {
-      best = name
-      most = holders
-    }
-  }
-  return best
-}
-
-/** The component to show first: the one the diagram remembers for this system (browser only), else the richest. */
-export function startingComponent(model: StoichiometryModel, systemKey: string): string | null {
-  const remembered = browserStorage()?.getItem(diagramPrefsKey(systemKey))
-  return (remembered === undefined ? undefined : parseDiagramPrefs(remembered).component) ?? richestComponent(model)
-}
+export { latestRunOf, richestComponent, startingComponent } from '../utils/picks'
 
 type Fetcher = <T>(url: string, options?: { method?: string; body?: unknown; headers?: Record<string, string> }) => Promise<T>
 

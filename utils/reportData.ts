@@ -6,10 +6,9 @@
  * stored before models were, the text is recompiled with the library
  * revisions the run recorded (and the page says so).
  */
-import { findUses } from '../shared/poise/index'
-import { labLibraryPreloader, type GetJson, type LibraryTexts } from './libraryTexts'
+import type { GetJson, LibraryTexts } from './libraryTexts'
 import type { RevisionView, RunListAnswer, RunView } from '../shared/types/system'
-import { latestRunOf } from '../stores/workbench'
+import { latestRunOf } from './picks'
 
 export interface ReportChoice {
   run: number | null
@@ -54,8 +53,11 @@ export async function loadReport(get: GetJson, lab: string, system: string, late
     ? latest
     : await get<{ revision: RevisionView }>(`${base}/revisions/${number}`).then((a) => a.revision, () => null)
   // Only a run stored before models were needs the library texts: its model is rebuilt from its text.
-  const libraries = revision && !run?.model && findUses(revision.source).length
-    ? await labLibraryPreloader(lab, get)(revision.source, run?.libraries ?? []).catch(() => ({}))
-    : {}
+  // The language and the library loader are loaded only then, so the report of a run with its model does not carry them.
+  let libraries: LibraryTexts = {}
+  if (revision && !run?.model) {
+    const [{ findUses }, { labLibraryPreloader }] = await Promise.all([import('../shared/poise/index'), import('./libraryTexts')])
+    if (findUses(revision.source).length) libraries = await labLibraryPreloader(lab, get)(revision.source, run?.libraries ?? []).catch(() => ({}))
+  }
   return { number, revision, run, libraries }
 }
