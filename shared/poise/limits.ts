@@ -163,7 +163,16 @@ export const SIZE_LIMITS = {
   maxSweepPoints: 5000,
   /** At most this many cells (points of the first axis × points of the second) in one `map`. */
   maxMapCells: 40_000,
-  maxSpecies: 500,
+  /**
+   * Set from the benchmark's scaling table (bench/README.md), not a round
+   * number: since the sparse LU a sweep point costs about in proportion to
+   * the species, and the largest system measured, 256 components and 765
+   * species, took ~25 ms a point on the benchmark's 2-core machine under a
+   * load of 18 — one solve well under a second, a 500-point sweep inside the
+   * 20 s solve budget, its points' JSON ~85 MB. 800 keeps a system of that
+   * size, with a few species to spare, inside those figures.
+   */
+  maxSpecies: 800,
   maxSolids: 60,
 } as const
 /** A data set for fitting (shared/fit/dataset.ts) has at most this many rows of data: each is an exact solve at every step of a fit. */
