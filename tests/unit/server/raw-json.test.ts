@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { jsonBytesWithRaw, jsonBytesWithRaws, jsonWithRaw, jsonWithRaws } from '../../../server/utils/raw-json'
+import { coalesced, jsonBytesWithRaw, jsonBytesWithRaws, jsonWithRaw, jsonWithRaws } from '../../../server/utils/raw-json'
 
 describe('jsonWithRaw', () => {
   it('gives the same JSON as stringifying the parsed value in place', () => {
@@ -34,5 +34,27 @@ describe('jsonBytesWithRaw', () => {
     const bytes = jsonBytesWithRaws({ kind: 'single' }, { result: new TextEncoder().encode('{"pH":7}'), model: '{"title":"Bad"}' })
     expect(bytes.toString('utf8')).toBe('{"kind":"single","result":{"pH":7},"model":{"title":"Bad"}}')
     expect(jsonBytesWithRaws({}, { a: '1', b: new TextEncoder().encode('[2]') }).toString('utf8')).toBe('{"a":1,"b":[2]}')
+  })
+})
+
+describe('coalesced', () => {
+  /** Pseudo-random bytes, so a misplaced byte shows. */
+  const bytes = (n: number, seed: number) => {
+    const b = new Uint8Array(n)
+    for (let i = 0; i < n; i++) b[i] = (i * 31 + seed * 7) & 255
+    return b
+  }
+
+  it('writes many small pieces as a few blocks with the same bytes in order, and large ones as they are', () => {
+    const chunks = [...Array.from({ length: 3000 }, (_, k) => bytes(800 + (k % 9) * 8, k)), bytes(3 << 20, 1), bytes(5, 2), bytes(16, 3)]
+    const blocks = [...coalesced(chunks)]
+    expect(Buffer.concat(blocks).equals(Buffer.concat(chunks))).toBe(true)
+    expect(blocks.length).toBeLessThan(10)
+    expect(blocks).toContain(chunks[3000])
+    for (const b of blocks) if (b !== chunks[3000]) expect(b.byteLength).toBeLessThanOrEqual(1 << 20)
+  })
+
+  it('gives nothing for nothing', () => {
+    expect([...coalesced([])]).toEqual([])
   })
 })
