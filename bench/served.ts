@@ -67,6 +67,8 @@ export interface WorkbenchFigures {
   usableMs: number, firstResultMs: number, transferredBytes: number, decodedBytes: number
   /** The sign-in page, cold: what a page without the editor and the plots carries. */
   loginTransferredBytes: number, loginDecodedBytes: number
+  /** The printable report of a stored run of the same system, cold: to the summary shown and Nuxt hydrated. */
+  reportUsableMs: number, reportTransferredBytes: number, reportDecodedBytes: number
 }
 
 /** Bytes over the wire and decoded for everything the page loaded so far. */
@@ -82,15 +84,20 @@ export async function workbenchMs(server: BuiltServer, reps = 3): Promise<Workbe
     args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
   })
   const rows: WorkbenchFigures[] = []
+  const system = `${server.base}/labs/${DEMO_LAB.slug}/systems/copper-rinse-tank`
+  // A stored run of the system, for its report.
+  const stored = await fetch(`${server.base}/api/labs/${DEMO_LAB.slug}/systems/copper-rinse-tank/runs`, { method: 'POST', headers: { 'content-type': 'application/json', origin: server.base, cookie: server.cookie }, body: '{}' })
+  if (!stored.ok) throw new Error(`storing a run for the report answered ${stored.status}`)
+  const hydrated = () => (window as unknown as { useNuxtApp?: () => { isHydrating: boolean } }).useNuxtApp?.().isHydrating === false
   try {
     for (let k = 0; k < reps + 1; k++) {
       const context = await browser.newContext()
       await context.addCookies([{ name: server.cookie.split('=')[0], value: server.cookie.slice(server.cookie.indexOf('=') + 1), url: server.base }])
       const page = await context.newPage()
       const t0 = performance.now()
-      await page.goto(`${server.base}/labs/${DEMO_LAB.slug}/systems/copper-rinse-tank`, { waitUntil: 'commit' })
+      await page.goto(system, { waitUntil: 'commit' })
       await page.locator('.cm-content').waitFor()
-      await page.waitForFunction(() => (window as unknown as { useNuxtApp?: () => { isHydrating: boolean } }).useNuxtApp?.().isHydrating === false)
+      await page.waitForFunction(hydrated)
       const usableMs = performance.now() - t0
       await page.locator('.cm-content').click()
       await page.keyboard.press('Control+Enter')
@@ -101,10 +108,25 @@ export async function workbenchMs(server: BuiltServer, reps = 3): Promise<Workbe
       const signedOut = await browser.newContext()
       const login = await signedOut.newPage()
       await login.goto(`${server.base}/login`, { waitUntil: 'load' })
-      await login.waitForFunction(() => (window as unknown as { useNuxtApp?: () => { isHydrating: boolean } }).useNuxtApp?.().isHydrating === false)
+      await login.waitForFunction(hydrated)
       const loginBytes = await login.evaluate(pageBytes)
       await signedOut.close()
-      if (k > 0) rows.push({ usableMs, firstResultMs, transferredBytes: bytes.transferred, decodedBytes: bytes.decoded, loginTransferredBytes: loginBytes.transferred, loginDecodedBytes: loginBytes.decoded })
+      const forReport = await browser.newContext()
+      await forReport.addCookies([{ name: server.cookie.split('=')[0], value: server.cookie.slice(server.cookie.indexOf('=') + 1), url: server.base }])
+      const reportPage = await forReport.newPage()
+      const r0 = performance.now()
+      await reportPage.goto(`${system}/report`, { waitUntil: 'commit' })
+      await reportPage.locator('[data-test=summary-ph]').waitFor()
+      await reportPage.waitForFunction(hydrated)
+      const reportUsableMs = performance.now() - r0
+      const reportBytes = await reportPage.evaluate(pageBytes)
+      await forReport.close()
+      if (k > 0) {
+        rows.push({
+          usableMs, firstResultMs, transferredBytes: bytes.transferred, decodedBytes: bytes.decoded, loginTransferredBytes: loginBytes.transferred, loginDecodedBytes: loginBytes.decoded,
+          reportUsableMs, reportTransferredBytes: reportBytes.transferred, reportDecodedBytes: reportBytes.decoded,
+        })
+      }
     }
   } finally {
     await browser.close()
@@ -116,5 +138,8 @@ export async function workbenchMs(server: BuiltServer, reps = 3): Promise<Workbe
     decodedBytes: median(rows.map(r => r.decodedBytes)),
     loginTransferredBytes: median(rows.map(r => r.loginTransferredBytes)),
     loginDecodedBytes: median(rows.map(r => r.loginDecodedBytes)),
+    reportUsableMs: median(rows.map(r => r.reportUsableMs)),
+    reportTransferredBytes: median(rows.map(r => r.reportTransferredBytes)),
+    reportDecodedBytes: median(rows.map(r => r.reportDecodedBytes)),
   }
 }
