@@ -46,13 +46,13 @@ describe('coalesced', () => {
   }
 
   it('writes many small pieces as a few blocks with the same bytes in order, and large ones as they are', () => {
-    const chunks = [...Array.from({ length: 3000 }, (_, k) => bytes(800 + (k % 9) * 8, k)), bytes(3 << 20, 1), bytes(5, 2), bytes(16, 3)]
+    const chunks = [...Array.from({ length: 2000 }, (_, k) => bytes(800 + (k % 9) * 8, k)), bytes((1 << 20) + 8, 1), bytes(5, 2), bytes(16, 3)]
     const blocks = [...coalesced(chunks)]
     expect(Buffer.concat(blocks).equals(Buffer.concat(chunks))).toBe(true)
     expect(blocks.length).toBeLessThan(10)
-    expect(blocks).toContain(chunks[3000])
-    for (const b of blocks) if (b !== chunks[3000]) expect(b.byteLength).toBeLessThanOrEqual(1 << 20)
-  })
+    expect(blocks.includes(chunks[2000])).toBe(true)
+    expect(blocks.filter(b => b !== chunks[2000]).every(b => b.byteLength <= 1 << 20)).toBe(true)
+  }, 30_000)
 
   it('gives nothing for nothing', () => {
     expect([...coalesced([])]).toEqual([])
