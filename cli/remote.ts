@@ -3,7 +3,7 @@
  * run, history. Each takes its parsed options and returns an exit code, or
  * throws a CliError (main.ts prints it).
  */
-import type { RevisionListAnswer, RevisionView, RunView } from '../shared/types/system'
+import type { LabListAnswer, RevisionAnswer, RevisionListAnswer, RevisionView, RunView, SystemAnswer, SystemListAnswer } from '../shared/types/system'
 import { existsSync, readFileSync, writeFileSync } from 'node:fs'
 import { Client, normaliseServer, parseTarget } from './client'
 import { currentLogin, pulledRevision, rememberPull, saveLogin } from './config'
@@ -50,7 +50,7 @@ export async function login(options: { server?: string }): Promise<number> {
 }
 
 export async function labs(options: { json?: boolean }): Promise<number> {
-  const { labs } = await new Client(currentLogin()).get<{ labs: { slug: string, name: string, role: string }[] }>('/api/labs')
+  const { labs } = await new Client(currentLogin()).get<LabListAnswer>('/api/labs')
   if (options.json) out(JSON.stringify(labs, null, 2))
   else if (!labs.length) note('You are not a member of any lab.')
   else out(table([['LAB', 'ROLE', 'NAME'], ...labs.map((l) => [l.slug, l.role, l.name])]))
@@ -59,7 +59,7 @@ export async function labs(options: { json?: boolean }): Promise<number> {
 
 export async function systems(lab: string | undefined, options: { json?: boolean }): Promise<number> {
   if (!lab || lab.includes('/')) throw new CliError(EXIT.badInput, `systems takes a lab's short name (see \`equipoise labs\`)${lab ? `, not "${lab}"` : ''}`)
-  const { systems } = await new Client(currentLogin()).get<{ systems: { slug: string, title: string, isLibrary: boolean, latestRevision: number | null, updatedAt: string | null }[] }>(`/api/labs/${encodeURIComponent(lab)}/systems`)
+  const { systems } = await new Client(currentLogin()).get<SystemListAnswer>(`/api/labs/${encodeURIComponent(lab)}/systems`)
   if (options.json) out(JSON.stringify(systems, null, 2))
   else if (!systems.length) note(`${lab} has no systems yet.`)
   else out(table([['SYSTEM', 'REV', 'SAVED', 'TITLE'], ...systems.map((s) => [
@@ -69,8 +69,8 @@ export async function systems(lab: string | undefined, options: { json?: boolean
 }
 
 async function fetchRevision(client: Client, path: string, number: number | undefined): Promise<Revision> {
-  if (number === undefined) return (await client.get<{ system: { latest: Revision } }>(path)).system.latest
-  return (await client.get<{ revision: Revision }>(`${path}/revisions/${number}`)).revision
+  if (number === undefined) return (await client.get<SystemAnswer>(path)).system.latest
+  return (await client.get<RevisionAnswer>(`${path}/revisions/${number}`)).revision
 }
 
 export async function pull(target: string | undefined, options: { revision?: string, output?: string }): Promise<number> {

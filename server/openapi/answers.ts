@@ -5,7 +5,7 @@
  * when a route's answer changes and its description does not.
  */
 import { z } from 'zod'
-import type { RevisionListAnswer as RevisionList, RevisionSummary, RevisionView, RunStorage, RunView, SystemAnswer as SystemView } from '../../shared/types/system'
+import type { LabListAnswer as LabList, RevisionAnswer as RevisionWithLatest, RevisionListAnswer as RevisionList, RevisionSummary, RevisionView, RunStorage, RunView, SystemAnswer as SystemView, SystemListAnswer as SystemList } from '../../shared/types/system'
 import { LAB_ROLES } from '../../shared/utils/roles'
 import { REVIEW_STATES } from '../../shared/types/review'
 
@@ -86,7 +86,10 @@ export const SystemListAnswer = z.object({
   })),
 })
 
+const systemListChecked: Same<z.infer<typeof SystemListAnswer>, SystemList> = true
+
 export const LabListAnswer = z.object({ labs: z.array(z.object({ slug: z.string(), name: z.string(), role: z.enum(LAB_ROLES) })) })
+const labListChecked: Same<z.infer<typeof LabListAnswer>, LabList> = true
 
 export const MeAnswer = z.object({ user: z.object({ id: z.int(), email: z.string(), name: z.string(), isAdmin: z.boolean() }) })
 
@@ -94,6 +97,7 @@ export const RevisionAnswerWithLatest = z.object({
   revision: RevisionAnswer.extend({ parent: z.int().nullable() }),
   latestRevision: z.int(),
 })
+const revisionWithLatestChecked: Same<z.infer<typeof RevisionAnswerWithLatest>, RevisionWithLatest> = true
 
 export const RevisionListAnswer = z.object({
   lab: LabRef,
@@ -104,4 +108,4 @@ export const RevisionListAnswer = z.object({
 const revisionListChecked: Same<z.infer<typeof RevisionListAnswer>, RevisionList> = true
 
 // Referenced so the compile-time checks above are not reported as unused.
-export const ANSWERS_CHECKED = revisionChecked && summaryChecked && runChecked && storageChecked && systemChecked && revisionListChecked
+export const ANSWERS_CHECKED = revisionChecked && summaryChecked && runChecked && storageChecked && systemChecked && revisionListChecked && systemListChecked && labListChecked && revisionWithLatestChecked

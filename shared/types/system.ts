@@ -102,3 +102,19 @@ export interface RevisionListAnswer {
   role: LabRole
   revisions: RevisionSummary[]
 }
+
+/** GET /api/labs/:lab/systems: the lab's systems by title, with their latest revision. */
+export interface SystemListAnswer {
+  systems: { slug: string; title: string; isLibrary: boolean; latestRevision: number | null; updatedAt: string | null }[]
+}
+
+/** GET /api/labs: the labs I am a member of, with my role. */
+export interface LabListAnswer {
+  labs: { slug: string; name: string; role: LabRole }[]
+}
+
+/** GET …/systems/:system/revisions/:number */
+export interface RevisionAnswer {
+  revision: RevisionView & { parent: number | null }
+  latestRevision: number
+}

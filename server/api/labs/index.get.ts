@@ -1,7 +1,8 @@
 import { asc, eq } from 'drizzle-orm'
+import type { LabListAnswer } from '#shared/types/system'
 
 /** The labs I am a member of, with my role. */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<LabListAnswer> => {
   const user = await requireUser(event)
   const labs = await useDb()
     .select({ slug: tables.labs.slug, name: tables.labs.name, role: tables.labMembers.role })

@@ -1,8 +1,9 @@
 import { asc, eq, max } from 'drizzle-orm'
 import { LabParams } from '#shared/utils/lab-schemas'
+import type { SystemListAnswer } from '#shared/types/system'
 
 /** The lab's systems with their latest revision number. */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<SystemListAnswer> => {
   const params = validateParams(event, LabParams)
   const { lab } = await requireLabRole(event, params.lab, 'viewer')
   const systems = await useDb()

@@ -1,5 +1,6 @@
 /** GET /api/labs/:lab/systems/:system/revisions/:number — one revision with its text. */
-export default defineEventHandler(async (event) => {
+import type { RevisionAnswer } from '#shared/types/system'
+export default defineEventHandler(async (event): Promise<RevisionAnswer> => {
   const params = validateParams(event, RevisionParams)
   const { system, latest } = await requireSystem(event, params.lab, params.system, 'viewer')
   const revision = await findRevision(system.id, params.number)
