@@ -74,8 +74,13 @@ describe('the workbench with a lab library', () => {
     await replaceLine(page, 'use "ghost"', '')
     await replaceLine(page, 'component CH3COO- total', 'component CH3COO- total 1 mM')
     await page.getByTestId('status-errors').getByText('0 errors').waitFor()
+    // The preview solved on opening (10 mM) is still on show, and says it no longer matches the text.
+    await page.locator('[data-test=preview-label]').getByText('Preview of revision 1').waitFor()
+    await page.locator('[data-test=run-stale]').waitFor()
     await page.locator('[data-test=run]').click()
-    await page.locator('[data-test=preview-label]').waitFor()
+    // Only the answer for the edited text is labelled as current: a preview of unsaved text, not stale.
+    await page.locator('[data-test=preview-label]').getByText('Preview of unsaved text').waitFor()
+    await expect(page.locator('[data-test=run-stale]').count()).resolves.toBe(0)
     const pH = Number(await page.locator('[data-test=summary-ph]').textContent())
     expect(pH).toBeCloseTo(weakAcidPH(4.76, 0.001), 2)
     // The species table uses the solved text's model, library species included.
