@@ -147,6 +147,22 @@ describe('the workbench', () => {
     await screenshot(page, 'workbench-viewer')
   })
 
+  it('shows the Run and Save keys where there is a keyboard, and not on a touch screen', async () => {
+    const editor = await signInAs('editor')
+    const desk = await openSignedIn('/labs/demo/systems/copper-rinse-tank', editor.cookie)
+    await openWorkbench(desk)
+    await expect(desk.locator('[data-test=run-key]').isVisible()).resolves.toBe(true)
+    await expect(desk.locator('[data-test=save-key]').isVisible()).resolves.toBe(true)
+    await expect(desk.getByTestId('status-run-key').isVisible()).resolves.toBe(true)
+    const phone = await openSignedIn('/labs/demo/systems/copper-rinse-tank', editor.cookie, { hasTouch: true, isMobile: true, viewport: { width: 390, height: 844 } })
+    await phone.locator('.cm-content').waitFor()
+    await phone.locator('[data-test=run]').waitFor()
+    await expect(phone.locator('[data-test=run-key]').isVisible()).resolves.toBe(false)
+    await expect(phone.locator('[data-test=save-key]').isVisible()).resolves.toBe(false)
+    await expect(phone.getByTestId('status-run-key').isVisible()).resolves.toBe(false)
+    await screenshot(phone, 'workbench-touch')
+  })
+
   it('shows both texts when a colleague saved first, and saves mine only when asked', async () => {
     const owner = await signUp('owner')
     const colleague = await signUp('colleague')

@@ -6,7 +6,7 @@
 import { mkdirSync } from 'node:fs'
 import { resolve } from 'node:path'
 import { createPage, getBrowser, url, waitForHydration } from '@nuxt/test-utils/e2e'
-import type { Page } from 'playwright-core'
+import type { BrowserContextOptions, Page } from 'playwright-core'
 import { SESSION_COOKIE } from './accounts'
 
 export const SCREENSHOT_DIR = resolve(import.meta.dirname, '../../test-results')
@@ -15,9 +15,10 @@ export function openPage(path: string): Promise<Page> {
   return createPage(path)
 }
 
-export async function openSignedIn(path: string, cookie: string): Promise<Page> {
+/** `device`: context options such as a phone's (`{ hasTouch: true, isMobile: true, viewport }`). */
+export async function openSignedIn(path: string, cookie: string, device: BrowserContextOptions = {}): Promise<Page> {
   const browser = await getBrowser()
-  const context = await browser.newContext()
+  const context = await browser.newContext(device)
   const value = cookie.replace(`${SESSION_COOKIE}=`, '')
   await context.addCookies([{ name: SESSION_COOKIE, value, url: url('/'), httpOnly: true, secure: true, sameSite: 'Lax' }])
   const page = await context.newPage()
