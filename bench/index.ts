@@ -15,6 +15,7 @@ import { spawnSync } from 'node:child_process'
 import { availableParallelism, loadavg, tmpdir } from 'node:os'
 import { fileURLToPath } from 'node:url'
 import { compileCached } from '../server/utils/compile-cache'
+import { toSweepColumns } from '../shared/results/sweep-columns'
 import { buildCli } from '../scripts/build-cli.mjs'
 import { scalingExponent, scalingSystemSource } from './scaling'
 import { hasBuiltServer, startBuiltServer } from './builtServer'
@@ -110,7 +111,7 @@ async function main(json: boolean): Promise<void> {
   }, 9, 2)
   const sweepPointUs = (sweep1000Ms / 1000) * 1000
 
-  // A 100 × 50 map against the same cells as 50 sweeps of 100 points (one per row): continuation along rows
+  // A 100 × 50 map against the same cells as 50 sweeps of 100 points (one per row, each into columns): continuation along rows
   // with each row started from the one before should cost what the cells cost as sweep points.
   const mapModel = compiled(benchSystemSource('map pH from 4 to 12 points 100 by total Cu^2+ from 1e-5 to 1e-3 mol/L points 50 log'))
   let mapFailedCells = 0
@@ -118,7 +119,8 @@ async function main(json: boolean): Promise<void> {
   const rowSweepsMs = timeMs(() => {
     for (const total of mapModel.map!.y.values) {
       const row = { ...mapModel, map: undefined, sweep: { ...mapModel.map!.x }, components: mapModel.components.map((c) => (c.name === 'Cu^2+' ? { ...c, value: total } : c)) }
-      sweep(row, { timeBudgetMs: 60_000 })
+      // Into columns as the worker answers a sweep, since the map's cells go into columns too.
+      toSweepColumns(sweep(row, { timeBudgetMs: 60_000 }))
     }
   }, 3, 1)
   const mapCellToSweepPoint = map5000Ms / rowSweepsMs
