@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { LoginBody, RegisterBody } from '../../../shared/utils/account-schemas'
+import { titleOf } from '../../../shared/poise/title'
 import { LabCreateBody, MemberParams, SlugSchema, starterSource, SystemCreateBody, SystemUpdateBody } from '../../../shared/utils/lab-schemas'
 import { suggestSlug } from '../../../shared/utils/slugs'
 
@@ -56,9 +57,10 @@ describe('lab schemas', () => {
 })
 
 describe('starter source and suggested addresses', () => {
-  it('starts a system with its title line and a comment, keeping quotes out of the string', () => {
+  it('starts a system with its title line and a comment, the title read back as written (quotes escaped)', () => {
     expect(starterSource('Nickel rinse')).toMatch(/^system "Nickel rinse"\n\n# /)
-    expect(starterSource('The "best" bath')).toMatch(/^system "The  best  bath"/)
+    expect(starterSource('The "best" bath')).toMatch(/^system "The \\"best\\" bath"\n/)
+    expect(titleOf(starterSource('The "best" bath'))).toBe('The "best" bath')
   })
 
   it('suggests a valid address from a title', () => {
