@@ -4,6 +4,7 @@
  * throws a CliError (main.ts prints it).
  */
 import type { LabListAnswer, RevisionAnswer, RevisionListAnswer, RevisionView, RunView, SystemAnswer, SystemListAnswer } from '../shared/types/system'
+import { jobIsActive } from '../shared/types/job'
 import { existsSync, readFileSync, writeFileSync } from 'node:fs'
 import { Client, normaliseServer, parseTarget } from './client'
 import { currentLogin, pulledRevision, rememberPull, saveLogin } from './config'
@@ -112,8 +113,8 @@ export async function push(file: string | undefined, target: string | undefined,
   return EXIT.ok
 }
 
-/** POST …/runs answers with the run's result and model. */
-type RunAnswer = RunView & { result: NonNullable<RunView['result']>; model: Model | null }
+/** GET …/runs/:id answers with the run's model, and its result once the job ended (null before). */
+type RunAnswer = RunView & { model: Model | null }
 
 export async function run(target: string | undefined, options: { revision?: string, json?: boolean, units?: string, asElement?: boolean }): Promise<number> {
   const { lab, path } = parseTarget(target)
@@ -121,8 +122,10 @@ export async function run(target: string | undefined, options: { revision?: stri
   const { checkUnit, formatRun } = await import('./run-format')
   const unit = checkUnit(options.units)
   const client = new Client(currentLogin())
-  const stored = await client.request<RunAnswer>('POST', `${path}/runs`, number === undefined ? {} : { revision: number })
-  const code = stored.status === 'ok' ? EXIT.ok : EXIT.failed
+  const queued = await client.request<RunAnswer>('POST', `${path}/runs`, number === undefined ? {} : { revision: number })
+  const stored = await waitForRun(client, `${path}/runs/${queued.id}`, queued)
+  if (stored.jobStatus === 'failed') throw new CliError(EXIT.failed, `Run ${stored.number} of ${target} failed: ${stored.jobError ?? 'no reason given'}`)
+  const code = stored.status === 'ok' && stored.jobStatus === 'done' ? EXIT.ok : EXIT.failed
   if (options.json) {
     out(JSON.stringify(stored, null, 2))
     return code
@@ -133,9 +136,27 @@ export async function run(target: string | undefined, options: { revision?: stri
     const text = await client.get<{ source: string }>(`/api/labs/${encodeURIComponent(lab)}/libraries/${encodeURIComponent(used.name)}/revisions/${used.revision}`)
     libraries.set(used.name, { source: text.source, revision: used.revision })
   }
-  note(`Run ${stored.number} of ${target}, revision ${stored.revision}: ${stored.status}`)
-  out(formatRun(revision.source, libraries, stored, { unit, asElement: Boolean(options.asElement) }))
+  note(`Run ${stored.number} of ${target}, revision ${stored.revision}: ${stored.jobStatus === 'cancelled' ? `cancelled after ${stored.progress.done} of ${stored.progress.total} points` : stored.status}`)
+  if (!stored.result) return code
+  out(formatRun(revision.source, libraries, { ...stored, result: stored.result }, { unit, asElement: Boolean(options.asElement) }))
   return code
+}
+
+/** How often `run` asks how far a queued run has got. */
+const RUN_POLL_MS = 500
+
+/** Waits for a queued run to end (a worker solves it), saying how far it got on stderr; answers the run with its result. */
+async function waitForRun(client: Client, path: string, run: RunAnswer): Promise<RunAnswer> {
+  let said = ''
+  while (jobIsActive(run.jobStatus)) {
+    await new Promise((r) => setTimeout(r, RUN_POLL_MS))
+    run = await client.get<RunAnswer>(path)
+    const { done, total } = run.progress
+    const now = run.jobStatus === 'queued' ? `Run ${run.number} is queued` : `Run ${run.number}: ${done} of ${total} points`
+    if (total > 1 && now !== said && process.stderr.isTTY) note(now)
+    said = now
+  }
+  return run
 }
 
 export async function history(target: string | undefined, options: { json?: boolean }): Promise<number> {

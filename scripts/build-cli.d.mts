@@ -1,2 +1,3 @@
 export declare const CLI_BUNDLE: string
 export declare function buildCli(): Promise<void>
+export declare function bundleForNode(entry: string, outfile: string): Promise<void>

@@ -10,11 +10,12 @@ const root = fileURLToPath(new URL('..', import.meta.url))
 
 export const CLI_BUNDLE = `${root}dist/equipoise.mjs`
 
-export async function buildCli() {
+/** Bundles one TypeScript entry with what it imports into one ES module for Node 20 (the CLI, the study worker). */
+export async function bundleForNode(entry, outfile) {
   const { build } = await import('esbuild')
   await build({
-    entryPoints: [`${root}cli/main.ts`],
-    outfile: CLI_BUNDLE,
+    entryPoints: [entry],
+    outfile,
     bundle: true,
     platform: 'node',
     format: 'esm',
@@ -26,6 +27,10 @@ export async function buildCli() {
     minifySyntax: true,
     logLevel: 'warning',
   })
+}
+
+export async function buildCli() {
+  await bundleForNode(`${root}cli/main.ts`, CLI_BUNDLE)
 }
 
 if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {

@@ -47,8 +47,13 @@ function initialise() {
   }
 }
 
+/** The largest statement the server takes: a stored run's answer (a long sweep or a map) is tens of megabytes of JSON. */
+const MAX_ALLOWED_PACKET = 256 * 1024 * 1024
+
 function provision() {
   const statements = [
+    // Also for a server started before this setting was passed at start-up (new connections see it).
+    `SET GLOBAL max_allowed_packet = ${MAX_ALLOWED_PACKET}`,
     `CREATE USER IF NOT EXISTS '${appUser}'@'127.0.0.1' IDENTIFIED BY '${appPassword}'`,
     `CREATE USER IF NOT EXISTS '${appUser}'@'localhost' IDENTIFIED BY '${appPassword}'`,
   ]
@@ -83,6 +88,7 @@ async function start() {
     `--pid-file=${pidFile}`, `--port=${port}`, '--bind-address=127.0.0.1',
     '--skip-name-resolve', `--log-error=${errorLog}`, '--innodb-buffer-pool-size=64M',
     '--character-set-server=utf8mb4', '--collation-server=utf8mb4_unicode_ci',
+    `--max-allowed-packet=${MAX_ALLOWED_PACKET}`,
   ], { detached: true, stdio: ['ignore', log, log] })
   child.unref()
   if (!await waitUntil(ping, () => child.exitCode !== null)) {

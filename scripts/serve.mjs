@@ -1,6 +1,7 @@
 #!/usr/bin/env node
 // Runs Equipoise locally: the built server (.output) by default, or
-// `nuxt dev` with --dev. It supplies what a deployment would set by hand:
+// `nuxt dev` with --dev, and beside it the study worker (dist/worker.mjs,
+// server/jobs/worker.ts; EQUIPOISE_NO_WORKER=1 leaves it out). It supplies what a deployment would set by hand:
 // the session secret (generated once, kept in .data/session-secret) and the
 // database URL of the private MariaDB and the Redis URL of the job queue
 // (scripts/redis-url.mjs). Unless NUXT_MAIL_HOST names a real
@@ -18,6 +19,7 @@ import { dirname, join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { startFakeSmtp } from './fake-smtp.mjs'
 import { redisUrl } from './redis-url.mjs'
+import { buildWorker, WORKER_BUNDLE } from './build-worker.mjs'
 
 const root = resolve(dirname(fileURLToPath(import.meta.url)), '..')
 const secretFile = join(root, '.data', 'session-secret')
@@ -65,10 +67,17 @@ if (!dev && !existsSync(entry)) {
   process.exit(1)
 }
 
+// One study worker process beside the web server (npm run worker starts more, here or on other machines).
+// In development it is bundled afresh, so it runs the code as it is now.
+if (dev || !existsSync(WORKER_BUNDLE)) await buildWorker()
+const worker = process.env.EQUIPOISE_NO_WORKER === '1'
+  ? null
+  : spawn(process.execPath, [WORKER_BUNDLE], { cwd: root, env, stdio: 'inherit' })
+
 const [command, args] = dev
   ? [process.execPath, [join(root, 'node_modules', 'nuxt', 'bin', 'nuxt.mjs'), 'dev', '--port', port, '--host', host]]
   : [process.execPath, [entry]]
 if (!dev) console.log(`Equipoise on ${siteUrl} (listening on ${host}:${port}; stop with Ctrl+C)`)
 const child = spawn(command, args, { cwd: root, env, stdio: 'inherit' })
-for (const signal of ['SIGINT', 'SIGTERM']) process.on(signal, () => child.kill(signal))
-child.on('exit', (code) => process.exit(code ?? 0))
+for (const signal of ['SIGINT', 'SIGTERM']) process.on(signal, () => { child.kill(signal); worker?.kill(signal) })
+child.on('exit', (code) => { worker?.kill('SIGTERM'); process.exit(code ?? 0) })

@@ -20,6 +20,7 @@ import type { Model } from '../shared/poise/model'
 import type { Answer, AnswerKind, MapAnswer, Result, SweepResult, TitrationResult } from '../shared/types/result'
 import { mapCell } from '../shared/results/map-columns'
 import type { PreviewAnswer, RevisionView, RunListAnswer, RunView, SystemAnswer } from '../shared/types/system'
+import { jobIsActive } from '../shared/types/job'
 import { titrationAsSweep } from '../shared/results/titration'
 import { labRoleAtLeast } from '../shared/utils/roles'
 import { RUN_STORE_ROLE } from '../shared/utils/run-rules'
@@ -28,6 +29,9 @@ import { labLibraryPreloader, resolverFrom } from '../utils/libraryTexts'
 import { latestRunOf } from '../utils/picks'
 import { BINARY_ANSWER_TYPE, decodeBinaryAnswer } from '../shared/results/binary-answer'
 import { sweepView, type SweepColumns } from '../shared/results/sweep-columns'
+
+/** How often the workbench asks how far a queued or running run has got (polling: any web server can answer from the database, through any proxy). */
+export const JOB_POLL_MS = 500
 
 interface ShownBase {
   kind: AnswerKind
@@ -131,6 +135,10 @@ export const useWorkbenchStore = defineStore('workbench', () => {
   /** For a sweep: which point the tables show. */
   const pointIndex = ref(0)
   const running = ref(false)
+  /** The stored run being computed on the queue (queued or running), as last polled; null when none. */
+  const job = shallowRef<RunView | null>(null)
+  /** True from pressing Cancel until the job has stopped. */
+  const cancelling = ref(false)
   const saving = ref(false)
   const runProblem = shallowRef<ServerProblem | null>(null)
   const saveProblem = shallowRef<ServerProblem | null>(null)
@@ -204,6 +212,11 @@ export const useWorkbenchStore = defineStore('workbench', () => {
       answer.value.system.latest.number === next.system.latest.number
     answer.value = next
     if (same) return
+    // Stop watching another system's job (it goes on on the queue).
+    runTicket++
+    job.value = null
+    cancelling.value = false
+    running.value = false
     source.value = next.system.latest.source
     diagnostics.value = []
     shown.value = null
@@ -217,7 +230,11 @@ export const useWorkbenchStore = defineStore('workbench', () => {
   }
 
   function showStored(run: RunView, solvedSource: string) {
-    if (!run.result) return
+    if (!run.result) {
+      if (run.jobStatus === 'cancelled') runProblem.value = { status: 0, message: `Run ${run.number} was cancelled before any point was computed; nothing was kept.`, diagnostics: [] }
+      if (run.jobStatus === 'failed') runProblem.value = { status: 0, message: run.jobError ?? `Run ${run.number} failed.`, diagnostics: [] }
+      return
+    }
     shown.value = {
       origin: 'stored',
       run,
@@ -265,7 +282,18 @@ export const useWorkbenchStore = defineStore('workbench', () => {
       const { runs } = await request<RunListAnswer>(`${base.value}/runs`)
       mine = latestRunOf(runs, saved.number)
       if (!mine) olderRun.value = runs[0] ?? null
-      else {
+      else if (jobIsActive(mine.jobStatus)) {
+        // Still on the queue (started before the page was left): show its progress and the answer when it ends.
+        if (running.value) return
+        const ticket = ++runTicket
+        running.value = true
+        try {
+          await followJob(mine, saved.source, ticket)
+        } finally {
+          if (ticket === runTicket) running.value = false
+        }
+        return
+      } else {
         const full = await request<RunView>(`${base.value}/runs/${mine.id}`)
         if (latest.value?.number === saved.number && !shown.value) showStored(full, saved.source)
         return
@@ -275,6 +303,39 @@ export const useWorkbenchStore = defineStore('workbench', () => {
       return
     }
     if (latest.value?.number === saved.number && !shown.value && !running.value) await run('preview', true)
+  }
+
+  /** Polls a queued or running job until it ends, keeping `job` current; then shows what it stored. */
+  async function followJob(started: RunView, solvedSource: string, ticket: number) {
+    let current = started
+    job.value = current
+    while (jobIsActive(current.jobStatus)) {
+      await new Promise((r) => setTimeout(r, JOB_POLL_MS))
+      if (ticket !== runTicket) return
+      current = await request<RunView>(`${base.value}/runs/${started.id}`)
+      if (ticket !== runTicket) return
+      job.value = current
+    }
+    job.value = null
+    cancelling.value = false
+    showStored(current, solvedSource)
+  }
+
+  /** Asks the server to stop the job on show; it keeps the points computed so far. */
+  async function cancel() {
+    const current = job.value
+    if (!current || cancelling.value) return
+    cancelling.value = true
+    try {
+      await request(`${base.value}/runs/${current.id}/cancel`, { method: 'POST' })
+    } catch (error) {
+      const problem = problemFrom(error)
+      // 409: it ended meanwhile; the poll shows how.
+      if (problem.status !== 409) {
+        runProblem.value = problem
+        cancelling.value = false
+      }
+    }
   }
 
   /**
@@ -290,8 +351,8 @@ export const useWorkbenchStore = defineStore('workbench', () => {
     runProblem.value = null
     try {
       if (how === 'stored') {
-        const stored = await request<RunView>(`${base.value}/runs`, { method: 'POST', body: { revision: saved.number } })
-        if (ticket === runTicket) showStored(stored, text)
+        const queued = await request<RunView>(`${base.value}/runs`, { method: 'POST', body: { revision: saved.number } })
+        if (ticket === runTicket) await followJob(queued, text, ticket)
       } else {
         const reply = await request<PreviewAnswer | Blob>(`/api/labs/${answer.value!.lab.slug}/solve`, { method: 'POST', body: { source: text }, headers: { accept: PREVIEW_ACCEPT } })
         const preview = await previewAnswerFrom(reply)
@@ -393,8 +454,8 @@ export const useWorkbenchStore = defineStore('workbench', () => {
   }
 
   return {
-    answer, source, diagnostics, shown, olderRun, titration, titrationSweep, map, pointIndex, running, saving, runProblem, saveProblem, conflict, resolveLibrary, librariesLoading,
+    answer, source, diagnostics, shown, olderRun, titration, titrationSweep, map, pointIndex, running, job, cancelling, saving, runProblem, saveProblem, conflict, resolveLibrary, librariesLoading,
     latest, canEdit, canStore, dirty, plan, errorCount, shownModel, shownModelRecompiled, shownIsStale, sweep, pointResult,
-    open, loadLastRun, loadLibraries, run, save, keepMine, takeTheirs,
+    open, loadLastRun, loadLibraries, run, cancel, save, keepMine, takeTheirs,
   }
 })

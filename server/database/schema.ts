@@ -11,6 +11,7 @@ import {
 import { LAB_ROLES } from '../../shared/utils/roles'
 import { API_TOKEN_SCOPES } from '../../shared/utils/token-schemas'
 import { REVIEW_STATES } from '../../shared/types/review'
+import { JOB_STATUSES } from '../../shared/types/job'
 
 const createdAt = datetime('created_at', { mode: 'date', fsp: 3 }).notNull().default(sql`CURRENT_TIMESTAMP(3)`)
 
@@ -81,11 +82,47 @@ export const runs = mysqlTable('runs', {
   result: longtext('result'),
   /** Bytes of `model` plus `result` as stored, counted against the lab's run storage budget; null for older runs (then measured). */
   storedBytes: int('stored_bytes'),
-  status: mysqlEnum('status', ['ok', 'failed', 'diverged']).notNull(),
+  /** How the solve came out; null until the job is done (a cancelled job's kept points say it too). */
+  status: mysqlEnum('status', ['ok', 'failed', 'diverged']),
   timingMs: int('timing_ms').notNull().default(0),
   createdBy: int('created_by').references(() => users.id, { onDelete: 'set null' }),
   createdAt,
-}, (t) => [index('runs_revision_idx').on(t.revisionId)])
+  /** The run as a job on the study queue (server/jobs/); runs from before jobs are `done`. */
+  jobStatus: mysqlEnum('job_status', JOB_STATUSES).notNull().default('done'),
+  /** The queue's id of the job (`run-ID`). */
+  jobId: varchar('job_id', { length: 64 }),
+  queuedAt: datetime('queued_at', { mode: 'date', fsp: 3 }),
+  startedAt: datetime('started_at', { mode: 'date', fsp: 3 }),
+  finishedAt: datetime('finished_at', { mode: 'date', fsp: 3 }),
+  /** The worker (host:pid) that last took the job up. */
+  worker: varchar('worker', { length: 120 }),
+  /** Points done of `pointsTotal`, never decreasing (progress for the browser). */
+  pointsDone: int('points_done').notNull().default(0),
+  pointsTotal: int('points_total').notNull().default(0),
+  /** When someone asked to cancel; the worker stops at its next point and keeps what it computed. */
+  cancelRequestedAt: datetime('cancel_requested_at', { mode: 'date', fsp: 3 }),
+  /** Why a job failed, in words for the user. */
+  jobError: varchar('job_error', { length: 1000 }),
+}, (t) => [
+  index('runs_revision_idx').on(t.revisionId),
+  index('runs_created_by_job_idx').on(t.createdBy, t.jobStatus),
+])
+
+/**
+ * The points of a running job, stored slice by slice as the worker computes
+ * them (server/jobs/), so a job taken up again after its worker died goes on
+ * from the last stored slice. Joined into `runs.result` once, when the job
+ * ends, and deleted in the same transaction.
+ */
+export const runParts = mysqlTable('run_parts', {
+  id: int('id').autoincrement().primaryKey(),
+  runId: int('run_id').notNull().references(() => runs.id, { onDelete: 'cascade' }),
+  firstPoint: int('first_point').notNull(),
+  pointCount: int('point_count').notNull(),
+  failedPoints: int('failed_points').notNull().default(0),
+  /** The slice's points, one JSON text a line (JSON.stringify never writes a raw line break). */
+  body: longtext('body').notNull(),
+}, (t) => [uniqueIndex('run_parts_run_first_unique').on(t.runId, t.firstPoint)])
 
 /**
  * A data set: measurements uploaded to a system as CSV for fitting

@@ -8,6 +8,7 @@ import { z } from 'zod'
 import type { LabListAnswer as LabList, RevisionAnswer as RevisionWithLatest, RevisionListAnswer as RevisionList, RevisionSummary, RevisionView, RunStorage, RunView, SystemAnswer as SystemView, SystemListAnswer as SystemList } from '../../shared/types/system'
 import { LAB_ROLES } from '../../shared/utils/roles'
 import { REVIEW_STATES } from '../../shared/types/review'
+import { JOB_STATUSES } from '../../shared/types/job'
 
 type IsAny<T> = 0 extends 1 & T ? true : false
 /** True when some property of T is `any` (or T is): such a type would match any schema. */
@@ -35,17 +36,24 @@ export const RevisionSummaryAnswer = z.object({
   message: z.string(),
   author: z.string().nullable(),
   createdAt: datetime,
-  run: z.object({ id: z.int(), number: z.int(), status: z.enum(RUN_STATUSES), solverVersion: z.string(), createdAt: datetime }).nullable()
+  run: z.object({ id: z.int(), number: z.int(), status: z.enum(RUN_STATUSES).nullable(), jobStatus: z.enum(JOB_STATUSES), solverVersion: z.string(), createdAt: datetime }).nullable()
     .meta({ description: 'The newest run of this revision, or null' }),
   reviews: z.array(z.object({ id: z.int(), state: z.enum(REVIEW_STATES), against: z.int(), reviewer: z.string().nullable() })),
 })
 const summaryChecked: Same<z.infer<typeof RevisionSummaryAnswer>, RevisionSummary> = true
 
+export const JobProgressAnswer = z.object({
+  done: z.int().meta({ description: 'Points computed so far (never decreasing)' }),
+  total: z.int().meta({ description: 'Points the run computes (1 for a single solve)' }),
+  elapsedMs: z.int().meta({ description: 'Milliseconds since a worker started it (to its end once ended); 0 while queued' }),
+  remainingMs: z.int().nullable().meta({ description: 'Estimated milliseconds left at the rate so far; null while nothing is done or once it ended' }),
+})
+
 export const RunAnswer = z.object({
   id: z.int().meta({ description: 'The run\'s key in URLs (…/runs/:id, the report\'s ?run=)' }),
   number: z.int().meta({ description: 'The run\'s number within its system: 1 for the system\'s first run' }),
   revision: z.int(),
-  status: z.enum(RUN_STATUSES),
+  status: z.enum(RUN_STATUSES).nullable().meta({ description: 'How the solve came out; null until the job is done (and for a job cancelled before its first point)' }),
   kind: z.enum(['single', 'sweep', 'titration', 'map']),
   solverVersion: z.string(),
   compilerVersion: z.string().nullable().meta({ description: 'The compiler version that made the stored model; null for a run stored before models were' }),
@@ -56,11 +64,19 @@ export const RunAnswer = z.object({
   createdBy: z.string().nullable(),
   failedPoints: z.int(),
   libraries: z.array(z.object({ name: z.string(), revision: z.int() })).meta({ description: 'The library revisions the run used' }),
+  jobStatus: z.enum(JOB_STATUSES).meta({ description: 'The run as a job on the study queue: queued → running → done, failed or cancelled (a cancelled run keeps the points it computed)' }),
+  jobId: z.string().nullable().meta({ description: 'The queue\'s id of the job; null for a run stored before runs were jobs' }),
+  queuedAt: datetime.nullable(),
+  startedAt: datetime.nullable(),
+  finishedAt: datetime.nullable(),
+  worker: z.string().nullable().meta({ description: 'The worker (host:pid) that last took the job up' }),
+  progress: JobProgressAnswer,
+  jobError: z.string().nullable().meta({ description: 'Why the job failed, in words; null unless it failed' }),
 })
 const runChecked: Same<z.infer<typeof RunAnswer>, Omit<RunView, 'result' | 'model'>> = true
 
 export const RunWithResultAnswer = RunAnswer.extend({
-  result: z.object({}).loose().meta({ description: 'The Result (a sweep or a titration: its points; a map: `{ format: "map-columns", x, y, cells, cellsDone, failedCells, cancelled }`, its cells by columns), as the workbench shows it; concentrations in mol/L' }),
+  result: z.object({}).loose().nullable().meta({ description: 'Null until the job ends; a cancelled run keeps the points it computed. The Result (a sweep or a titration: its points; a map: `{ format: "map-columns", x, y, cells, cellsDone, failedCells, cancelled }`, its cells by columns), as the workbench shows it; concentrations in mol/L' }),
   model: z.object({}).loose().nullable().meta({ description: 'The compiled model that was solved (constants, conditions, `libraries`), as stored with the run; null for a run stored before models were' }),
 })
 

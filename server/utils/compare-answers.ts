@@ -31,7 +31,7 @@ async function compiled(labId: number, revision: Revision, problems: string[]): 
 
 export async function answerForRevision(labId: number, revision: Revision, userId: number, problems: string[]): Promise<RevisionAnswer> {
   const [stored] = await useDb().select().from(tables.runs)
-    .where(and(eq(tables.runs.revisionId, revision.id), isNotNull(tables.runs.result)))
+    .where(and(eq(tables.runs.revisionId, revision.id), eq(tables.runs.jobStatus, 'done'), isNotNull(tables.runs.result)))
     .orderBy(desc(tables.runs.id))
     .limit(1)
   if (stored?.result) {

@@ -21,11 +21,11 @@ export async function listRevisions(systemId: number): Promise<RevisionSummary[]
   const ids = rows.map(r => r.revision.id)
   if (!ids.length) return []
 
-  const runs = await db.select({ id: tables.runs.id, number: tables.runs.number, revisionId: tables.runs.revisionId, status: tables.runs.status, solverVersion: tables.runs.solverVersion, createdAt: tables.runs.createdAt })
+  const runs = await db.select({ id: tables.runs.id, number: tables.runs.number, revisionId: tables.runs.revisionId, status: tables.runs.status, jobStatus: tables.runs.jobStatus, solverVersion: tables.runs.solverVersion, createdAt: tables.runs.createdAt })
     .from(tables.runs).where(inArray(tables.runs.revisionId, ids)).orderBy(desc(tables.runs.id))
   const newestRun = new Map<number, RevisionSummary['run']>()
   for (const run of runs) {
-    if (!newestRun.has(run.revisionId)) newestRun.set(run.revisionId, { id: run.id, number: run.number, status: run.status, solverVersion: run.solverVersion, createdAt: run.createdAt.toISOString() })
+    if (!newestRun.has(run.revisionId)) newestRun.set(run.revisionId, { id: run.id, number: run.number, status: run.status, jobStatus: run.jobStatus, solverVersion: run.solverVersion, createdAt: run.createdAt.toISOString() })
   }
 
   const against = alias(tables.revisions, 'against')

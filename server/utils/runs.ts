@@ -15,14 +15,8 @@ import type { Revision, Run } from '../database/schema'
 import type { Model } from '../../shared/poise/model'
 import type { AnswerKind } from '../../shared/types/result'
 import type { RunStatus, RunStorage, RunView } from '../../shared/types/system'
-import { COMPILER_VERSION } from '../../shared/poise/version'
-import { formatBytes } from '../../shared/utils/bytes'
-import type { SolveTaskOutput } from '../workers/solve.worker'
-import type { DbExecutor } from './db'
-
-export function runStatusOf(output: SolveTaskOutput): RunStatus {
-  return output.failedPoints === 0 ? 'ok' : 'diverged'
-}
+import { jobIsActive, type JobProgress } from '../../shared/types/job'
+import { budgetMessage, labRunBytes, runBytes } from '../jobs/store'
 
 interface StoredOptions {
   kind?: AnswerKind
@@ -30,10 +24,19 @@ interface StoredOptions {
   failedPoints?: number
 }
 
-/** The bytes a run row takes in the budget: counted when stored, measured for older rows. */
-const runBytes = sql<number>`COALESCE(${tables.runs.storedBytes}, COALESCE(OCTET_LENGTH(${tables.runs.result}), 0) + COALESCE(OCTET_LENGTH(${tables.runs.model}), 0))`
+type RunColumns = Omit<Run, 'model' | 'result'>
 
-export function runView(run: Omit<Run, 'model' | 'result'>, revisionNumber: number, createdBy: string | null, bytes: number): RunView {
+/** Points done of total, time since a worker started it, and the time left at the rate so far. */
+export function jobProgress(run: Pick<RunColumns, 'jobStatus' | 'pointsDone' | 'pointsTotal' | 'startedAt' | 'finishedAt'>, now = Date.now()): JobProgress {
+  const total = run.pointsTotal
+  const done = run.jobStatus === 'done' ? total : Math.min(run.pointsDone, total)
+  const started = run.startedAt?.getTime()
+  const elapsedMs = started === undefined ? 0 : Math.max(0, (run.finishedAt?.getTime() ?? now) - started)
+  const remainingMs = jobIsActive(run.jobStatus) && started !== undefined && done > 0 ? Math.round(elapsedMs / done * (total - done)) : null
+  return { done, total, elapsedMs, remainingMs }
+}
+
+export function runView(run: RunColumns, revisionNumber: number, createdBy: string | null, bytes: number): RunView {
   const options = (run.options ?? {}) as StoredOptions
   return {
     id: run.id,
@@ -50,6 +53,14 @@ export function runView(run: Omit<Run, 'model' | 'result'>, revisionNumber: numb
     createdBy,
     failedPoints: options.failedPoints ?? 0,
     libraries: options.libraries ?? [],
+    jobStatus: run.jobStatus,
+    jobId: run.jobId,
+    queuedAt: run.queuedAt?.toISOString() ?? null,
+    startedAt: run.startedAt?.toISOString() ?? null,
+    finishedAt: run.finishedAt?.toISOString() ?? null,
+    worker: run.worker,
+    progress: jobProgress(run),
+    jobError: run.jobError,
   }
 }
 
@@ -66,27 +77,15 @@ export function runStorageBudgetBytes(): number {
   return Math.max(0, Number.isFinite(mb) ? mb : 0) * 1_000_000
 }
 
-/** Bytes the stored runs of a lab take. */
-export async function labRunBytes(labId: number, db: DbExecutor = useDb()): Promise<number> {
-  const [row] = await db.select({ used: sql<string | number | null>`SUM(${runBytes})` })
-    .from(tables.runs)
-    .innerJoin(tables.revisions, eq(tables.revisions.id, tables.runs.revisionId))
-    .innerJoin(tables.systems, eq(tables.systems.id, tables.revisions.systemId))
-    .where(eq(tables.systems.labId, labId))
-  return Number(row?.used ?? 0)
-}
-
 export async function labRunStorage(labId: number): Promise<RunStorage> {
-  return { usedBytes: await labRunBytes(labId), budgetBytes: runStorageBudgetBytes() }
+  return { usedBytes: await labRunBytes(labId, useDb()), budgetBytes: runStorageBudgetBytes() }
 }
 
-function overBudget(used: number, budget: number, needed: number | null): never {
-  const wanted = needed === null ? '' : `, and this run needs ${formatBytes(needed)} more`
+/** The 409 of a lab over its run storage budget, saying the use and what to do. */
+export function overBudget(used: number, budget: number, needed: number | null): never {
   throw createError({
     statusCode: 409,
-    message: `This lab's stored runs use ${formatBytes(used)} of its ${formatBytes(budget)} run storage budget${wanted}. `
-      + 'Delete old runs from the system\'s history (editors and owners can), or ask the site administrator to raise the budget. '
-      + 'A preview (Run with unsaved edits) is never stored and still works.',
+    message: budgetMessage(used, budget, needed),
     data: { usedBytes: used, budgetBytes: budget, neededBytes: needed },
   })
 }
@@ -94,44 +93,8 @@ function overBudget(used: number, budget: number, needed: number | null): never 
 /** Refuse (409) before solving when the lab's budget is already spent. */
 export async function requireRunStorageRoom(labId: number): Promise<void> {
   const budget = runStorageBudgetBytes()
-  const used = await labRunBytes(labId)
+  const used = await labRunBytes(labId, useDb())
   if (used >= budget) overBudget(used, budget, null)
-}
-
-/**
- * Store a run with the model it solved. The lab row is locked while its
- * stored bytes are summed and the run inserted, so two runs at once cannot
- * both squeeze under the budget.
- */
-export async function storeRun(labId: number, revision: Revision, userId: number, output: SolveTaskOutput, model: Model): Promise<Run> {
-  const modelJson = JSON.stringify(model)
-  const bytes = Buffer.byteLength(modelJson) + output.resultBytes.byteLength
-  const budget = runStorageBudgetBytes()
-  const db = useDb()
-  const id = await db.transaction(async (tx) => {
-    await tx.select({ id: tables.labs.id }).from(tables.labs).where(eq(tables.labs.id, labId)).for('update')
-    const used = await labRunBytes(labId, tx)
-    if (used + bytes > budget) overBudget(used, budget, bytes)
-    // Runs count per system; the lab row lock above keeps two runs from taking one number.
-    await tx.update(tables.systems).set({ lastRunNumber: sql`${tables.systems.lastRunNumber} + 1` }).where(eq(tables.systems.id, revision.systemId))
-    const [counter] = await tx.select({ number: tables.systems.lastRunNumber }).from(tables.systems).where(eq(tables.systems.id, revision.systemId))
-    const [inserted] = await tx.insert(tables.runs).values({
-      revisionId: revision.id,
-      number: counter!.number,
-      solverVersion: output.solverVersion,
-      compilerVersion: COMPILER_VERSION,
-      options: { kind: output.kind, libraries: model.libraries, failedPoints: output.failedPoints },
-      model: modelJson,
-      result: output.resultJson,
-      storedBytes: bytes,
-      status: runStatusOf(output),
-      timingMs: Math.round(output.elapsedMs),
-      createdBy: userId,
-    }).$returningId()
-    return inserted!.id
-  })
-  const [row] = await db.select().from(tables.runs).where(eq(tables.runs.id, id))
-  return row!
 }
 
 /** The revision row with that number of a system, or a 404 that names it. */
@@ -155,6 +118,16 @@ const runSummaryColumns = {
   timingMs: tables.runs.timingMs,
   createdBy: tables.runs.createdBy,
   createdAt: tables.runs.createdAt,
+  jobStatus: tables.runs.jobStatus,
+  jobId: tables.runs.jobId,
+  queuedAt: tables.runs.queuedAt,
+  startedAt: tables.runs.startedAt,
+  finishedAt: tables.runs.finishedAt,
+  worker: tables.runs.worker,
+  pointsDone: tables.runs.pointsDone,
+  pointsTotal: tables.runs.pointsTotal,
+  cancelRequestedAt: tables.runs.cancelRequestedAt,
+  jobError: tables.runs.jobError,
 }
 
 export async function listRuns(systemId: number, limit = 50): Promise<RunView[]> {

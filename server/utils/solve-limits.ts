@@ -1,6 +1,7 @@
 /**
  * Limits on what one request may ask the solver for. They keep one user's
- * huge sweep from occupying the pool; the messages say what to change.
+ * huge sweep from occupying the pool or the study queue; the messages say
+ * what to change. Plain TypeScript (no Nitro): the workers read it too.
  */
 import type { Model } from '../../shared/poise/model'
 import { SIZE_LIMITS } from '../../shared/poise/limits'
@@ -15,6 +16,18 @@ export const SOLVE_LIMITS = {
   /** Extra time before the pool aborts a worker that ignores its budget. */
   graceMs: 5_000,
   maxQueuedTasks: 32,
+  /** Stored runs are jobs on the study queue (server/jobs/): at most this many queued or running per account (429 beyond). */
+  jobsPerUser: 3,
+  /** The Retry-After of that 429, in seconds: about a small job's time. */
+  jobsRetryAfterSeconds: 10,
+  /** Points one job may have (sweep points, map cells, titration volumes); more is refused with 422. */
+  maxJobPoints: 20_000,
+  /**
+   * A worker computes a long job for at most this long at a time, then lets
+   * a waiting job in before it goes on: one account's long study delays
+   * another's small run by at most one slice.
+   */
+  jobSliceMs: 1000,
 } as const
 
 /** A message saying which limit the model exceeds, or null when it fits. */

@@ -8,6 +8,7 @@ import type { Model } from '../poise/model'
 import type { LabRole } from '../utils/roles'
 import type { Answer, AnswerKind } from './result'
 import type { ReviewState } from './review'
+import type { JobProgress, JobStatus } from './job'
 
 /** A saved revision with its text (GET …/systems/:system's `latest`, GET …/revisions/:n's `revision`). */
 export interface RevisionView {
@@ -35,7 +36,8 @@ export interface RunView {
   /** The run's number within its system (1, 2, 3 …), the one a person reads. */
   number: number
   revision: number
-  status: RunStatus
+  /** How the solve came out; null until the job is done (and for a job cancelled before its first point). */
+  status: RunStatus | null
   kind: AnswerKind
   solverVersion: string
   /** The compiler version that made the stored model; null for a run stored before models were. */
@@ -50,7 +52,20 @@ export interface RunView {
   failedPoints: number
   /** The library revisions the run was solved with. */
   libraries: { name: string; revision: number }[]
-  result?: Answer
+  /** The run as a job on the study queue (server/jobs/): queued → running → done | failed | cancelled. */
+  jobStatus: JobStatus
+  /** The queue's id of the job; null for a run stored before runs were jobs. */
+  jobId: string | null
+  queuedAt: string | null
+  startedAt: string | null
+  finishedAt: string | null
+  /** The worker (host:pid) that last took the job up. */
+  worker: string | null
+  progress: JobProgress
+  /** Why the job failed, in words; null unless it failed. */
+  jobError: string | null
+  /** The answer (single-run routes only); null until the job ends; a cancelled sweep's holds the points it computed. */
+  result?: Answer | null
   /** The model that was solved (single-run routes only); null for a run stored before models were. */
   model?: Model | null
 }
@@ -90,7 +105,7 @@ export interface RevisionSummary {
   author: string | null
   createdAt: string
   /** The newest run of this revision, or null when it was never solved. */
-  run: { id: number; number: number; status: RunStatus; solverVersion: string; createdAt: string } | null
+  run: { id: number; number: number; status: RunStatus | null; jobStatus: JobStatus; solverVersion: string; createdAt: string } | null
   /** Reviews of this revision (as the newer side), newest first. */
   reviews: { id: number; state: ReviewState; against: number; reviewer: string | null }[]
 }

@@ -2,8 +2,9 @@
  * Global setup of the `nuxt` test project: starts the private MariaDB and
  * Redis when they are down, recreates equipoise_test with the migrations and
  * the demo seed, empties the tests' Redis database,
- * and starts the built server (.output) once for every route and browser
- * test file. Files reach it through `inject('baseURL')` (see server.ts).
+ * and starts the built server (.output) and one study worker process
+ * (dist/worker.mjs, bundled afresh) once for every route and browser test
+ * file. Files reach it through `inject('baseURL')` (see server.ts).
  */
 import { spawnSync } from 'node:child_process'
 import { existsSync, mkdtempSync, rmSync } from 'node:fs'
@@ -15,7 +16,8 @@ import { seedDemo } from '../../server/database/seed'
 import { flushTestRedis, recreateTestDatabase, TEST_DATABASE_URL, TEST_REDIS_URL } from './test-database'
 import { startPrivateServers } from '../../scripts/private-server.mjs'
 import { startFakeSmtp } from '../../scripts/fake-smtp.mjs'
-import { BUILT_SERVER_ENTRY, startServerProcess, type ServerProcess } from './server-process'
+import { BUILT_SERVER_ENTRY, startServerProcess, startWorkerProcess, type ServerProcess, type WorkerProcess } from './server-process'
+import { buildWorker } from '../../scripts/build-worker.mjs'
 
 const root = resolve(import.meta.dirname, '../..')
 
@@ -66,10 +68,15 @@ export default async function setup(project: TestProject) {
     EQUIPOISE_PRODUCTION: '0',
     // NUXT_PUBLIC_SITE_URL, the site origin, is set by startServerProcess to the address it serves.
   }
-  let server: ServerProcess
+  // The study worker is bundled afresh, so the tests run the worker code as it is now.
+  await buildWorker()
+  let server: ServerProcess | undefined
+  let worker: WorkerProcess
   try {
     server = await startServerProcess(serverEnv, root)
+    worker = await startWorkerProcess(serverEnv, root)
   } catch (error) {
+    await server?.stop()
     await mail.close()
     throw error
   }
@@ -79,6 +86,7 @@ export default async function setup(project: TestProject) {
   project.provide('baseURL', baseURL)
 
   return async () => {
+    await worker.stop()
     await server.stop()
     await mail.close()
     rmSync(mail.dir, { recursive: true, force: true })

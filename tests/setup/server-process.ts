@@ -6,6 +6,7 @@
 import { spawn, type ChildProcess } from 'node:child_process'
 import { resolve } from 'node:path'
 import { freePort } from '../../scripts/free-port'
+import { WORKER_BUNDLE } from '../../scripts/build-worker.mjs'
 
 export const BUILT_SERVER_ENTRY = resolve(import.meta.dirname, '../../.output/server/index.mjs')
 
@@ -59,4 +60,44 @@ export async function startServerProcess(env: Record<string, string | undefined>
     throw error
   }
   return { baseURL, child, stop }
+}
+
+export interface WorkerProcess {
+  /** The supervisor; its worker processes are its children. */
+  child: ChildProcess
+  stop(): Promise<void>
+}
+
+/**
+ * Starts the study worker (dist/worker.mjs) with `concurrency` worker
+ * processes on this environment (its NUXT_DATABASE_URL and
+ * EQUIPOISE_REDIS_URL); resolves once each waits for jobs.
+ */
+export async function startWorkerProcess(env: Record<string, string | undefined>, cwd: string, concurrency = 1): Promise<WorkerProcess> {
+  const log: string[] = []
+  const child = spawn(process.execPath, [WORKER_BUNDLE, '--concurrency', String(concurrency)], { cwd, env, stdio: ['ignore', 'pipe', 'pipe'] })
+  let ready = 0
+  const started = new Promise<void>((resolve, reject) => {
+    const read = (chunk: Buffer) => {
+      log.push(String(chunk))
+      ready += (String(chunk).match(/waiting for jobs/g) ?? []).length
+      if (ready >= concurrency) resolve()
+    }
+    child.stdout?.on('data', read)
+    child.stderr?.on('data', (chunk) => log.push(String(chunk)))
+    child.once('exit', (code) => reject(new Error(`The study worker exited (${code}):\n${log.join('')}`)))
+  })
+  const stop = async () => {
+    if (child.exitCode !== null) return
+    child.kill('SIGTERM')
+    await new Promise((r) => child.once('exit', r))
+  }
+  const timeout = new Promise<never>((_, reject) => setTimeout(() => reject(new Error(`The study worker did not start:\n${log.join('')}`)), 30_000).unref())
+  try {
+    await Promise.race([started, timeout])
+  } catch (error) {
+    await stop()
+    throw error
+  }
+  return { child, stop }
 }

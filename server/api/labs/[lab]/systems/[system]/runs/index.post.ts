@@ -1,7 +1,12 @@
 /**
- * POST /api/labs/:lab/systems/:system/runs — solve a saved revision (the
- * latest unless `revision` is given) and store the run with the model it
- * solved and the compiler and solver versions. Reviewers and up store runs
+ * POST /api/labs/:lab/systems/:system/runs — queue a run of a saved revision
+ * (the latest unless `revision` is given) and answer at once (201) with the
+ * run, `jobStatus` "queued" and its `progress`; a worker solves it and
+ * stores the answer with the model it solved and the compiler and solver
+ * versions (GET …/runs/:run shows how far it got, POST …/runs/:run/cancel
+ * stops it). Fair use: at most SOLVE_LIMITS.jobsPerUser runs queued or
+ * running per account (429 with Retry-After), at most maxJobPoints points
+ * (422). Reviewers and up store runs
  * (RUN_STORE_ROLE); a viewer previews through POST /api/labs/:lab/solve,
  * which stores nothing. Libraries named by `use` resolve within the lab, and
  * the stored model records which revision of each it used. A lab whose runs
@@ -27,8 +32,7 @@ export default defineEventHandler(async (event) => {
   const revision = number === undefined || number === access.latest.number ? access.latest : await findRevision(access.system.id, number)
   const { model } = compileForSolve(revision.source, { resolveLibrary: await libraryResolverFor(access.lab.id, revision.source) })
   await requireRunStorageRoom(access.lab.id)
-  const output = await solveInPool(model, access.user.id)
-  const run = await storeRun(access.lab.id, revision, access.user.id, output, model)
+  const run = await queueRun(event, access.lab.id, revision, access.user.id, model)
   setResponseStatus(event, 201)
   return sendRunWithResult(event, run, revision.number, access.user.name)
 })

@@ -1,0 +1,139 @@
+/**
+ * How each study kind (kinds.ts) is computed: in slices, and how its points
+ * become the stored answer. A worker (server/jobs/worker.ts) runs these in
+ * its solver thread (server/jobs/thread.ts); nothing here touches the
+ * database, Redis or Nitro.
+ *
+ * To add a kind (a map, a fit, a Monte Carlo run): describe it in kinds.ts
+ * (which models, how many points) and put its `StudyRunner` in
+ * `STUDY_RUNNERS` here under the same name. See DEVELOPERS.md, "Study jobs".
+ */
+import type { Model } from '../../shared/poise/model'
+import { failedTitrationPoints, type SweepResult, type TitrationResult } from '../../shared/types/result'
+import { solve, solveAtSweepValue, sweep, titration, type SolveOptions } from '../solver/index'
+import { limitWindows } from '../solver/limits'
+import { STUDY_SHAPES } from './kinds'
+
+/** What a runner is told while it computes a slice. */
+export interface SliceContext {
+  /** Say how many points of this slice are done so far (cheap; call after each point). */
+  progress(doneInSlice: number): void
+  /** True when the slice must end now (the user cancelled, or the slice's time is up): return the points done. Check between points. */
+  shouldStop(): boolean
+  /** The solver's options for this slice (its time guard). */
+  solveOptions: SolveOptions
+}
+
+/** Points computed by one slice, in order. */
+export interface Slice {
+  /** How many of the study's points this slice covers. */
+  count: number
+  /** Their JSON texts, in order (a kind that is not divisible gives its whole answer as one item). */
+  items: string[]
+  /** Points among them that did not converge. */
+  failed: number
+}
+
+/** The stored answer of a job as JSON; null when nothing was computed (a job cancelled before its first point). */
+export type StudyAnswer = string | null
+
+export interface StudyRunner {
+  /**
+   * Computes points from `from` on, in order, until the study's end or
+   * `ctx.shouldStop()`; a later slice goes on from where this one ended.
+   * A kind that cannot stop part-way computes everything at once (count =
+   * its points, one item: the answer).
+   */
+  run(model: Model, from: number, ctx: SliceContext): Slice
+  /**
+   * The stored answer from every point computed, in order (the items of all
+   * slices); `complete` is false for a cancelled job, whose answer keeps
+   * the points done. (Failed points are counted from the slices.)
+   */
+  finish(model: Model, items: string[], complete: boolean, solveOptions: SolveOptions): StudyAnswer
+}
+
+/** A kind answered by one computation that cannot stop part-way (a single solve, a titration). */
+function whole(kind: string, compute: (model: Model, options: SolveOptions) => { json: string, failed: number }): StudyRunner {
+  const points = STUDY_SHAPES.find((shape) => shape.kind === kind)!.points
+  return {
+    run(model, _from, ctx) {
+      const { json, failed } = compute(model, ctx.solveOptions)
+      ctx.progress(points(model))
+      return { count: points(model), items: [json], failed }
+    },
+    finish(_model, items) {
+      return items[0] ?? null
+    },
+  }
+}
+
+/** Points re-solved before a slice's first point so its continuation predicts as one long sweep would. */
+const SWEEP_LEAD = 2
+
+class StopSlice extends Error {}
+
+export const sweepRunner: StudyRunner = {
+  run(model, from, ctx) {
+    const values = model.sweep!.values
+    const lead = Math.min(from, SWEEP_LEAD)
+    const slice: Slice = { count: 0, items: [], failed: 0 }
+    let seen = 0
+    // Limit windows are located once, over the whole sweep, in finish().
+    const part: Model = { ...model, limits: undefined, sweep: { ...model.sweep!, values: values.slice(from - lead) } }
+    sweep(part, {
+      ...ctx.solveOptions,
+      keepPoint: (point) => {
+        seen++
+        if (seen > lead) {
+          slice.items.push(JSON.stringify(point))
+          slice.count++
+          if (!point.converged) slice.failed++
+          ctx.progress(slice.count)
+          if (from + slice.count < values.length && ctx.shouldStop()) throw new StopSlice()
+        }
+        return { converged: point.converged, components: point.components } as typeof point
+      },
+    })
+    // A sweep that could not run point by point (no problem could be built) answers every point at once, unsolved.
+    if (slice.count === 0 && from < values.length) {
+      const whole = sweep(part, ctx.solveOptions)
+      for (const point of whole.points.slice(lead)) {
+        slice.items.push(JSON.stringify(point))
+        slice.count++
+        if (!point.converged) slice.failed++
+      }
+    }
+    return slice
+  },
+  finish(model, items, _complete, solveOptions) {
+    if (!items.length) return null
+    const sw = model.sweep!
+    const values = sw.values.slice(0, items.length)
+    const head = JSON.stringify({ variable: sw.variable, component: sw.component ?? null, values }).slice(0, -1)
+    let limits = ''
+    if (model.limits?.length) {
+      const done: SweepResult = { variable: sw.variable, component: sw.component ?? null, values, points: items.map((item) => JSON.parse(item)) }
+      const cut: Model = { ...model, sweep: { ...sw, values } }
+      limits = `,"limits":${JSON.stringify(limitWindows(cut, done, (v) => solveAtSweepValue(cut, v, solveOptions)))}`
+    }
+    return `${head},"points":[${items.join(',')}]${limits}}`
+  },
+}
+
+export const titrationRunner = whole('titration', (model, options) => {
+  const result: TitrationResult = titration(model, options)
+  return { json: JSON.stringify(result), failed: failedTitrationPoints(result) }
+})
+
+export const singleRunner = whole('single', (model, options) => {
+  const result = solve(model, options)
+  return { json: JSON.stringify(result), failed: result.converged ? 0 : 1 }
+})
+
+/** The runner of each kind of kinds.ts, by its name. */
+export const STUDY_RUNNERS: Record<string, StudyRunner> = {
+  titration: titrationRunner,
+  sweep: sweepRunner,
+  single: singleRunner,
+}
