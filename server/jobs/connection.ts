@@ -10,15 +10,23 @@ import { redisUrl } from '../../scripts/redis-url.mjs'
 
 export const STUDY_QUEUE = 'studies'
 
-/** What a job carries: the run row that holds everything else, and the lab's run storage budget the web server read from its configuration. */
+/**
+ * What a job carries: the run row that holds everything else, the lab's run
+ * storage budget the web server read from its configuration, and the range
+ * of the run's points this job computes (kinds.ts, `pointRanges`).
+ */
 export interface StudyJobData {
   runId: number
   budgetBytes: number
+  from: number
+  to: number
+  /** How many ranges (jobs) the run was queued as. */
+  ranges: number
 }
 
-/** The queue's id of a run's job: one job per run, so adding it twice adds nothing. */
-export function jobIdOf(runId: number): string {
-  return `run-${runId}`
+/** The queue's id of a run's job for its range starting at `from` (`run-ID` for the first): adding it twice adds nothing. */
+export function jobIdOf(runId: number, from = 0): string {
+  return from === 0 ? `run-${runId}` : `run-${runId}-${from}`
 }
 
 /**

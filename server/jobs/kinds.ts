@@ -8,6 +8,7 @@
  * "Study jobs".
  */
 import type { Model } from '../../shared/poise/model'
+import { SOLVE_LIMITS } from '../utils/solve-limits'
 
 export interface StudyShape {
   /** The stored run's `kind` (RunView.kind); the key of its runner in STUDY_RUNNERS (studies.ts). */
@@ -16,15 +17,51 @@ export interface StudyShape {
   matches(model: Model): boolean
   /** How many points the study computes. */
   points(model: Model): number
+  /**
+   * Whether ranges of its points can be computed apart, each by another
+   * worker at once (a sweep: yes, each range starting afresh; a titration:
+   * no). Ranges start at a multiple of `align` points (a map: a row).
+   */
+  divisible?: { align(model: Model): number }
 }
 
 /** Every kind, the most specific first: the first whose `matches` holds takes a model (a map model may carry a sweep too). */
 export const STUDY_SHAPES: StudyShape[] = [
   { kind: 'titration', matches: (model) => Boolean(model.titration), points: (model) => Math.max(1, model.titration?.values?.length ?? 1) },
-  { kind: 'sweep', matches: (model) => Boolean(model.sweep), points: (model) => model.sweep?.values.length ?? 0 },
+  { kind: 'sweep', matches: (model) => Boolean(model.sweep), points: (model) => model.sweep?.values.length ?? 0, divisible: { align: () => 1 } },
   { kind: 'single', matches: () => true, points: () => 1 },
 ]
 
 export function studyShapeOf(model: Model): StudyShape {
   return STUDY_SHAPES.find((shape) => shape.matches(model))!
+}
+
+/** A range of a study's points, [from, to): what one job of the queue computes. */
+export interface PointRange {
+  from: number
+  to: number
+}
+
+/**
+ * The ranges a study is queued as: about SOLVE_LIMITS.jobSegmentPoints each
+ * for a divisible kind (so several workers share one long study), else one.
+ */
+export function pointRanges(model: Model): PointRange[] {
+  const shape = studyShapeOf(model)
+  const total = shape.points(model)
+  if (!shape.divisible || total <= SOLVE_LIMITS.jobSegmentPoints) return [{ from: 0, to: total }]
+  const align = Math.max(1, Math.floor(shape.divisible.align(model)))
+  const step = Math.max(align, Math.round(SOLVE_LIMITS.jobSegmentPoints / align) * align)
+  const ranges: PointRange[] = []
+  for (let from = 0; from < total; from += step) ranges.push({ from, to: Math.min(total, from + step) })
+  return ranges
+}
+
+/**
+ * The queue's priority of a range (1 first): by its size, so a small run
+ * gets a worker before the next slice of a long one, and long ones take
+ * turns among themselves.
+ */
+export function rangePriority(range: PointRange): number {
+  return 1 + Math.ceil(Math.log2(range.to - range.from + 1))
 }

@@ -74,41 +74,70 @@ export async function storedSlices(db: Executor, runId: number) {
     .from(tables.runParts).where(eq(tables.runParts.runId, runId)).orderBy(asc(tables.runParts.firstPoint))
 }
 
-/** Where the next slice starts: after the points stored so far. */
-export async function nextPoint(db: Executor, runId: number): Promise<number> {
+/** Points stored so far, over all ranges. */
+export async function storedCount(db: Executor, runId: number): Promise<number> {
   return (await storedSlices(db, runId)).reduce((sum, part) => sum + part.pointCount, 0)
 }
 
+/** Where the next slice of the range [from, to) starts: after the points of that range stored so far, from its start on. */
+export async function nextPoint(db: Executor, runId: number, from: number, to: number): Promise<number> {
+  let next = from
+  for (const part of await storedSlices(db, runId)) {
+    if (part.firstPoint === next && next < to) next += part.pointCount
+  }
+  return next
+}
+
 /**
- * Stores a slice that starts at `from`, with the progress it makes. False
- * (nothing stored) when the job has ended, or another worker already stored
- * the points from there.
+ * Stores a slice that starts at `from`, with the progress it makes:
+ * `complete` when it was the last of the run's points, `refused` (nothing
+ * stored) when the job has ended or another worker already stored some of
+ * these points.
  */
-export async function saveSlice(db: Database, runId: number, from: number, slice: Slice): Promise<boolean> {
-  if (slice.count === 0) return true
+export async function saveSlice(db: Database, runId: number, from: number, slice: Slice): Promise<'saved' | 'complete' | 'refused'> {
   return db.transaction(async (tx) => {
-    const [run] = await tx.select({ jobStatus: tables.runs.jobStatus }).from(tables.runs).where(eq(tables.runs.id, runId)).for('update')
-    if (!run || !(ACTIVE_JOB_STATUSES as readonly string[]).includes(run.jobStatus)) return false
-    if (await nextPoint(tx, runId) !== from) return false
-    await tx.insert(tables.runParts).values({ runId, firstPoint: from, pointCount: slice.count, failedPoints: slice.failed, body: slice.items.join('\n') })
-    await tx.update(tables.runs).set({ pointsDone: sql`GREATEST(${tables.runs.pointsDone}, ${from + slice.count})` }).where(eq(tables.runs.id, runId))
-    return true
+    const [run] = await tx.select({ jobStatus: tables.runs.jobStatus, pointsTotal: tables.runs.pointsTotal }).from(tables.runs).where(eq(tables.runs.id, runId)).for('update')
+    if (!run || !(ACTIVE_JOB_STATUSES as readonly string[]).includes(run.jobStatus)) return 'refused'
+    const parts = await storedSlices(tx, runId)
+    if (slice.count > 0) {
+      const end = from + slice.count
+      if (parts.some((part) => part.firstPoint < end && part.firstPoint + part.pointCount > from)) return 'refused'
+      await tx.insert(tables.runParts).values({ runId, firstPoint: from, pointCount: slice.count, failedPoints: slice.failed, body: slice.items.join('\n') })
+    }
+    const stored = parts.reduce((sum, part) => sum + part.pointCount, 0) + slice.count
+    await tx.update(tables.runs).set({ pointsDone: sql`GREATEST(${tables.runs.pointsDone}, ${stored})` }).where(eq(tables.runs.id, runId))
+    return stored >= run.pointsTotal ? 'complete' : 'saved'
   })
 }
 
-/** The points of every stored slice, in order (what `StudyRunner.finish` joins). */
-export async function storedItems(db: Executor, runId: number): Promise<{ items: string[], failed: number }> {
-  const parts = await db.select({ body: tables.runParts.body, failedPoints: tables.runParts.failedPoints })
+/**
+ * The points stored from the first on without a gap, in order (what
+ * `StudyRunner.finish` joins): all of them once every range is done; for a
+ * cancelled run whose ranges stopped part-way, those before the first gap.
+ */
+export async function storedItems(db: Executor, runId: number): Promise<{ items: string[], points: number, failed: number }> {
+  const parts = await db.select({ firstPoint: tables.runParts.firstPoint, pointCount: tables.runParts.pointCount, body: tables.runParts.body, failedPoints: tables.runParts.failedPoints })
     .from(tables.runParts).where(eq(tables.runParts.runId, runId)).orderBy(asc(tables.runParts.firstPoint))
-  return { items: parts.flatMap((part) => part.body.split('\n')), failed: parts.reduce((sum, part) => sum + part.failedPoints, 0) }
+  const items: string[] = []
+  let points = 0
+  let failed = 0
+  for (const part of parts) {
+    if (part.firstPoint !== points) break
+    items.push(...part.body.split('\n'))
+    points += part.pointCount
+    failed += part.failedPoints
+  }
+  return { items, points, failed }
 }
 
 /**
- * Records progress (points done, never going back) while a slice runs, and
- * answers whether someone asked to cancel or the job already ended.
+ * Records progress while a slice runs (the points stored over all ranges
+ * plus `inSlice` of this one; never going back), and answers whether
+ * someone asked to cancel or the job already ended.
  */
-export async function recordProgress(db: Database, runId: number, done: number): Promise<{ stop: boolean }> {
-  await db.update(tables.runs).set({ pointsDone: sql`GREATEST(${tables.runs.pointsDone}, ${done})` })
+export async function recordProgress(db: Database, runId: number, inSlice: number): Promise<{ stop: boolean }> {
+  const stored = sql`(SELECT COALESCE(SUM(${tables.runParts.pointCount}), 0) FROM ${tables.runParts} WHERE ${tables.runParts.runId} = ${runId})`
+  await db.update(tables.runs).set({ pointsDone: sql`LEAST(${tables.runs.pointsTotal}, GREATEST(${tables.runs.pointsDone}, ${stored} + ${inSlice}))` })
     .where(and(eq(tables.runs.id, runId), eq(tables.runs.jobStatus, 'running')))
   const [row] = await db.select({ jobStatus: tables.runs.jobStatus, cancelRequestedAt: tables.runs.cancelRequestedAt })
     .from(tables.runs).where(eq(tables.runs.id, runId))
@@ -154,7 +183,8 @@ export async function endJob(db: Database, runId: number, end: JobEnd): Promise<
       storedBytes: bytes,
       status: end.resultJson === null ? null : end.failedPoints === 0 ? 'ok' : 'diverged',
       solverVersion: end.solverVersion,
-      pointsDone: sql`GREATEST(${tables.runs.pointsDone}, ${end.pointsDone})`,
+      // A cancelled run keeps the points before its first gap: its progress says how many.
+      pointsDone: end.jobStatus === 'cancelled' ? end.pointsDone : sql`GREATEST(${tables.runs.pointsDone}, ${end.pointsDone})`,
       options: { ...(run.options as object), failedPoints: end.failedPoints },
     }).where(and(eq(tables.runs.id, runId), active))
     if (!(updated as { affectedRows: number }).affectedRows) return null

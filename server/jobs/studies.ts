@@ -39,16 +39,18 @@ export type StudyAnswer = string | null
 
 export interface StudyRunner {
   /**
-   * Computes points from `from` on, in order, until the study's end or
-   * `ctx.shouldStop()`; a later slice goes on from where this one ended.
-   * A kind that cannot stop part-way computes everything at once (count =
-   * its points, one item: the answer).
+   * Computes points from `from` on, in order, until `to` (exclusive) or
+   * `ctx.shouldStop()`; a later slice goes on from where this one ended. For
+   * a divisible kind (kinds.ts) `from` may be any range start: the points
+   * before it may not be computed yet. A kind that cannot stop part-way
+   * computes everything at once (count = its points, one item: the answer).
    */
-  run(model: Model, from: number, ctx: SliceContext): Slice
+  run(model: Model, from: number, to: number, ctx: SliceContext): Slice
   /**
-   * The stored answer from every point computed, in order (the items of all
-   * slices); `complete` is false for a cancelled job, whose answer keeps
-   * the points done. (Failed points are counted from the slices.)
+   * The stored answer from the points computed, in order (the items of the
+   * slices from the first point on, without a gap); `complete` is false for
+   * a cancelled job, whose answer keeps those points. (Failed points are
+   * counted from the slices.)
    */
   finish(model: Model, items: string[], complete: boolean, solveOptions: SolveOptions): StudyAnswer
 }
@@ -57,7 +59,7 @@ export interface StudyRunner {
 function whole(kind: string, compute: (model: Model, options: SolveOptions) => { json: string, failed: number }): StudyRunner {
   const points = STUDY_SHAPES.find((shape) => shape.kind === kind)!.points
   return {
-    run(model, _from, ctx) {
+    run(model, _from, _to, ctx) {
       const { json, failed } = compute(model, ctx.solveOptions)
       ctx.progress(points(model))
       return { count: points(model), items: [json], failed }
@@ -74,8 +76,8 @@ const SWEEP_LEAD = 2
 class StopSlice extends Error {}
 
 export const sweepRunner: StudyRunner = {
-  run(model, from, ctx) {
-    const values = model.sweep!.values
+  run(model, from, to, ctx) {
+    const values = model.sweep!.values.slice(0, to)
     const lead = Math.min(from, SWEEP_LEAD)
     const slice: Slice = { count: 0, items: [], failed: 0 }
     let seen = 0

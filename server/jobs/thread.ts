@@ -11,7 +11,7 @@ import { SOLVE_LIMITS } from '../utils/solve-limits'
 import { STUDY_RUNNERS, type Slice } from './studies'
 
 export type ThreadRequest =
-  | { id: number, op: 'slice', kind: string, model: Model, from: number, sliceMs: number, stop: SharedArrayBuffer }
+  | { id: number, op: 'slice', kind: string, model: Model, from: number, to: number, sliceMs: number, stop: SharedArrayBuffer }
   | { id: number, op: 'finish', kind: string, model: Model, items: string[], complete: boolean }
 
 export type ThreadAnswer =
@@ -34,7 +34,7 @@ export function serveStudies(port: MessagePort): void {
         const stop = new Int32Array(request.stop)
         const started = performance.now()
         let posted = started
-        const slice = kind.run(request.model, request.from, {
+        const slice = kind.run(request.model, request.from, request.to, {
           solveOptions,
           progress(done) {
             const now = performance.now()

@@ -22,7 +22,7 @@ import type { Model } from '../../shared/poise/model'
 import { SOLVER_VERSION } from '../solver/index'
 import { SOLVE_LIMITS } from '../utils/solve-limits'
 import { redisConnection, STUDY_QUEUE, WORKER_LOCK, type StudyJobData } from './connection'
-import { claimJob, endJob, failJob, nextPoint, recordProgress, saveSlice, storedItems } from './store'
+import { claimJob, endJob, failJob, nextPoint, recordProgress, saveSlice, storedCount, storedItems } from './store'
 import type { Slice } from './studies'
 import { serveStudies, type ThreadAnswer, type ThreadRequest } from './thread'
 
@@ -68,8 +68,8 @@ class SolverThread {
     })
   }
 
-  async slice(kind: string, model: Model, from: number, stop: SharedArrayBuffer, progress: (done: number) => void): Promise<Slice> {
-    const answer = await this.ask({ op: 'slice', kind, model, from, sliceMs: SOLVE_LIMITS.jobSliceMs, stop }, progress)
+  async slice(kind: string, model: Model, from: number, to: number, stop: SharedArrayBuffer, progress: (done: number) => void): Promise<Slice> {
+    const answer = await this.ask({ op: 'slice', kind, model, from, to, sliceMs: SOLVE_LIMITS.jobSliceMs, stop }, progress)
     if (answer.type === 'error') throw new Error(answer.message)
     return (answer as Extract<ThreadAnswer, { type: 'slice' }>).slice
   }
@@ -92,29 +92,51 @@ export function workerName(): string {
 async function runWorker(): Promise<void> {
   const { db, pool } = openDatabase(databaseUrlFromEnv())
   const solver = new SolverThread()
-  const queue = new Queue(STUDY_QUEUE, { connection: redisConnection() })
+  const redis = redisConnection()
+  const queue = new Queue(STUDY_QUEUE, { connection: redis })
   const name = workerName()
   let closing = false
   /** The running slice's stop flag, raised on shutdown too. */
   let stopFlag: Int32Array | null = null
+
+  /** Whether a job of another run waits for a worker: then this one goes back in the queue after its slice. */
+  async function othersWait(runId: number): Promise<boolean> {
+    const waiting = await queue.getJobs(['prioritized', 'wait'], 0, 20, true)
+    return waiting.some((other) => other?.data?.runId !== runId)
+  }
+
+  /**
+   * Counts a range of a run as ended (all its points stored, or stopped by a
+   * cancel); true when it is the last one. A range counted twice (its worker
+   * died after counting) only ends a cancelled run early.
+   */
+  async function lastRangeEnded(runId: number, ranges: number): Promise<boolean> {
+    const key = `${STUDY_QUEUE}:ended:run-${runId}`
+    const ended = await redis.incr(key)
+    await redis.expire(key, 24 * 3600)
+    return ended >= ranges
+  }
 
   async function handle(job: Job<StudyJobData>, token?: string): Promise<string> {
     const { runId, budgetBytes } = job.data
     const claimed = await claimJob(db, runId, name)
     if (!claimed) return 'ended'
     const model = JSON.parse(claimed.model) as Model
-    let from = await nextPoint(db, runId)
+    const to = job.data.to ?? claimed.pointsTotal
+    const ranges = job.data.ranges ?? 1
+    let next = await nextPoint(db, runId, job.data.from ?? 0, to)
     let cancelled = claimed.cancelRequested
-    while (!cancelled && from < claimed.pointsTotal) {
+    let complete = await storedCount(db, runId) >= claimed.pointsTotal
+    while (!cancelled && next < to) {
       const stop = new SharedArrayBuffer(4)
       stopFlag = new Int32Array(stop)
-      let done = from
+      let inSlice = 0
       let watching = true
       const watch = (async () => {
         while (watching) {
           await new Promise((r) => setTimeout(r, WATCH_EVERY_MS))
           if (!watching) break
-          const seen = await recordProgress(db, runId, done).catch(() => ({ stop: false }))
+          const seen = await recordProgress(db, runId, inSlice).catch(() => ({ stop: false }))
           if (seen.stop) {
             cancelled = true
             Atomics.store(stopFlag!, 0, 1)
@@ -123,23 +145,27 @@ async function runWorker(): Promise<void> {
       })()
       let slice: Slice
       try {
-        slice = await solver.slice(claimed.kind, model, from, stop, (n) => { done = from + n })
+        slice = await solver.slice(claimed.kind, model, next, to, stop, (n) => { inSlice = n })
       } finally {
         watching = false
         await watch
       }
-      if (!await saveSlice(db, runId, from, slice)) return 'taken over'
-      from += slice.count
-      if (closing || (!cancelled && from < claimed.pointsTotal && await queue.getWaitingCount() > 0)) {
-        // Another job waits (or this worker stops): go back in the queue behind it, and go on from here later.
+      const saved = await saveSlice(db, runId, next, slice)
+      if (saved === 'refused') return 'taken over'
+      if (saved === 'complete') complete = true
+      next += slice.count
+      if (closing || (!cancelled && next < to && await othersWait(runId))) {
+        // Another run's job waits (or this worker stops): go back in the queue, and go on from here later.
         await job.moveToDelayed(Date.now(), token)
         throw new DelayedError()
       }
     }
-    const { items, failed } = await storedItems(db, runId)
-    const resultJson = await solver.finish(claimed.kind, model, items, !cancelled)
+    // The run ends when its last point is stored, or, cancelled, when its last range has stopped.
+    if (!complete && !(await lastRangeEnded(runId, ranges) && cancelled)) return cancelled ? 'stopped' : 'range done'
+    const { items, points, failed } = await storedItems(db, runId)
+    const resultJson = await solver.finish(claimed.kind, model, items, complete)
     const ended = await endJob(db, runId, {
-      jobStatus: cancelled ? 'cancelled' : 'done', resultJson, failedPoints: failed, pointsDone: from,
+      jobStatus: complete ? 'done' : 'cancelled', resultJson, failedPoints: failed, pointsDone: points,
       solverVersion: SOLVER_VERSION, budgetBytes, labId: claimed.labId,
     })
     return ended ?? 'ended'

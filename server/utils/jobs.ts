@@ -13,7 +13,7 @@ import type { Model } from '../../shared/poise/model'
 import { COMPILER_VERSION } from '../../shared/poise/version'
 import { ACTIVE_JOB_STATUSES } from '../../shared/types/job'
 import { jobIdOf, redisConnection, STUDY_QUEUE, type StudyJobData } from '../jobs/connection'
-import { studyShapeOf } from '../jobs/kinds'
+import { pointRanges, rangePriority, studyShapeOf } from '../jobs/kinds'
 import { cancelQueuedJob, failJob, labRunBytes } from '../jobs/store'
 import { SOLVE_LIMITS } from './solve-limits'
 
@@ -95,14 +95,21 @@ export async function queueRun(event: H3Event, labId: number, revision: Revision
   if ('held' in outcome) tooManyJobs(event, outcome.held!)
   if ('used' in outcome) overBudget(outcome.used!, budget, modelBytes)
   const id = outcome.id!
+  // The run as queued (a worker may take it up at once once it is on the queue).
+  const [row] = await db.select().from(tables.runs).where(eq(tables.runs.id, id))
   try {
-    await studyQueue().add('run', { runId: id, budgetBytes: budget }, { jobId: jobIdOf(id), removeOnComplete: true, removeOnFail: 1000 })
+    // A long divisible study goes on the queue as ranges of its points, which several workers compute at once.
+    const ranges = pointRanges(model)
+    await studyQueue().addBulk(ranges.map((range) => ({
+      name: 'run',
+      data: { runId: id, budgetBytes: budget, from: range.from, to: range.to, ranges: ranges.length },
+      opts: { jobId: jobIdOf(id, range.from), priority: rangePriority(range), removeOnComplete: true, removeOnFail: 1000 },
+    })))
   } catch (error) {
     console.error('[jobs] could not queue run', id, error)
     await failJob(db, id, 'The study queue could not be reached, so this run was not started. Try again shortly.')
     throw createError({ statusCode: 503, message: 'The study queue (Redis) cannot be reached, so the run was not started. Try again shortly; if it keeps failing, tell the site administrator.' })
   }
-  const [row] = await db.select().from(tables.runs).where(eq(tables.runs.id, id))
   return row!
 }
 
@@ -111,14 +118,14 @@ export async function queueRun(event: H3Event, labId: number, revision: Revision
  * computed); a running one stops at its next point and keeps the points it
  * computed. Answers false when the job had already ended.
  */
-export async function cancelRun(runId: number): Promise<boolean> {
+export async function cancelRun(runId: number, model: Model): Promise<boolean> {
   const db = useDb()
   const [asked] = await db.update(tables.runs).set({ cancelRequestedAt: sql`COALESCE(${tables.runs.cancelRequestedAt}, NOW(3))` })
     .where(and(eq(tables.runs.id, runId), inArray(tables.runs.jobStatus, [...ACTIVE_JOB_STATUSES])))
   if (!(asked as unknown as { affectedRows: number }).affectedRows) return false
   if (await cancelQueuedJob(db, runId)) {
     // No worker holds it: take it off the queue (a worker that takes it meanwhile finds it cancelled and does nothing).
-    await studyQueue().remove(jobIdOf(runId)).catch(() => undefined)
+    for (const range of pointRanges(model)) await studyQueue().remove(jobIdOf(runId, range.from)).catch(() => undefined)
   }
   return true
 }

@@ -28,6 +28,8 @@ export const SOLVE_LIMITS = {
    * another's small run by at most one slice.
    */
   jobSliceMs: 1000,
+  /** A long divisible study (a sweep, a map) is queued as ranges of about this many points, which several workers compute at once. */
+  jobSegmentPoints: 1000,
 } as const
 
 /** A message saying which limit the model exceeds, or null when it fits. */

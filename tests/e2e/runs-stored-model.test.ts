@@ -4,6 +4,7 @@
 import mysql from 'mysql2/promise'
 import { afterAll, beforeAll, expect, it } from 'vitest'
 import { useBuiltServer } from '../setup/server'
+import { storeRunToEnd } from '../setup/jobs'
 import { api, makeLab, signUp, type SignedIn } from '../setup/accounts'
 import { openSignedIn, screenshot } from '../setup/browser'
 import { TEST_DATABASE_URL } from '../setup/test-database'
@@ -34,7 +35,7 @@ afterAll(async () => {
 })
 
 it('shows a stored run with its stored model and compiler version in the workbench and the report', async () => {
-  const run = await api(`${base()}/runs`, { method: 'POST', cookie: owner.cookie, body: {} })
+  const run = await storeRunToEnd(`${base()}/runs`, { cookie: owner.cookie, body: {} })
   expect(run.status).toBe(201)
   // As if an older compiler had made it: another temperature and pKw than today's compile of the same text.
   const older = structuredClone(run.body.model)
@@ -60,7 +61,7 @@ it('shows a stored run with its stored model and compiler version in the workben
 })
 
 it('says a run stored before models were shows a recompile of its text', async () => {
-  const run = await api(`${base()}/runs`, { method: 'POST', cookie: owner.cookie, body: {} })
+  const run = await storeRunToEnd(`${base()}/runs`, { cookie: owner.cookie, body: {} })
   await db.query('UPDATE runs SET model = NULL, compiler_version = NULL, stored_bytes = NULL WHERE id = ?', [run.body.id])
 
   const page = await openSignedIn(`/labs/${lab}/systems/etch`, owner.cookie)
@@ -78,9 +79,9 @@ it('lists the stored runs with the lab\'s run storage in the history, and lets t
   const other = await makeLab(owner)
   const path = `/api/labs/${other}/systems/etch`
   expect((await api(`/api/labs/${other}/systems`, { method: 'POST', cookie: owner.cookie, body: { title: 'Etch rinse', slug: 'etch', source } })).status).toBe(201)
-  const older = await api(`${path}/runs`, { method: 'POST', cookie: owner.cookie, body: {} })
+  const older = await storeRunToEnd(`${path}/runs`, { cookie: owner.cookie, body: {} })
   await db.query('UPDATE runs SET model = NULL, compiler_version = NULL, stored_bytes = NULL WHERE id = ?', [older.body.id])
-  const newer = await api(`${path}/runs`, { method: 'POST', cookie: owner.cookie, body: {} })
+  const newer = await storeRunToEnd(`${path}/runs`, { cookie: owner.cookie, body: {} })
 
   const page = await openSignedIn(`/labs/${other}/systems/etch/history`, owner.cookie)
   await page.setViewportSize({ width: 1280, height: 900 })

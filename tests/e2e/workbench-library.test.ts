@@ -5,6 +5,7 @@
 import { beforeAll, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
 import { useBuiltServer } from '../setup/server'
+import { storeRunToEnd } from '../setup/jobs'
 import { api, makeLab, signUp, type SignedIn } from '../setup/accounts'
 import { openSignedIn, screenshot } from '../setup/browser'
 
@@ -90,7 +91,7 @@ describe('the workbench with a lab library', () => {
 
   it('links the revision line to the history and the previous revision, and reports an older revision', async () => {
     // Revision 1 is run and stored; revision 2 dilutes tenfold.
-    expect((await api(`/api/labs/${lab}/systems/vinegar/runs`, { method: 'POST', cookie: owner.cookie, body: {} })).status).toBe(201)
+    expect((await storeRunToEnd(`/api/labs/${lab}/systems/vinegar/runs`, { cookie: owner.cookie, body: {} })).status).toBe(201)
     const diluted = consumerText.replace('10 mM', '1 mM')
     expect((await api(`/api/labs/${lab}/systems/vinegar`, { method: 'PATCH', cookie: owner.cookie, body: { source: diluted, message: 'diluted', baseRevision: 1 } })).status).toBe(200)
 

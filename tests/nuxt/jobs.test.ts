@@ -10,33 +10,9 @@ import { TEST_DATABASE_URL } from '../setup/test-database'
 import { pollRun } from '../setup/jobs'
 import { startWorkerProcess, type WorkerProcess } from '../setup/server-process'
 import { SOLVE_LIMITS } from '../../server/utils/solve-limits'
+import { longSweep } from '../fixtures/long-sweep'
 
 await useBuiltServer()
-
-// A nickel citrate and ammonia bath swept in pH over the largest sweep the language allows, so a run takes
-// several slices of a worker's time (constants from memory, as in examples/nickel-citrate-bath.poise; the
-// chemistry is not checked here, only the job).
-const longSweep = `system "Bath sweep"
-activity davies
-component H+ pH 8.5
-component Ni^2+ total 0.10 mol/L
-component SO4^2- total 0.10 mol/L
-component C6H5O7^3- total 0.20 mol/L
-component NH3 total 0.50 mol/L
-reaction H2O <=> H+ + OH- pKw 14.00 cite "from memory"
-reaction HSO4- <=> SO4^2- + H+ pKa 1.99 cite "from memory"
-reaction NH4+ <=> NH3 + H+ pKa 9.24 cite "from memory"
-reaction C6H8O7 <=> C6H7O7- + H+ pKa 3.13 cite "from memory"
-reaction C6H7O7- <=> C6H6O7^2- + H+ pKa 4.76 cite "from memory"
-reaction C6H6O7^2- <=> C6H5O7^3- + H+ pKa 6.40 cite "from memory"
-reaction Ni^2+ + C6H5O7^3- <=> NiC6H5O7- logbeta 5.4 cite "from memory"
-reaction Ni^2+ + NH3 <=> NiNH3^2+ logbeta 2.72 cite "from memory"
-reaction Ni^2+ + 2 NH3 <=> Ni(NH3)2^2+ logbeta 4.89 cite "from memory"
-reaction Ni^2+ + 3 NH3 <=> Ni(NH3)3^2+ logbeta 6.55 cite "from memory"
-reaction Ni^2+ + 4 NH3 <=> Ni(NH3)4^2+ logbeta 7.67 cite "from memory"
-reaction Ni^2+ + H2O <=> NiOH+ + H+ logK -9.86 cite "from memory"
-sweep pH from 2 to 12 points 5000
-`
 
 let owner: SignedIn, reviewer: SignedIn, other: SignedIn
 let lab: string
@@ -187,15 +163,26 @@ describe('a worker killed with kill -9', () => {
 
 describe('fair use', () => {
   it(`refuses an account's run beyond ${SOLVE_LIMITS.jobsPerUser} queued or running with 429 and Retry-After, while another account still runs`, async () => {
-    const mine = []
-    for (let i = 0; i < SOLVE_LIMITS.jobsPerUser; i++) mine.push(await start(reviewer))
-    const refused = await api(system('/runs'), { method: 'POST', cookie: reviewer.cookie, body: {} })
-    expect(refused.status).toBe(429)
-    expect(refused.headers.get('retry-after')).toBe(String(SOLVE_LIMITS.jobsRetryAfterSeconds))
-    expect(refused.body.message).toMatch(new RegExp(`^You already have ${SOLVE_LIMITS.jobsPerUser} runs queued or running; at most ${SOLVE_LIMITS.jobsPerUser} at a time per account\\. Wait for one to finish or cancel one in the system's history\\. Try again in`))
-    const theirs = await start(other)
-    expect(theirs.jobStatus).toBe('queued')
-    for (const run of [...mine, theirs]) await api(system(`/runs/${run.id}/cancel`), { method: 'POST', cookie: run.id === theirs.id ? other.cookie : reviewer.cookie })
+    const mine = [await start(reviewer)]
+    // The worker held still (SIGSTOP) while the account fills its limit, so none of its runs ends meanwhile.
+    const running = (await pollRun(system(`/runs/${mine[0].id}`), reviewer, (run) => run.jobStatus === 'running' || ended(run), 20)).at(-1)
+    expect(running.jobStatus).toBe('running')
+    const worker = Number(running.worker.split(':').at(-1))
+    process.kill(worker, 'SIGSTOP')
+    let theirs
+    try {
+      while (mine.length < SOLVE_LIMITS.jobsPerUser) mine.push(await start(reviewer))
+      const refused = await api(system('/runs'), { method: 'POST', cookie: reviewer.cookie, body: {} })
+      expect(refused.status).toBe(429)
+      expect(refused.headers.get('retry-after')).toBe(String(SOLVE_LIMITS.jobsRetryAfterSeconds))
+      expect(refused.body.message).toMatch(new RegExp(`^You already have ${SOLVE_LIMITS.jobsPerUser} runs queued or running; at most ${SOLVE_LIMITS.jobsPerUser} at a time per account\\. Wait for one to finish or cancel one in the system's history\\. Try again in`))
+      theirs = await start(other)
+      expect(theirs.jobStatus).toBe('queued')
+      for (const run of mine) expect((await api(system(`/runs/${run.id}/cancel`), { method: 'POST', cookie: reviewer.cookie })).status).toBe(200)
+      expect((await api(system(`/runs/${theirs.id}/cancel`), { method: 'POST', cookie: other.cookie })).status).toBe(200)
+    } finally {
+      process.kill(worker, 'SIGCONT')
+    }
     for (const run of [...mine, theirs]) expect(ended((await pollRun(system(`/runs/${run.id}`), owner)).at(-1))).toBe(true)
     // Once they ended, the account runs again.
     const again = await start(reviewer)

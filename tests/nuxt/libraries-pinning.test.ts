@@ -3,6 +3,7 @@
 // and a missing library or revision is the compiler's diagnostic.
 import { beforeAll, describe, expect, it } from 'vitest'
 import { useBuiltServer } from '../setup/server'
+import { storeRunToEnd } from '../setup/jobs'
 import { api, makeLab, signUp, type SignedIn } from '../setup/accounts'
 
 await useBuiltServer()
@@ -36,7 +37,7 @@ async function createSystem(slug: string, source: string) {
 }
 
 async function run(slug: string) {
-  const answer = await api(`/api/labs/${lab}/systems/${slug}/runs`, { method: 'POST', cookie: owner.cookie, body: {} })
+  const answer = await storeRunToEnd(`/api/labs/${lab}/systems/${slug}/runs`, { cookie: owner.cookie, body: {} })
   return answer
 }
 

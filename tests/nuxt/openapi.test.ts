@@ -76,7 +76,10 @@ describe('GET /api/openapi.json', async () => {
     expect(Object.keys(save.responses)).toEqual(expect.arrayContaining(['200', '400', '401', '403', '404', '409']))
     const run = doc.paths['/api/labs/{lab}/systems/{system}/runs']!.post.responses['201'].content['application/json'].schema
     expect(run.required).toEqual(expect.arrayContaining(['id', 'revision', 'status', 'kind', 'libraries', 'result', 'model', 'compilerVersion', 'storedBytes']))
-    expect(run.properties.status.enum).toEqual(['ok', 'failed', 'diverged'])
+    // How the solve came out, null until the run's job is done; the job's own status beside it.
+    expect(run.properties.status.anyOf).toEqual([{ type: 'string', enum: ['ok', 'failed', 'diverged'] }, { type: 'null' }])
+    expect(run.properties.jobStatus.enum).toEqual(['queued', 'running', 'done', 'failed', 'cancelled'])
+    expect(run.required).toEqual(expect.arrayContaining(['jobStatus', 'progress', 'queuedAt', 'startedAt', 'finishedAt', 'worker', 'jobError']))
     const system = doc.paths['/api/labs/{lab}/systems/{system}']!.get.responses['200'].content['application/json'].schema
     expect(system.properties.system.properties.latest.required).toEqual(expect.arrayContaining(['number', 'source']))
     expect(doc.paths['/api/labs/{lab}/systems/{system}/compare']!.get.parameters.filter((p: { in: string }) => p.in === 'query').map((p: { name: string }) => p.name)).toEqual(['from', 'to'])

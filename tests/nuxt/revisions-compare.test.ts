@@ -2,6 +2,7 @@
 // from their stored runs, or solved in memory (never stored) when they have none.
 import { beforeAll, describe, expect, it } from 'vitest'
 import { useBuiltServer } from '../setup/server'
+import { storeRunToEnd } from '../setup/jobs'
 import { api, makeLab, signUp, type SignedIn } from '../setup/accounts'
 
 await useBuiltServer()
@@ -54,7 +55,7 @@ describe('compare', () => {
     const history = await api(`${system()}/revisions`, { cookie: viewer.cookie })
     expect(history.body.revisions.find((r: any) => r.number === 2).run).toBeNull()
 
-    const stored = await api(`${system()}/runs`, { method: 'POST', cookie: owner.cookie, body: { revision: 1 } })
+    const stored = await storeRunToEnd(`${system()}/runs`, { cookie: owner.cookie, body: { revision: 1 } })
     expect(stored.status).toBe(201)
     const second = await api(`${system()}/compare?from=1&to=2`, { cookie: viewer.cookie })
     expect(second.body.solved.from).toMatchObject({ origin: 'stored', runId: stored.body.id, model: 'stored', compilerVersion: stored.body.compilerVersion })

@@ -4,6 +4,7 @@
 import mysql from 'mysql2/promise'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { useBuiltServer } from '../setup/server'
+import { storeRunToEnd } from '../setup/jobs'
 import { api, makeLab, signUp, type SignedIn } from '../setup/accounts'
 import { TEST_DATABASE_URL } from '../setup/test-database'
 
@@ -37,7 +38,7 @@ afterAll(async () => {
 
 describe('run storage budget', () => {
   it('refuses a run with 409 saying the budget, the use and what to do; deleting runs (editors) frees it', async () => {
-    const first = await api(system('/runs'), { method: 'POST', cookie: reviewer.cookie, body: {} })
+    const first = await storeRunToEnd(system('/runs'), { cookie: reviewer.cookie, body: {} })
     expect(first.status).toBe(201)
     // Another run that fills the budget, as if a huge sweep had been stored.
     const filler = BUDGET - first.body.storedBytes - 10
@@ -49,7 +50,7 @@ describe('run storage budget', () => {
     const count = async () => (await api(system('/runs'), { cookie: owner.cookie })).body.runs.length
 
     // 10 bytes left: the run is solved but does not fit.
-    const refused = await api(system('/runs'), { method: 'POST', cookie: reviewer.cookie, body: {} })
+    const refused = await storeRunToEnd(system('/runs'), { cookie: reviewer.cookie, body: {} })
     expect(refused.status).toBe(409)
     expect(refused.body.message).toMatch(/^This lab's stored runs use 250 MB of its 250 MB run storage budget, and this run needs \d+(\.\d)? KB more\. Delete old runs/)
     expect(refused.body.data).toMatchObject({ usedBytes: BUDGET - 10, budgetBytes: BUDGET })
@@ -71,14 +72,14 @@ describe('run storage budget', () => {
     expect(JSON.parse(audit[0]!.detail)).toMatchObject({ system: 'rinse', run: inserted.insertId, revision: 1 })
     expect((await api(system(`/runs/${inserted.insertId}`), { method: 'DELETE', cookie: editor.cookie })).status).toBe(404)
 
-    expect((await api(system('/runs'), { method: 'POST', cookie: reviewer.cookie, body: {} })).status).toBe(201)
+    expect((await storeRunToEnd(system('/runs'), { cookie: reviewer.cookie, body: {} })).status).toBe(201)
     expect(await count()).toBe(2)
   })
 
   it('refuses before solving when the budget is already spent', async () => {
     const [revision] = (await db.query('SELECT r.id FROM revisions r JOIN systems s ON s.id = r.system_id JOIN labs l ON l.id = s.lab_id WHERE l.slug = ?', [lab]))[0] as { id: number }[]
     await db.query('INSERT INTO runs (revision_id, solver_version, options, result, stored_bytes, status, timing_ms) VALUES (?, ?, ?, ?, ?, ?, ?)', [revision!.id, '1.0.0', '{}', 'null', BUDGET, 'ok', 1])
-    const refused = await api(system('/runs'), { method: 'POST', cookie: editor.cookie, body: {} })
+    const refused = await storeRunToEnd(system('/runs'), { cookie: editor.cookie, body: {} })
     expect(refused.status).toBe(409)
     expect(refused.body.message).toMatch(/^This lab's stored runs use 250 MB of its 250 MB run storage budget\. Delete old runs/)
     expect(refused.body.data.neededBytes).toBeNull()

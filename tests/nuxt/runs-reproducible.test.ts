@@ -5,6 +5,7 @@
 import mysql from 'mysql2/promise'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { useBuiltServer } from '../setup/server'
+import { storeRunToEnd } from '../setup/jobs'
 import { api, makeLab, signUp, type SignedIn } from '../setup/accounts'
 import { TEST_DATABASE_URL } from '../setup/test-database'
 
@@ -46,7 +47,7 @@ const pKaOf = (model: { reactions: { equation: string, value: number }[] }) => m
 
 describe('a stored run', () => {
   it('after its library moved, still shows the library revision it was solved with, and compares from it', async () => {
-    const stored = await api(vinegar('/runs'), { method: 'POST', cookie: owner.cookie, body: {} })
+    const stored = await storeRunToEnd(vinegar('/runs'), { cookie: owner.cookie, body: {} })
     expect(stored.status).toBe(201)
     expect(stored.body.model.libraries).toEqual([{ name: 'acids', revision: 1 }])
     expect(pKaOf(stored.body.model)).toBe(4.76)
@@ -71,7 +72,7 @@ describe('a stored run', () => {
   })
 
   it('after a default in the compiler changed, shows the model that was solved, not today\'s compile', async () => {
-    const stored = await api(vinegar('/runs'), { method: 'POST', cookie: owner.cookie, body: { revision: 1 } })
+    const stored = await storeRunToEnd(vinegar('/runs'), { cookie: owner.cookie, body: { revision: 1 } })
     expect(stored.status).toBe(201)
     // As if an older compiler had made the stored model with another default temperature and a pKa read differently.
     const older = structuredClone(stored.body.model)
@@ -92,7 +93,7 @@ describe('a stored run', () => {
   })
 
   it('stored before models were, still opens: no model, its bytes measured, and compare says it predates stored models', async () => {
-    const stored = await api(vinegar('/runs'), { method: 'POST', cookie: owner.cookie, body: { revision: 1 } })
+    const stored = await storeRunToEnd(vinegar('/runs'), { cookie: owner.cookie, body: { revision: 1 } })
     await db.query('UPDATE runs SET model = NULL, compiler_version = NULL, stored_bytes = NULL WHERE id = ?', [stored.body.id])
 
     const reopened = await api(vinegar(`/runs/${stored.body.id}`), { cookie: viewer.cookie })

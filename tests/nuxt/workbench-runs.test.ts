@@ -2,6 +2,7 @@
 // examples a new system can start from.
 import { beforeAll, describe, expect, it } from 'vitest'
 import { useBuiltServer } from '../setup/server'
+import { storeRunToEnd } from '../setup/jobs'
 import { api, makeLab, signUp, type SignedIn } from '../setup/accounts'
 
 await useBuiltServer()
@@ -27,7 +28,7 @@ beforeAll(async () => {
 
 describe('runs', () => {
   it('gives a viewer a preview that stores nothing, and refuses a viewer a stored run with a message saying so', async () => {
-    const refused = await api(system('/runs'), { method: 'POST', cookie: viewer.cookie, body: {} })
+    const refused = await storeRunToEnd(system('/runs'), { cookie: viewer.cookie, body: {} })
     expect(refused.status).toBe(403)
     expect(refused.body.message).toMatch(/^Viewers do not store runs: a viewer's Run is a preview, solved and kept nowhere/)
     const preview = await api(`/api/labs/${lab}/solve`, { method: 'POST', cookie: viewer.cookie, body: { source: strongAcid } })
@@ -39,7 +40,7 @@ describe('runs', () => {
   })
 
   it('lets an editor run the saved revision and keeps the run with its result, its model and both versions', async () => {
-    const made = await api(system('/runs'), { method: 'POST', cookie: editor.cookie, body: {} })
+    const made = await storeRunToEnd(system('/runs'), { cookie: editor.cookie, body: {} })
     expect(made.status).toBe(201)
     expect(made.body).toMatchObject({ revision: 1, status: 'ok', kind: 'single', createdBy: editor.user.name, storedModel: true })
     expect(made.body.result.pH).toBeCloseTo(3, 3)
@@ -67,16 +68,16 @@ describe('runs', () => {
     const saved = await api(system(), { method: 'PATCH', cookie: editor.cookie, body: { source: strongAcid.replace(/1 mmol\/L/g, '10 mmol/L'), message: 'ten times stronger', baseRevision: 1 } })
     expect(saved.status).toBe(200)
     expect(saved.body.system.latest.number).toBe(2)
-    const latest = await api(system('/runs'), { method: 'POST', cookie: editor.cookie, body: {} })
+    const latest = await storeRunToEnd(system('/runs'), { cookie: editor.cookie, body: {} })
     expect(latest.body.revision).toBe(2)
     expect(latest.body.result.pH).toBeCloseTo(2, 3)
-    const older = await api(system('/runs'), { method: 'POST', cookie: editor.cookie, body: { revision: 1 } })
+    const older = await storeRunToEnd(system('/runs'), { cookie: editor.cookie, body: { revision: 1 } })
     expect(older.status).toBe(201)
     expect(older.body.revision).toBe(1)
     expect(older.body.result.pH).toBeCloseTo(3, 3)
     const list = await api(system('/runs'), { cookie: viewer.cookie })
     expect(list.body.runs.slice(0, 2).map((r: { id: number }) => r.id)).toEqual([older.body.id, latest.body.id])
-    expect((await api(system('/runs'), { method: 'POST', cookie: editor.cookie, body: { revision: 99 } })).status).toBe(404)
+    expect((await storeRunToEnd(system('/runs'), { cookie: editor.cookie, body: { revision: 99 } })).status).toBe(404)
   })
 
   it('numbers runs per system (1, 2, 3 …), never giving a deleted run\'s number again', async () => {
@@ -92,7 +93,7 @@ describe('runs', () => {
     // Deleting the newest run does not hand its number to the next one.
     const newest = (await api(system('/runs'), { cookie: viewer.cookie })).body.runs[0]
     expect((await api(system(`/runs/${newest.id}`), { method: 'DELETE', cookie: editor.cookie })).status).toBe(200)
-    const next = await api(system('/runs'), { method: 'POST', cookie: editor.cookie, body: {} })
+    const next = await storeRunToEnd(system('/runs'), { cookie: editor.cookie, body: {} })
     expect(next.body.number).toBe(4)
     const history = await api(system('/revisions'), { cookie: viewer.cookie })
     expect(history.body.revisions[0].run).toMatchObject({ id: next.body.id, number: 4 })
@@ -123,7 +124,7 @@ describe('runs', () => {
     const { body } = await api(system('/runs'), { cookie: owner.cookie })
     const id = body.runs[0].id
     expect((await api(system('/runs'), { cookie: outsider.cookie })).status).toBe(404)
-    expect((await api(system('/runs'), { method: 'POST', cookie: outsider.cookie, body: {} })).status).toBe(404)
+    expect((await storeRunToEnd(system('/runs'), { cookie: outsider.cookie, body: {} })).status).toBe(404)
     expect((await api(system(`/runs/${id}`), { cookie: outsider.cookie })).status).toBe(404)
     expect((await api(system('/runs'))).status).toBe(401)
     expect((await api(system(`/runs/${id + 1000}`), { cookie: owner.cookie })).status).toBe(404)
