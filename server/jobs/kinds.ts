@@ -27,6 +27,7 @@ export interface StudyShape {
 
 /** Every kind, the most specific first: the first whose `matches` holds takes a model (a map model may carry a sweep too). */
 export const STUDY_SHAPES: StudyShape[] = [
+  { kind: 'map', matches: (model) => Boolean(model.map), points: (model) => (model.map?.x.values.length ?? 0) * (model.map?.y.values.length ?? 0), divisible: { align: (model) => model.map?.x.values.length ?? 1 } },
   { kind: 'titration', matches: (model) => Boolean(model.titration), points: (model) => Math.max(1, model.titration?.values?.length ?? 1) },
   { kind: 'sweep', matches: (model) => Boolean(model.sweep), points: (model) => model.sweep?.values.length ?? 0, divisible: { align: () => 1 } },
   { kind: 'single', matches: () => true, points: () => 1 },

@@ -9,8 +9,12 @@
  * `STUDY_RUNNERS` here under the same name. See DEVELOPERS.md, "Study jobs".
  */
 import type { Model } from '../../shared/poise/model'
-import { failedTitrationPoints, type SweepResult, type TitrationResult } from '../../shared/types/result'
-import { solve, solveAtSweepValue, sweep, titration, type SolveOptions } from '../solver/index'
+import { failedTitrationPoints, type MapAnswer, type MapAxis, type Result, type SweepResult, type TitrationResult } from '../../shared/types/result'
+import type { ModelSweep } from '../../shared/poise/model'
+import { solve, solveAtSweepValue, solveMap, sweep, titration, unsolvable, type SolveOptions } from '../solver/index'
+import { CANCELLED_CELL_REASON } from '../solver/map'
+import { ColumnsBuilder, sweepPoint } from '../../shared/results/sweep-columns'
+import { mapAnswerJson } from '../../shared/results/map-columns'
 import { limitWindows } from '../solver/limits'
 import { STUDY_SHAPES } from './kinds'
 
@@ -133,8 +137,69 @@ export const singleRunner = whole('single', (model, options) => {
   return { json: JSON.stringify(result), failed: result.converged ? 0 : 1 }
 })
 
+const axisOf = (sw: ModelSweep): MapAxis => ({ variable: sw.variable, component: sw.component, values: sw.values, log: sw.log })
+
+/**
+ * A map, row by row: a range is whole rows (kinds.ts aligns it), solved by
+ * `solveMap` over those rows after the row above them (re-solved, so each
+ * cell starts from the cell above as in one map); a slice stops at the end
+ * of a row. Each cell is stored as its Result; `finish` writes them into
+ * the map's columns.
+ */
+export const mapRunner: StudyRunner = {
+  run(model, from, to, ctx) {
+    const map = model.map!
+    const nx = map.x.values.length
+    const row0 = Math.floor(from / nx)
+    const lead = row0 > 0 ? 1 : 0
+    const part: Model = { ...model, map: { ...map, y: { ...map.y, values: map.y.values.slice(row0 - lead, Math.ceil(to / nx)) } } }
+    const skip = lead * nx
+    let asked = 0
+    const answer = solveMap(part, {
+      ...ctx.solveOptions,
+      onProgress: (done) => ctx.progress(Math.max(0, done - skip)),
+      // Asked before each cell: stop only between rows, after this range's first.
+      cancelled: () => {
+        const cell = asked++
+        return cell > skip && cell % nx === 0 && ctx.shouldStop()
+      },
+    })
+    const done = answer.cancelled ? answer.cellsDone : answer.y.values.length * nx
+    const slice: Slice = { count: 0, items: [], failed: 0 }
+    for (let k = skip; k < done; k++) {
+      const cell = sweepPoint(answer.cells, k)
+      slice.items.push(JSON.stringify(cell))
+      slice.count++
+      if (!cell.converged) slice.failed++
+    }
+    return slice
+  },
+  finish(model, items, complete) {
+    if (!items.length) return null
+    const map = model.map!
+    const total = map.x.values.length * map.y.values.length
+    const cells = new ColumnsBuilder()
+    let failedCells = 0
+    const add = (cell: Result) => {
+      if (!cell.converged) failedCells++
+      cells.add(cell)
+    }
+    for (const item of items) add(JSON.parse(item) as Result)
+    if (cells.length < total) {
+      const notReached = unsolvable(model, CANCELLED_CELL_REASON)
+      while (cells.length < total) add(notReached)
+    }
+    const answer: MapAnswer = {
+      format: 'map-columns', x: axisOf(map.x), y: axisOf(map.y), cells: cells.build(),
+      cellsDone: complete ? total : items.length, failedCells, cancelled: !complete,
+    }
+    return mapAnswerJson(answer)
+  },
+}
+
 /** The runner of each kind of kinds.ts, by its name. */
 export const STUDY_RUNNERS: Record<string, StudyRunner> = {
+  map: mapRunner,
   titration: titrationRunner,
   sweep: sweepRunner,
   single: singleRunner,

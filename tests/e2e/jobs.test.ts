@@ -7,7 +7,7 @@ import { useBuiltServer } from '../setup/server'
 import { api, makeLab, signUp, type SignedIn } from '../setup/accounts'
 import { pollRun } from '../setup/jobs'
 import { openSignedIn, screenshot } from '../setup/browser'
-import { longSweep } from '../fixtures/long-sweep'
+import { longSweep } from '../fixtures/studies'
 
 await useBuiltServer()
 
@@ -32,16 +32,20 @@ it('shows a long run\'s progress and cancels it, keeping the points computed', a
   const running = (await pollRun(system(`/runs/${runs[0].id}`), owner, (run) => run.progress.done > 0, 20)).at(-1)
   const worker = Number(running.worker.split(':').at(-1))
   process.kill(worker, 'SIGSTOP')
+  let answered!: Promise<import('playwright-core').Response>
   try {
     await job.locator('[data-test=job-progress]').getByText(/[1-9][\d,]* of 5,000 points · /).waitFor()
     await expect(job.getByRole('progressbar').getAttribute('aria-valuemax')).resolves.toBe('5000')
     await screenshot(page, 'jobs-progress')
-    const asked = page.waitForResponse((answer) => answer.url().endsWith(`/runs/${running.id}/cancel`))
+    // The cancel goes out while the worker is held (the answer may wait for a row the held worker has locked).
+    answered = page.waitForResponse((answer) => answer.url().endsWith(`/runs/${running.id}/cancel`))
+    const asked = page.waitForRequest((request) => request.url().endsWith(`/runs/${running.id}/cancel`))
     await job.locator('[data-test=job-cancel]').click()
-    expect((await asked).status()).toBe(200)
+    await asked
   } finally {
     process.kill(worker, 'SIGCONT')
   }
+  expect((await answered).status()).toBe(200)
   const note = page.locator('[data-test=run-cancelled]')
   await note.waitFor({ timeout: 60_000 })
   const kept = Number((await note.textContent())!.match(/keeps the ([\d,]+) of 5,000 points/)![1]!.replace(/,/g, ''))

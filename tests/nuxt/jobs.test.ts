@@ -10,7 +10,7 @@ import { TEST_DATABASE_URL } from '../setup/test-database'
 import { pollRun } from '../setup/jobs'
 import { startWorkerProcess, type WorkerProcess } from '../setup/server-process'
 import { SOLVE_LIMITS } from '../../server/utils/solve-limits'
-import { longSweep } from '../fixtures/long-sweep'
+import { longSweep, vinegarWith } from '../fixtures/studies'
 
 await useBuiltServer()
 
@@ -161,6 +161,30 @@ describe('a worker killed with kill -9', () => {
   })
 })
 
+describe('a map is a job too', () => {
+  const vinegarMap = (x: number, y: number) => vinegarWith(`map pH from 2 to 12 points ${x} by total CH3COO- from 1e-4 to 1e-1 mol/L points ${y} log`)
+
+  it('runs a map on the queue, row ranges shared by the workers, and stores it by columns', async () => {
+    expect((await api(`/api/labs/${lab}/systems`, { method: 'POST', cookie: owner.cookie, body: { title: 'Vinegar map', slug: 'vinegar-map', source: vinegarMap(101, 50) } })).status).toBe(201)
+    const queued = await api(`/api/labs/${lab}/systems/vinegar-map/runs`, { method: 'POST', cookie: reviewer.cookie, body: {} })
+    expect(queued.status).toBe(201)
+    expect(queued.body).toMatchObject({ kind: 'map', progress: { done: 0, total: 5050 } })
+    const last = (await pollRun(`/api/labs/${lab}/systems/vinegar-map/runs/${queued.body.id}`, reviewer)).at(-1)
+    expect(last).toMatchObject({ jobStatus: 'done', status: 'ok', progress: { done: 5050, total: 5050 } })
+    expect(last.result).toMatchObject({ format: 'map-columns', cellsDone: 5050, failedCells: 0, cancelled: false })
+    expect(last.result.x.values).toHaveLength(101)
+    expect(last.result.y.values).toHaveLength(50)
+  })
+
+  it('refuses a map of more cells than one run may compute with 422 saying what to change', async () => {
+    expect((await api(`/api/labs/${lab}/systems`, { method: 'POST', cookie: owner.cookie, body: { title: 'Huge map', slug: 'huge-map', source: vinegarMap(101, 201) } })).status).toBe(201)
+    const refused = await api(`/api/labs/${lab}/systems/huge-map/runs`, { method: 'POST', cookie: reviewer.cookie, body: {} })
+    expect(refused.status).toBe(422)
+    expect(refused.body.message).toBe(`This map has 20,301 points; one run may compute at most ${SOLVE_LIMITS.maxJobPoints.toLocaleString('en-US')}. Use fewer points or a larger step.`)
+    expect((await api(`/api/labs/${lab}/systems/huge-map/runs`, { cookie: owner.cookie })).body.runs).toEqual([])
+  })
+})
+
 describe('fair use', () => {
   it(`refuses an account's run beyond ${SOLVE_LIMITS.jobsPerUser} queued or running with 429 and Retry-After, while another account still runs`, async () => {
     const mine = [await start(reviewer)]
@@ -178,11 +202,11 @@ describe('fair use', () => {
       expect(refused.body.message).toMatch(new RegExp(`^You already have ${SOLVE_LIMITS.jobsPerUser} runs queued or running; at most ${SOLVE_LIMITS.jobsPerUser} at a time per account\\. Wait for one to finish or cancel one in the system's history\\. Try again in`))
       theirs = await start(other)
       expect(theirs.jobStatus).toBe('queued')
-      for (const run of mine) expect((await api(system(`/runs/${run.id}/cancel`), { method: 'POST', cookie: reviewer.cookie })).status).toBe(200)
-      expect((await api(system(`/runs/${theirs.id}/cancel`), { method: 'POST', cookie: other.cookie })).status).toBe(200)
     } finally {
       process.kill(worker, 'SIGCONT')
     }
+    for (const run of mine) expect((await api(system(`/runs/${run.id}/cancel`), { method: 'POST', cookie: reviewer.cookie })).status).toBe(200)
+    expect((await api(system(`/runs/${theirs!.id}/cancel`), { method: 'POST', cookie: other.cookie })).status).toBe(200)
     for (const run of [...mine, theirs]) expect(ended((await pollRun(system(`/runs/${run.id}`), owner)).at(-1))).toBe(true)
     // Once they ended, the account runs again.
     const again = await start(reviewer)

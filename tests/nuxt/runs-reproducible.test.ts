@@ -105,6 +105,6 @@ describe('a stored run', () => {
 
     const compared = await api(vinegar('/compare?from=1&to=2'), { cookie: viewer.cookie })
     expect(compared.body.solved.from).toMatchObject({ origin: 'stored', runId: stored.body.id, model: 'compiled-now', compilerVersion: null })
-    expect(compared.body.problems).toContainEqual(expect.stringMatching(new RegExp(`^Run ${stored.body.id} of revision 1 predates stored models`)))
+    expect(compared.body.problems).toContainEqual(expect.stringMatching(new RegExp(`^Run ${stored.body.number} of revision 1 predates stored models`)))
   })
 })

@@ -35,6 +35,15 @@ describe('study kinds on the queue', () => {
     for (let k = 1; k < ranges.length; k++) expect(ranges[k]!.from).toBe(ranges[k - 1]!.to)
   })
 
+  it('splits a map into ranges of whole rows', () => {
+    const map = model('map pH from 2 to 12 points 101 by total Cl- from 1e-4 to 1e-1 mol/L points 50 log\n')
+    expect(studyShapeOf(map).kind).toBe('map')
+    const ranges = pointRanges(map)
+    expect(ranges.length).toBeGreaterThan(1)
+    for (const range of ranges) expect(range.from % 101).toBe(0)
+    expect(ranges.at(-1)!.to).toBe(5050)
+  })
+
   it('keeps a short sweep in one job', () => {
     expect(pointRanges(model('sweep pH from 2 to 12 points 101\n'))).toEqual([{ from: 0, to: 101 }])
   })

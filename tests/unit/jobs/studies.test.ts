@@ -2,20 +2,14 @@
 // answer one uninterrupted computation gives; a cancelled one keeps a prefix.
 import { describe, expect, it } from 'vitest'
 import { compile } from '../../../shared/poise/index'
-import { sweep } from '../../../server/solver/index'
+import { vinegarWith } from '../../fixtures/studies'
+import { solveMap, sweep } from '../../../server/solver/index'
+import { mapCell } from '../../../shared/results/map-columns'
 import { STUDY_RUNNERS, type Slice } from '../../../server/jobs/studies'
-import type { SweepResult } from '../../../shared/types/result'
+import type { MapAnswer, SweepResult } from '../../../shared/types/result'
 
-// Acetic acid, 10 mmol/L, swept in pH (pKa 4.76, handbook value from memory).
-const vinegar = compile(`system "Vinegar"
-activity davies
-component H+ pH 4
-component CH3COO- total 10 mmol/L
-component Na+ total 10 mmol/L
-reaction H2O <=> H+ + OH- pKw 14.00 cite "water, 25 C (from memory)"
-reaction CH3COOH <=> CH3COO- + H+ pKa 4.76 cite "acetic acid (from memory)"
-sweep pH from 2 to 12 points 300
-`).model!
+// Acetic acid, 10 mmol/L, swept in pH (tests/fixtures/studies.ts).
+const vinegar = compile(vinegarWith('sweep pH from 2 to 12 points 300')).model!
 const runner = STUDY_RUNNERS.sweep!
 const options = { timeBudgetMs: 20_000 }
 const everything = { progress: () => {}, shouldStop: () => false, solveOptions: options }
@@ -55,5 +49,39 @@ describe('a sweep as a job', () => {
     expect(kept.values).toEqual(vinegar.sweep!.values.slice(0, 150))
     expect(kept.points).toHaveLength(150)
     expect(runner.finish(vinegar, [], false, options)).toBeNull()
+  })
+})
+
+// The same acid as a map: pH by the acetate total (demo ranges).
+const vinegarMap = compile(vinegarWith('map pH from 2 to 12 points 21 by total CH3COO- from 1e-4 to 1e-1 mol/L points 12 log'))
+
+
+describe('a map as a job', () => {
+  it('computed in ranges of whole rows equals the map solved at once, cell for cell', () => {
+    const model = vinegarMap.model!
+    expect(model, vinegarMap.diagnostics.map((d) => d.message).join('; ')).toBeTruthy()
+    const runner = STUDY_RUNNERS.map!
+    const items: string[] = []
+    for (const [from, to] of [[0, 84], [84, 168], [168, 252]] as const) {
+      const slice = runner.run(model, from, to, everything)
+      expect(slice.count).toBe(to - from)
+      items.push(...slice.items)
+    }
+    const joined = JSON.parse(runner.finish(model, items, true, options)!) as MapAnswer
+    const once = solveMap(model, options)
+    expect(joined).toMatchObject({ format: 'map-columns', cellsDone: 252, cancelled: false, failedCells: once.failedCells })
+    for (const k of [0, 20, 21, 83, 84, 85, 167, 168, 251]) {
+      expect(mapCell(joined, Math.floor(k / 21), k % 21).pH).toBeCloseTo(mapCell(once, Math.floor(k / 21), k % 21).pH, 9)
+    }
+  })
+
+  it('stops a slice only at the end of a row, and keeps, cancelled, the rows done', () => {
+    const model = vinegarMap.model!
+    const runner = STUDY_RUNNERS.map!
+    const slice = runner.run(model, 0, 252, { ...everything, shouldStop: () => true })
+    expect(slice.count).toBe(21)
+    const kept = JSON.parse(runner.finish(model, slice.items, false, options)!) as MapAnswer
+    expect(kept).toMatchObject({ cellsDone: 21, cancelled: true })
+    expect(mapCell(kept, 1, 0).converged).toBe(false)
   })
 })
