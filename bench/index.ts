@@ -20,7 +20,7 @@ import { buildCli } from '../scripts/build-cli.mjs'
 import { scalingExponent, scalingSystemSource } from './scaling'
 import { hasBuiltServer, startBuiltServer } from './builtServer'
 import { httpSweepMs, workbenchMs } from './served'
-import { workerScaling, type WorkerScaling } from './workers'
+import { WORKER_BENCH_MAP, workerScaling, type WorkerScaling } from './workers'
 
 import { join } from 'node:path'
 import { fitFigures } from './fit'
@@ -206,9 +206,9 @@ async function main(json: boolean): Promise<void> {
       server.stop()
     }
   }
-  // One against two study workers on the same stored 5,000-point sweep (queued as ranges the workers share).
+  // One against two study workers on the same stored 100 × 50 map (queued as ranges of rows the workers share).
   let workers: WorkerScaling | null = null
-  if (hasBuiltServer() && !process.argv.includes('--no-server')) workers = await workerScaling(benchSystemSource('sweep pH from 2 to 12 points 5000'), 5000, json)
+  if (hasBuiltServer() && !process.argv.includes('--no-server')) workers = await workerScaling(benchSystemSource(WORKER_BENCH_MAP), 5000, json)
   const workerSpeedup = workers?.speedup ?? null
   const workbenchUsableMs = workbench?.usableMs ?? null
   const workbenchFirstResultMs = workbench?.firstResultMs ?? null
@@ -262,7 +262,7 @@ async function main(json: boolean): Promise<void> {
     console.log(`  (workbench: ${(workbench.transferredBytes / 1e6).toFixed(2)} MB transferred, ${(workbench.decodedBytes / 1e6).toFixed(2)} MB decoded; the sign-in page ${(workbench.loginTransferredBytes / 1e6).toFixed(2)} MB transferred, ${(workbench.loginDecodedBytes / 1e6).toFixed(2)} MB decoded)`)
   }
   if (workers) {
-    console.log(row('stored 5,000-point sweep, 1 worker / 2 workers', `${workers.speedup.toFixed(2)}×`, '> 1×', workers.speedup > 1))
+    console.log(row('stored 100 × 50 map, 1 worker / 2 workers', `${workers.speedup.toFixed(2)}×`, '> 1×', workers.speedup > 1))
     console.log(`  (queued to done: one worker ${workers.oneWorkerMs.toFixed(0)} ms, two workers ${workers.twoWorkersMs.toFixed(0)} ms; ${availableParallelism()} cores)`)
   }
 }

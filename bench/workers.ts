@@ -1,5 +1,6 @@
 /**
- * One against two study workers on the same stored run: the built server on
+ * One against two study workers on the same stored run (`npm run bench`;
+ * alone: `npx tsx bench/workers.ts`): the built server on
  * a database of its own and a Redis database of its own (2), the run queued
  * through the API as the workbench queues it, timed from the POST to the
  * run's `done`. The run is split into ranges of its points
@@ -11,6 +12,9 @@ import { redisPort } from '../scripts/redis-url.mjs'
 import { buildWorker } from '../scripts/build-worker.mjs'
 import { startWorkerProcess } from '../tests/setup/server-process'
 import { freshBenchDatabase, signInAsDemoEditor, spawnBuiltServer } from './builtServer'
+
+/** The study timed: a 100 × 50 map over pH and the ammonia total of the bench system (bench/systems.ts). */
+export const WORKER_BENCH_MAP = 'map pH from 4 to 12 points 100 by total NH3 from 1e-4 to 1e-1 mol/L points 50 log'
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[xs.length >> 1]!
 
@@ -71,4 +75,9 @@ export async function workerScaling(source: string, points: number, quiet: boole
   } finally {
     child.kill()
   }
+}
+
+if (process.argv[1]?.endsWith('bench/workers.ts')) {
+  const { benchSystemSource } = await import('./systems')
+  console.log(JSON.stringify(await workerScaling(benchSystemSource(WORKER_BENCH_MAP), 5000, true)))
 }
