@@ -7,7 +7,7 @@ import { getBrowser, url, waitForHydration } from '@nuxt/test-utils/e2e'
 import { useBuiltServer } from '../setup/server'
 import { storeRunToEnd } from '../setup/jobs'
 import { api, makeLab, signInAs, signUp, SESSION_COOKIE } from '../setup/accounts'
-import { openPage, screenshot } from '../setup/browser'
+import { openPage, screenshot, sidewaysOverflow } from '../setup/browser'
 
 await useBuiltServer()
 
@@ -46,16 +46,8 @@ async function problemsOn(path: string, name: string, cookie?: string): Promise<
     await waitForHydration(page, url(path), 'hydration')
     await page.waitForLoadState('networkidle')
     if (viewport.width < 500) {
-      const { scrollWidth, innerWidth, wide } = await page.evaluate(() => ({
-        scrollWidth: document.documentElement.scrollWidth,
-        innerWidth: window.innerWidth,
-        // The outermost elements that stick out on the right, to say where to look.
-        wide: [...document.querySelectorAll('body *')]
-          .filter((el) => el.getBoundingClientRect().right > window.innerWidth + 1 && !(el.parentElement && el.parentElement.getBoundingClientRect().right > window.innerWidth + 1))
-          .slice(0, 3)
-          .map((el) => `${el.tagName.toLowerCase()}.${[...el.classList].join('.')}`),
-      }))
-      if (scrollWidth > innerWidth) problems.push(`${at}: scrolls sideways (${scrollWidth}px wide in ${innerWidth}px; sticking out: ${wide.join(', ')})`)
+      const overflow = await sidewaysOverflow(page)
+      if (overflow) problems.push(`${at}: ${overflow}`)
       // The breadcrumb shows one step on a phone, with room to read it (not squeezed to a letter or two).
       const crumbs = await page.evaluate(() => [...document.querySelectorAll('nav[aria-label="Breadcrumb"] li')]
         .filter((li) => li.getBoundingClientRect().width > 0)

@@ -9,7 +9,7 @@ import { join } from 'node:path'
 import { describe, expect, it } from 'vitest'
 import { useBuiltServer } from '../setup/server'
 import { signInAs } from '../setup/accounts'
-import { openSignedIn, screenshot } from '../setup/browser'
+import { openSignedIn, screenshot, sidewaysOverflow } from '../setup/browser'
 import { compile } from '../../shared/poise/index'
 import { titration } from '../../server/solver/index'
 import { endPointSentences } from '../../shared/results/titration'
@@ -37,6 +37,14 @@ describe('a titration in the workbench', () => {
     await expect(page.locator('[data-test=end-point-mark]').count()).resolves.toBe(1)
     await page.locator('[data-test=titration-derivative] path').waitFor()
     await screenshot(page, 'titration-curve')
+
+    // On a phone (390 px) the curve, its point slider and the read-out beside it fit the window.
+    await page.setViewportSize({ width: 390, height: 844 })
+    await expect(sidewaysOverflow(page)).resolves.toBeNull()
+    // …and the slider keeps a width a thumb can drag along.
+    expect((await page.locator('[data-test=titration-point]').boundingBox())?.width ?? 0).toBeGreaterThan(150)
+    await screenshot(page, 'titration-curve-phone')
+    await page.setViewportSize({ width: 1280, height: 900 })
 
     const [download] = await Promise.all([page.waitForEvent('download'), page.locator('[data-test=titration-csv]').click()])
     expect(download.suggestedFilename()).toMatch(/^caustic-standardised-against-phthalate-.*-titration\.csv$/)

@@ -34,3 +34,20 @@ export async function screenshot(page: Page, name: string): Promise<string> {
   await page.screenshot({ path, fullPage: true })
   return path
 }
+
+/**
+ * Sideways scroll of the page as it is now: null when nothing is wider than
+ * the window, else a sentence with the page's width and the outermost
+ * elements sticking out on the right (to say where to look).
+ */
+export async function sidewaysOverflow(page: Page): Promise<string | null> {
+  const { scrollWidth, innerWidth, wide } = await page.evaluate(() => ({
+    scrollWidth: document.documentElement.scrollWidth,
+    innerWidth: window.innerWidth,
+    wide: [...document.querySelectorAll('body *')]
+      .filter((el) => el.getBoundingClientRect().right > window.innerWidth + 1 && !(el.parentElement && el.parentElement.getBoundingClientRect().right > window.innerWidth + 1))
+      .slice(0, 3)
+      .map((el) => `${el.tagName.toLowerCase()}.${[...el.classList].join('.')}`),
+  }))
+  return scrollWidth > innerWidth ? `scrolls sideways (${scrollWidth}px wide in ${innerWidth}px; sticking out: ${wide.join(', ')})` : null
+}
