@@ -10,6 +10,10 @@ import { resolve } from 'node:path'
 import mysql from 'mysql2/promise'
 import { freePort } from '../scripts/free-port'
 import { startPrivateServers } from '../scripts/private-server.mjs'
+import { Redis } from 'ioredis'
+import { redisPort } from '../scripts/redis-url.mjs'
+import { buildWorker } from '../scripts/build-worker.mjs'
+import { startWorkerProcess } from '../tests/setup/server-process'
 import { migrateDatabase, openDatabase } from '../server/database/connect'
 import { DEMO_PASSWORD, seedDemo } from '../server/database/seed'
 
@@ -81,11 +85,22 @@ export async function signInAsDemoEditor(base: string): Promise<string> {
   return cookie
 }
 
-/** A fresh database of its own, the built server on a free port, and the demo editor signed in. */
+/**
+ * A fresh database of its own, a Redis database of its own (3, emptied) for
+ * its study queue, the built server on a free port with one study worker
+ * beside it (as `npm start` runs them), and the demo editor signed in.
+ */
 export async function startBuiltServer(database: string, quiet: boolean): Promise<BuiltServer> {
   const url = await freshBenchDatabase(database, quiet)
-  const { child, base } = await spawnBuiltServer(url, await freePort(), `bench-${Date.now()}-only-for-this-run-xxxxxxxxxxxxxxxx`)
-  const stop = () => { child.kill() }
+  const redisUrl = `redis://127.0.0.1:${redisPort()}/3`
+  const redis = new Redis(redisUrl)
+  await redis.flushdb()
+  redis.disconnect()
+  await buildWorker()
+  const env = { EQUIPOISE_REDIS_URL: redisUrl }
+  const { child, base } = await spawnBuiltServer(url, await freePort(), `bench-${Date.now()}-only-for-this-run-xxxxxxxxxxxxxxxx`, env)
+  const worker = await startWorkerProcess({ ...process.env, NUXT_DATABASE_URL: url, ...env }, root).catch((error) => { child.kill(); throw error })
+  const stop = () => { child.kill(); void worker.stop() }
   try {
     return { base, cookie: await signInAsDemoEditor(base), stop }
   } catch (error) {

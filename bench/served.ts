@@ -88,6 +88,14 @@ export async function workbenchMs(server: BuiltServer, reps = 3): Promise<Workbe
   // A stored run of the system, for its report.
   const stored = await fetch(`${server.base}/api/labs/${DEMO_LAB.slug}/systems/copper-rinse-tank/runs`, { method: 'POST', headers: { 'content-type': 'application/json', origin: server.base, cookie: server.cookie }, body: '{}' })
   if (!stored.ok) throw new Error(`storing a run for the report answered ${stored.status}`)
+  // A stored run is a job: wait until the worker beside the server has stored its answer.
+  const { id } = await stored.json() as { id: number }
+  for (;;) {
+    const run = await (await fetch(`${server.base}/api/labs/${DEMO_LAB.slug}/systems/copper-rinse-tank/runs/${id}`, { headers: { cookie: server.cookie } })).json() as { jobStatus: string }
+    if (run.jobStatus === 'done') break
+    if (run.jobStatus !== 'queued' && run.jobStatus !== 'running') throw new Error(`the run for the report ended ${run.jobStatus}`)
+    await new Promise((r) => setTimeout(r, 100))
+  }
   const hydrated = () => (window as unknown as { useNuxtApp?: () => { isHydrating: boolean } }).useNuxtApp?.().isHydrating === false
   try {
     for (let k = 0; k < reps + 1; k++) {
