@@ -120,7 +120,7 @@ export const runParts = mysqlTable('run_parts', {
   firstPoint: int('first_point').notNull(),
   pointCount: int('point_count').notNull(),
   failedPoints: int('failed_points').notNull().default(0),
-  /** The slice's points, one JSON text a line (JSON.stringify never writes a raw line break). */
+  /** The slice: its points by columns in the binary form as base64, or a whole answer as JSON (server/jobs/store.ts, sliceBody). */
   body: longtext('body').notNull(),
 }, (t) => [uniqueIndex('run_parts_run_first_unique').on(t.runId, t.firstPoint)])
 

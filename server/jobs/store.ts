@@ -10,7 +10,9 @@ import type { Database } from '../database/connect'
 import * as tables from '../database/schema'
 import { ACTIVE_JOB_STATUSES } from '../../shared/types/job'
 import { formatBytes } from '../../shared/utils/bytes'
-import type { Slice } from './studies'
+import { decodeBinaryAnswer, encodeBinaryAnswer } from '../../shared/results/binary-answer'
+import type { PointParts } from '../../shared/results/sweep-columns'
+import type { Slice, StoredPart } from './studies'
 
 type Executor = Database | Parameters<Parameters<Database['transaction']>[0]>[0]
 
@@ -102,7 +104,7 @@ export async function saveSlice(db: Database, runId: number, from: number, slice
     if (slice.count > 0) {
       const end = from + slice.count
       if (parts.some((part) => part.firstPoint < end && part.firstPoint + part.pointCount > from)) return 'refused'
-      await tx.insert(tables.runParts).values({ runId, firstPoint: from, pointCount: slice.count, failedPoints: slice.failed, body: slice.items.join('\n') })
+      await tx.insert(tables.runParts).values({ runId, firstPoint: from, pointCount: slice.count, failedPoints: slice.failed, body: sliceBody(slice) })
     }
     const stored = parts.reduce((sum, part) => sum + part.pointCount, 0) + slice.count
     await tx.update(tables.runs).set({ pointsDone: sql`GREATEST(${tables.runs.pointsDone}, ${stored})` }).where(eq(tables.runs.id, runId))
@@ -111,23 +113,42 @@ export async function saveSlice(db: Database, runId: number, from: number, slice
 }
 
 /**
- * The points stored from the first on without a gap, in order (what
+ * A slice as its row's body: a divisible kind's columns in the binary form
+ * (shared/results/binary-answer.ts) as base64 text, a whole answer as its
+ * JSON text. The two never look alike: JSON starts with { or [, base64
+ * never does.
+ */
+export function sliceBody(slice: Slice): string {
+  if (slice.columns) return Buffer.from(encodeBinaryAnswer(slice.columns)).toString('base64')
+  return slice.answer ?? ''
+}
+
+/** A stored body back as a part of `count` points (sliceBody's inverse; JSON text is kept as text). */
+export function partOfBody(body: string, count: number): StoredPart {
+  const first = body.charCodeAt(0)
+  if (first === 0x7b || first === 0x5b) return { count, text: body }
+  const bytes = Buffer.from(body, 'base64')
+  return { count, columns: decodeBinaryAnswer<PointParts>(bytes.buffer, bytes.byteOffset, bytes.byteLength) }
+}
+
+/**
+ * The slices stored from the first point on without a gap, in order (what
  * `StudyRunner.finish` joins): all of them once every range is done; for a
  * cancelled run whose ranges stopped part-way, those before the first gap.
  */
-export async function storedItems(db: Executor, runId: number): Promise<{ items: string[], points: number, failed: number }> {
-  const parts = await db.select({ firstPoint: tables.runParts.firstPoint, pointCount: tables.runParts.pointCount, body: tables.runParts.body, failedPoints: tables.runParts.failedPoints })
+export async function storedParts(db: Executor, runId: number): Promise<{ parts: StoredPart[], points: number, failed: number }> {
+  const rows = await db.select({ firstPoint: tables.runParts.firstPoint, pointCount: tables.runParts.pointCount, body: tables.runParts.body, failedPoints: tables.runParts.failedPoints })
     .from(tables.runParts).where(eq(tables.runParts.runId, runId)).orderBy(asc(tables.runParts.firstPoint))
-  const items: string[] = []
+  const parts: StoredPart[] = []
   let points = 0
   let failed = 0
-  for (const part of parts) {
-    if (part.firstPoint !== points) break
-    items.push(...part.body.split('\n'))
-    points += part.pointCount
-    failed += part.failedPoints
+  for (const row of rows) {
+    if (row.firstPoint !== points) break
+    parts.push(partOfBody(row.body, row.pointCount))
+    points += row.pointCount
+    failed += row.failedPoints
   }
-  return { items, points, failed }
+  return { parts, points, failed }
 }
 
 /**

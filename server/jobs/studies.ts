@@ -13,7 +13,7 @@ import { failedTitrationPoints, type MapAnswer, type MapAxis, type Result, type 
 import type { ModelSweep } from '../../shared/poise/model'
 import { solve, solveAtSweepValue, solveMap, sweep, titration, unsolvable, type SolveOptions } from '../solver/index'
 import { CANCELLED_CELL_REASON } from '../solver/map'
-import { ColumnsBuilder, sweepPoint } from '../../shared/results/sweep-columns'
+import { ColumnsBuilder, failedPoints, joinColumns, pointTexts, sweepView, type PointParts } from '../../shared/results/sweep-columns'
 import { mapAnswerJson } from '../../shared/results/map-columns'
 import { limitWindows } from '../solver/limits'
 import { STUDY_SHAPES } from './kinds'
@@ -32,10 +32,28 @@ export interface SliceContext {
 export interface Slice {
   /** How many of the study's points this slice covers. */
   count: number
-  /** Their JSON texts, in order (a kind that is not divisible gives its whole answer as one item). */
-  items: string[]
+  /** A divisible kind's points, by columns (stored in the binary form, server/jobs/store.ts). */
+  columns?: PointParts
+  /** A kind that is not divisible: its whole answer as JSON. */
+  answer?: string
   /** Points among them that did not converge. */
   failed: number
+}
+
+/**
+ * A slice as stored and read back: its columns, or its answer's JSON text
+ * (`text`; in parts stored by an older worker, one point's JSON a line).
+ */
+export type StoredPart = { count: number, columns: PointParts<ArrayLike<number>> | PointParts } | { count: number, text: string }
+
+/** The columns of stored parts, joined in order (a part from an older worker, as JSON lines, is read point by point). */
+export function joinParts(parts: StoredPart[]): PointParts {
+  return joinColumns(parts.map((part) => {
+    if ('columns' in part) return { columns: part.columns, from: 0, to: part.count }
+    const builder = new ColumnsBuilder()
+    for (const line of part.text.split('\n')) builder.add(JSON.parse(line) as Result)
+    return { columns: builder.build(), from: 0, to: builder.length }
+  }))
 }
 
 /** The stored answer of a job as JSON; null when nothing was computed (a job cancelled before its first point). */
@@ -51,12 +69,12 @@ export interface StudyRunner {
    */
   run(model: Model, from: number, to: number, ctx: SliceContext): Slice
   /**
-   * The stored answer from the points computed, in order (the items of the
+   * The stored answer from the points computed, in order (the stored
    * slices from the first point on, without a gap); `complete` is false for
    * a cancelled job, whose answer keeps those points. (Failed points are
    * counted from the slices.)
    */
-  finish(model: Model, items: string[], complete: boolean, solveOptions: SolveOptions): StudyAnswer
+  finish(model: Model, parts: StoredPart[], complete: boolean, solveOptions: SolveOptions): StudyAnswer
 }
 
 /** A kind answered by one computation that cannot stop part-way (a single solve, a titration). */
@@ -66,10 +84,11 @@ function whole(kind: string, compute: (model: Model, options: SolveOptions) => {
     run(model, _from, _to, ctx) {
       const { json, failed } = compute(model, ctx.solveOptions)
       ctx.progress(points(model))
-      return { count: points(model), items: [json], failed }
+      return { count: points(model), answer: json, failed }
     },
-    finish(_model, items) {
-      return items[0] ?? null
+    finish(_model, parts) {
+      const part = parts[0]
+      return part && 'text' in part ? part.text : null
     },
   }
 }
@@ -83,7 +102,8 @@ export const sweepRunner: StudyRunner = {
   run(model, from, to, ctx) {
     const values = model.sweep!.values.slice(0, to)
     const lead = Math.min(from, SWEEP_LEAD)
-    const slice: Slice = { count: 0, items: [], failed: 0 }
+    const slice: Slice = { count: 0, failed: 0 }
+    const columns = new ColumnsBuilder()
     let seen = 0
     // Limit windows are located once, over the whole sweep, in finish().
     const part: Model = { ...model, limits: undefined, sweep: { ...model.sweep!, values: values.slice(from - lead) } }
@@ -92,7 +112,7 @@ export const sweepRunner: StudyRunner = {
       keepPoint: (point) => {
         seen++
         if (seen > lead) {
-          slice.items.push(JSON.stringify(point))
+          columns.add(point)
           slice.count++
           if (!point.converged) slice.failed++
           ctx.progress(slice.count)
@@ -105,21 +125,25 @@ export const sweepRunner: StudyRunner = {
     if (slice.count === 0 && from < values.length) {
       const whole = sweep(part, ctx.solveOptions)
       for (const point of whole.points.slice(lead)) {
-        slice.items.push(JSON.stringify(point))
+        columns.add(point)
         slice.count++
         if (!point.converged) slice.failed++
       }
     }
+    slice.columns = columns.build()
     return slice
   },
-  finish(model, items, _complete, solveOptions) {
-    if (!items.length) return null
+  finish(model, parts, _complete, solveOptions) {
+    const points = joinParts(parts)
+    const n = points.templateOf.length
+    if (!n) return null
     const sw = model.sweep!
-    const values = sw.values.slice(0, items.length)
+    const values = sw.values.slice(0, n)
     const head = JSON.stringify({ variable: sw.variable, component: sw.component ?? null, values }).slice(0, -1)
+    const items = pointTexts(points)
     let limits = ''
     if (model.limits?.length) {
-      const done: SweepResult = { variable: sw.variable, component: sw.component ?? null, values, points: items.map((item) => JSON.parse(item)) }
+      const done: SweepResult = sweepView({ format: 'sweep-columns', variable: sw.variable, component: sw.component ?? null, values, ...points })
       const cut: Model = { ...model, sweep: { ...sw, values } }
       limits = `,"limits":${JSON.stringify(limitWindows(cut, done, (v) => solveAtSweepValue(cut, v, solveOptions)))}`
     }
@@ -143,8 +167,8 @@ const axisOf = (sw: ModelSweep): MapAxis => ({ variable: sw.variable, component:
  * A map, row by row: a range is whole rows (kinds.ts aligns it), solved by
  * `solveMap` over those rows after the row above them (re-solved, so each
  * cell starts from the cell above as in one map); a slice stops at the end
- * of a row. Each cell is stored as its Result; `finish` writes them into
- * the map's columns.
+ * of a row. A slice's cells are stored by columns (cut from the solver's
+ * own); `finish` joins the slices' columns into the map's.
  */
 export const mapRunner: StudyRunner = {
   run(model, from, to, ctx) {
@@ -165,33 +189,26 @@ export const mapRunner: StudyRunner = {
       },
     })
     const done = answer.cancelled ? answer.cellsDone : answer.y.values.length * nx
-    const slice: Slice = { count: 0, items: [], failed: 0 }
-    for (let k = skip; k < done; k++) {
-      const cell = sweepPoint(answer.cells, k)
-      slice.items.push(JSON.stringify(cell))
-      slice.count++
-      if (!cell.converged) slice.failed++
-    }
-    return slice
+    // This range's cells, cut from the columns (the row above left out) without making their Results.
+    const columns = joinColumns([{ columns: answer.cells, from: skip, to: Math.max(skip, done) }])
+    return { count: columns.templateOf.length, columns, failed: failedPoints(columns) }
   },
-  finish(model, items, complete) {
-    if (!items.length) return null
+  finish(model, parts, complete) {
+    const solved = parts.reduce((sum, part) => sum + part.count, 0)
+    if (!solved) return null
     const map = model.map!
     const total = map.x.values.length * map.y.values.length
-    const cells = new ColumnsBuilder()
-    let failedCells = 0
-    const add = (cell: Result) => {
-      if (!cell.converged) failedCells++
-      cells.add(cell)
+    const ranges = [{ columns: joinParts(parts), from: 0, to: solved }]
+    if (solved < total) {
+      const notReached = new ColumnsBuilder()
+      const cell = unsolvable(model, CANCELLED_CELL_REASON)
+      for (let k = solved; k < total; k++) notReached.add(cell)
+      ranges.push({ columns: notReached.build(), from: 0, to: total - solved })
     }
-    for (const item of items) add(JSON.parse(item) as Result)
-    if (cells.length < total) {
-      const notReached = unsolvable(model, CANCELLED_CELL_REASON)
-      while (cells.length < total) add(notReached)
-    }
+    const cells = ranges.length === 1 ? ranges[0]!.columns : joinColumns(ranges)
     const answer: MapAnswer = {
-      format: 'map-columns', x: axisOf(map.x), y: axisOf(map.y), cells: cells.build(),
-      cellsDone: complete ? total : items.length, failedCells, cancelled: !complete,
+      format: 'map-columns', x: axisOf(map.x), y: axisOf(map.y), cells,
+      cellsDone: complete ? total : solved, failedCells: failedPoints(cells), cancelled: !complete,
     }
     return mapAnswerJson(answer)
   },

@@ -8,11 +8,11 @@
 import type { MessagePort } from 'node:worker_threads'
 import type { Model } from '../../shared/poise/model'
 import { SOLVE_LIMITS } from '../utils/solve-limits'
-import { STUDY_RUNNERS, type Slice } from './studies'
+import { STUDY_RUNNERS, type Slice, type StoredPart } from './studies'
 
 export type ThreadRequest =
   | { id: number, op: 'slice', kind: string, model: Model, from: number, to: number, sliceMs: number, stop: SharedArrayBuffer }
-  | { id: number, op: 'finish', kind: string, model: Model, items: string[], complete: boolean }
+  | { id: number, op: 'finish', kind: string, model: Model, parts: StoredPart[], complete: boolean }
 
 export type ThreadAnswer =
   | { id: number, type: 'progress', done: number }
@@ -47,7 +47,7 @@ export function serveStudies(port: MessagePort): void {
         })
         post({ id: request.id, type: 'slice', slice })
       } else {
-        post({ id: request.id, type: 'finished', resultJson: kind.finish(request.model, request.items, request.complete, solveOptions) })
+        post({ id: request.id, type: 'finished', resultJson: kind.finish(request.model, request.parts, request.complete, solveOptions) })
       }
     } catch (error) {
       post({ id: request.id, type: 'error', message: error instanceof Error ? error.message : String(error) })

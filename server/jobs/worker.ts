@@ -22,8 +22,8 @@ import type { Model } from '../../shared/poise/model'
 import { SOLVER_VERSION } from '../solver/index'
 import { SOLVE_LIMITS } from '../utils/solve-limits'
 import { redisConnection, STUDY_QUEUE, WORKER_LOCK, type StudyJobData } from './connection'
-import { claimJob, endJob, failJob, nextPoint, recordProgress, saveSlice, storedCount, storedItems } from './store'
-import type { Slice } from './studies'
+import { claimJob, endJob, failJob, nextPoint, recordProgress, saveSlice, storedCount, storedParts } from './store'
+import type { Slice, StoredPart } from './studies'
 import { serveStudies, type ThreadAnswer, type ThreadRequest } from './thread'
 
 /** How often the main thread records progress and looks for a cancel while a slice runs: a cancel stops the job within about this. */
@@ -74,8 +74,8 @@ class SolverThread {
     return (answer as Extract<ThreadAnswer, { type: 'slice' }>).slice
   }
 
-  async finish(kind: string, model: Model, items: string[], complete: boolean): Promise<string | null> {
-    const answer = await this.ask({ op: 'finish', kind, model, items, complete })
+  async finish(kind: string, model: Model, parts: StoredPart[], complete: boolean): Promise<string | null> {
+    const answer = await this.ask({ op: 'finish', kind, model, parts, complete })
     if (answer.type === 'error') throw new Error(answer.message)
     return (answer as Extract<ThreadAnswer, { type: 'finished' }>).resultJson
   }
@@ -162,8 +162,8 @@ async function runWorker(): Promise<void> {
     }
     // The run ends when its last point is stored, or, cancelled, when its last range has stopped.
     if (!complete && !(await lastRangeEnded(runId, ranges) && cancelled)) return cancelled ? 'stopped' : 'range done'
-    const { items, points, failed } = await storedItems(db, runId)
-    const resultJson = await solver.finish(claimed.kind, model, items, complete)
+    const { parts, points, failed } = await storedParts(db, runId)
+    const resultJson = await solver.finish(claimed.kind, model, parts, complete)
     const ended = await endJob(db, runId, {
       jobStatus: complete ? 'done' : 'cancelled', resultJson, failedPoints: failed, pointsDone: points,
       solverVersion: SOLVER_VERSION, budgetBytes, labId: claimed.labId,

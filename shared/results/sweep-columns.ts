@@ -330,3 +330,111 @@ function slotAt(template: unknown, path: (string | number)[]): number {
   walk(template, 0, true)
   return found
 }
+
+/** A run of points [from, to) of some columns (a stored slice, or part of one). */
+export interface ColumnsRange {
+  columns: PointColumns
+  from: number
+  to: number
+}
+
+/**
+ * The columns of the points of several ranges one after another, joined
+ * column by column without making a Result: equal, number for number and
+ * template for template, to what a ColumnsBuilder gives when the same points
+ * are added in the same order (templates in order of first use, one shared
+ * by all the ranges that have it). How a study's stored slices become its
+ * answer (server/jobs/studies.ts), and how a slice is cut from a longer
+ * computation.
+ */
+export function joinColumns(ranges: ColumnsRange[]): PointParts<Float64Array> {
+  const total = ranges.reduce((sum, r) => sum + Math.max(0, r.to - r.from), 0)
+  const templateOf = new Uint16Array(total)
+  const rowOf = new Uint32Array(total)
+  const templates: unknown[] = []
+  const rows: number[] = []
+  const slotsOf: number[] = []
+  const byText = new Map<string, number>()
+  /** For each joined template, the runs of rows it takes from the ranges, in order. */
+  const runs: { column: ArrayLike<number>, stride: number, first: number, count: number }[][] = []
+  let i = 0
+  for (const { columns, from, to } of ranges) {
+    if (from < 0 || to > columns.templateOf.length) throw new Error(`points ${from} to ${to} asked of columns of ${columns.templateOf.length} points`)
+    const joinedOf = new Map<number, { t: number, run: { column: ArrayLike<number>, stride: number, first: number, count: number } }>()
+    for (let k = from; k < to; k++) {
+      const own = columns.templateOf[k]!
+      let seen = joinedOf.get(own)
+      if (!seen) {
+        const text = JSON.stringify(columns.templates[own])
+        let t = byText.get(text)
+        if (t === undefined) {
+          t = templates.length
+          if (t === 0xffff) throw new Error('a sweep answer with more than 65535 shapes of point')
+          byText.set(text, t)
+          templates.push(columns.templates[own])
+          rows.push(0)
+          runs.push([])
+          const stride = columns.rows[own]!
+          slotsOf.push(stride ? columns.columns[own]!.length / stride : 0)
+        }
+        seen = { t, run: { column: columns.columns[own]!, stride: columns.rows[own]!, first: columns.rowOf[k]!, count: 0 } }
+        runs[t]!.push(seen.run)
+        joinedOf.set(own, seen)
+      }
+      const { t, run } = seen
+      // A template's points take its rows in order, so those of a range are rows first…first+count.
+      if (columns.rowOf[k] !== run.first + run.count) throw new Error('columns whose rows are not in the order of their points')
+      run.count++
+      templateOf[i] = t
+      rowOf[i] = rows[t]!++
+      i++
+    }
+  }
+  const joined = runs.map((pieces, t) => {
+    const n = rows[t]!
+    const slots = slotsOf[t]!
+    const column = new Float64Array(slots * n)
+    for (let s = 0; s < slots; s++) {
+      let at = s * n
+      for (const { column: source, stride, first, count } of pieces) {
+        const start = s * stride + first
+        if (source instanceof Float64Array) column.set(source.subarray(start, start + count), at)
+        else for (let r = 0; r < count; r++) column[at + r] = (source[start + r] as number | null) ?? Number.NaN
+        at += count
+      }
+    }
+    return column
+  })
+  return { templates, templateOf, rowOf, columns: joined, rows }
+}
+
+/** Points whose template says they did not converge. */
+export function failedPoints(columns: PointColumns): number {
+  const failed = columns.templates.map((template) => (template as { converged?: unknown } | null)?.converged === false)
+  let n = 0
+  for (let i = 0; i < columns.templateOf.length; i++) if (failed[columns.templateOf[i]!]) n++
+  return n
+}
+
+/**
+ * The JSON text of each point, written from its template and numbers
+ * without making the Result: the same text as `JSON.stringify` of
+ * `sweepPoint(columns, i)` (and so of the solver's point), character for
+ * character.
+ */
+export function pointTexts(columns: PointColumns): string[] {
+  const slotText = JSON.stringify(SLOT)
+  const pieces = columns.templates.map((template) => JSON.stringify(template).split(slotText))
+  const out: string[] = new Array(columns.templateOf.length)
+  for (let i = 0; i < out.length; i++) {
+    const t = columns.templateOf[i]!
+    const parts = pieces[t]!
+    const col = columns.columns[t]!
+    const rows = columns.rows[t]!
+    const r = columns.rowOf[i]!
+    let text = parts[0]!
+    for (let s = 1; s < parts.length; s++) text += JSON.stringify(toNumber(col[(s - 1) * rows + r] as number)) + parts[s]
+    out[i] = text
+  }
+  return out
+}
