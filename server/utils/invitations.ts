@@ -8,6 +8,7 @@ import { and, desc, eq, gt, isNull } from 'drizzle-orm'
 import type { Invitation, Lab } from '../database/schema'
 import { INVITATION_DAYS } from '../../shared/utils/invitation-schemas'
 import { labRoleAtLeast, type LabRole } from '../../shared/utils/roles'
+import type { InvitationState, InvitationView } from '../../shared/types/lab'
 import { tables, useDb, type Transaction } from './db'
 import { recordAudit } from './audit'
 import { INVITATIONS_PER_HOUR, refuseForNow } from './limits'
@@ -160,8 +161,8 @@ async function createInvitation(event: H3Event, input: {
 }
 
 /** The public shape of an invitation in an owner's list. */
-export function invitationView(invitation: Invitation) {
-  const state = invitation.acceptedAt ? 'accepted' : invitation.expiresAt.getTime() <= Date.now() ? 'expired' : 'pending'
+export function invitationView(invitation: Invitation): InvitationView {
+  const state: InvitationState = invitation.acceptedAt ? 'accepted' : invitation.expiresAt.getTime() <= Date.now() ? 'expired' : 'pending'
   return {
     id: invitation.id,
     email: invitation.email,

@@ -6,6 +6,7 @@
 import { and, asc, desc, eq, inArray, max, ne } from 'drizzle-orm'
 import { findUses } from '../../shared/poise/index'
 import { preloadLibraries, type LibraryText, type ResolveLibrary } from '../../shared/utils/library-preload'
+import type { LibraryUse } from '../../shared/types/lab'
 import { tables, useDb } from './db'
 
 /**
@@ -27,17 +28,6 @@ async function loadLibraryRevision(labId: number, slug: string, revision: number
     .orderBy(desc(tables.revisions.number))
     .limit(1)
   return row ?? null
-}
-
-export interface LibraryUse {
-  slug: string
-  title: string
-  /** The system's latest revision, whose text holds the `use`. */
-  revision: number
-  /** The revision it asks for, or null for "the latest". */
-  pinned: number | null
-  /** The library revision its newest run used, if it has run since. */
-  lastRunUsed: number | null
 }
 
 /** The systems of the lab whose latest revision uses the library, with the revision they ask for. */

@@ -1,12 +1,8 @@
 /**
- * How long a session lasts: it ends after `idleMinutes` without a request and
- * `absoluteMinutes` after signing in, whichever comes first. Configured with
- * NUXT_SESSION_IDLE_MINUTES and NUXT_SESSION_ABSOLUTE_MINUTES.
+ * How long a session lasts (`SessionLifetimes`, shared/types/account.ts).
+ * Configured with NUXT_SESSION_IDLE_MINUTES and NUXT_SESSION_ABSOLUTE_MINUTES.
  */
-export interface SessionLifetimes {
-  idleMinutes: number
-  absoluteMinutes: number
-}
+import type { SessionLifetimes } from '../../shared/types/account'
 
 export const DEFAULT_SESSION_LIFETIMES: SessionLifetimes = { idleMinutes: 7 * 24 * 60, absoluteMinutes: 30 * 24 * 60 }
 

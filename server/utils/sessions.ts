@@ -10,7 +10,8 @@ import type { H3Event } from 'h3'
 import { and, eq, lt, ne, or } from 'drizzle-orm'
 import { tables, useDb, type DbExecutor } from './db'
 import { hashToken, newToken } from './tokens'
-import { sessionLifetimesFrom, type SessionLifetimes } from './session-lifetime'
+import type { SessionLifetimes } from '../../shared/types/account'
+import { sessionLifetimesFrom } from './session-lifetime'
 
 /** lastSeenAt is written at most this often per session, not on every request. */
 export const LAST_SEEN_RESOLUTION_MS = 60_000

@@ -47,6 +47,12 @@ export interface ReviewListAnswer {
   reviews: ReviewView[]
 }
 
+/** GET /api/reviews/waiting — open reviews asked of me, and the latest I asked for. */
+export interface ReviewsWaitingAnswer {
+  waiting: ReviewView[]
+  requested: ReviewView[]
+}
+
 /** GET /api/labs/:lab/reviews/:id */
 export interface ReviewAnswer {
   review: ReviewView

@@ -6,10 +6,11 @@
  */
 import { z } from 'zod'
 import { LinkTokenSchema } from '#shared/utils/invitation-schemas'
+import type { InvitationOffer } from '#shared/types/lab'
 
 export const Params = z.object({ token: LinkTokenSchema })
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<InvitationOffer> => {
   const { token } = validateParams(event, Params)
   const open = await findOpenInvitation(token)
   return {

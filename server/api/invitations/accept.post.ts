@@ -4,8 +4,9 @@
  * address may use it, so a forwarded link does not let someone else in.
  */
 import { InvitationAcceptBody } from '#shared/utils/invitation-schemas'
+import type { InvitationAcceptedAnswer } from '#shared/types/lab'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<InvitationAcceptedAnswer> => {
   const user = await requireUser(event)
   const { token } = await validateBody(event, InvitationAcceptBody)
   const open = await findOpenInvitation(token)

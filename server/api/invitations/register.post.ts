@@ -4,8 +4,9 @@
  */
 import { eq } from 'drizzle-orm'
 import { InvitationRegisterBody } from '#shared/utils/invitation-schemas'
+import type { InvitationRegisteredAnswer } from '#shared/types/lab'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<InvitationRegisteredAnswer> => {
   const body = await validateBody(event, InvitationRegisterBody)
   const open = await findOpenInvitation(body.token)
   const email = open.invitation.email

@@ -1,4 +1,5 @@
 import { desc, eq, max } from 'drizzle-orm'
+import type { RecentSystemsAnswer } from '#shared/types/account'
 
 /** How many systems the home page lists: enough to pick up where you left off, short enough to scan. */
 const RECENT_LIMIT = 8
@@ -7,7 +8,7 @@ const RECENT_LIMIT = 8
  * GET /api/me/recent-systems — the most recently saved systems of the labs I
  * am a member of, newest save first, with the lab and the latest revision.
  */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<RecentSystemsAnswer> => {
   const user = await requireUser(event)
   const savedAt = max(tables.revisions.createdAt)
   const rows = await useDb()

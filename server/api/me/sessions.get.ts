@@ -1,7 +1,8 @@
 /** GET /api/me/sessions — this session and how many others the account has signed in elsewhere. */
 import { and, desc, eq, ne } from 'drizzle-orm'
+import type { SessionListAnswer } from '#shared/types/account'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<SessionListAnswer> => {
   const user = await requireBrowserUser(event, 'manage sessions')
   const token = (await getUserSession(event)).secure!.token
   const others = await useDb().select({ lastSeenAt: tables.sessions.lastSeenAt, createdAt: tables.sessions.createdAt, userAgent: tables.sessions.userAgent })

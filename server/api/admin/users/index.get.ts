@@ -1,13 +1,5 @@
 import { asc, eq, inArray } from 'drizzle-orm'
-
-interface AdminUserView {
-  id: number
-  name: string
-  email: string
-  isAdmin: boolean
-  createdAt: string
-  labs: { slug: string, name: string, role: string }[]
-}
+import type { AdminUserListAnswer, AdminUserView } from '#shared/types/account'
 
 /** Every account with its labs, oldest first (the first accounts are usually the administrators). */
 async function listUsersForAdmin(): Promise<AdminUserView[]> {
@@ -36,7 +28,7 @@ async function listUsersForAdmin(): Promise<AdminUserView[]> {
  * GET /api/admin/users — every account with its labs, for a site
  * administrator. 404 for everyone else, so the page does not reveal itself.
  */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<AdminUserListAnswer> => {
   const user = await requireBrowserUser(event, 'administer the site')
   if (!user.isAdmin) throw createError({ statusCode: 404, message: 'Page not found' })
   return { users: await listUsersForAdmin() }

@@ -1,8 +1,9 @@
 /** GET /api/labs/:lab/invitations — the lab's invitations, newest first (owners). */
 import { and, desc, eq, isNull } from 'drizzle-orm'
 import { LabParams } from '#shared/utils/lab-schemas'
+import type { InvitationListAnswer } from '#shared/types/lab'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<InvitationListAnswer> => {
   const params = validateParams(event, LabParams)
   const { lab } = await requireLabRole(event, params.lab, 'owner')
   const rows = await useDb().select().from(tables.invitations)

@@ -6,8 +6,9 @@
  */
 import { LabParams } from '#shared/utils/lab-schemas'
 import { InvitationCreateBody } from '#shared/utils/invitation-schemas'
+import type { InvitationSentAnswer } from '#shared/types/lab'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<InvitationSentAnswer> => {
   const params = validateParams(event, LabParams)
   const { lab, user } = await requireLabRole(event, params.lab, 'owner')
   const body = await validateBody(event, InvitationCreateBody)

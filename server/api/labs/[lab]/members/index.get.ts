@@ -1,8 +1,9 @@
 import { asc, eq } from 'drizzle-orm'
 import { LabParams } from '#shared/utils/lab-schemas'
+import type { MemberListAnswer } from '#shared/types/lab'
 
 /** Every member of the lab with their role; any member may look. */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<MemberListAnswer> => {
   const params = validateParams(event, LabParams)
   const { lab, role } = await requireLabRole(event, params.lab, 'viewer')
   const members = await useDb()

@@ -5,8 +5,9 @@
  */
 import { and, desc, eq } from 'drizzle-orm'
 import { LibraryParams } from '#shared/utils/library-schemas'
+import type { LibraryAnswer } from '#shared/types/lab'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<LibraryAnswer> => {
   const params = validateParams(event, LibraryParams)
   const { lab } = await requireLabRole(event, params.lab, 'viewer')
   const db = useDb()
