@@ -30,6 +30,17 @@ export interface SessionListAnswer {
   others: OtherSession[]
 }
 
+/** DELETE /api/me/sessions — how many other sessions were signed out. */
+export interface SessionsEndedAnswer {
+  ended: number
+}
+
+/** POST /api/auth/password — the password changed, and the other sessions signed out with it. */
+export interface PasswordChangedAnswer {
+  changed: true
+  otherSessionsEnded: number
+}
+
 /** GET /api/me/tokens */
 export interface ApiTokenListAnswer {
   tokens: ApiTokenSummary[]

@@ -77,6 +77,11 @@ export interface LibraryUse {
   lastRunUsed: number | null
 }
 
+/** PUT /api/labs/:lab/systems/:system/library — a system marked as a library, or no longer. */
+export interface LibraryMarkAnswer {
+  system: { slug: string; title: string; isLibrary: boolean; latestRevision: number }
+}
+
 /** GET /api/labs/:lab/libraries/:name */
 export interface LibraryAnswer {
   library: { name: string; title: string; latestRevision: number }

@@ -1,12 +1,13 @@
 import { eq } from 'drizzle-orm'
 import { PasswordChangeBody } from '#shared/utils/account-schemas'
+import type { PasswordChangedAnswer } from '#shared/types/account'
 
 /**
  * Change one's own password; the current one must be given again. Every
  * other session of the account ends (a thief's copy of a cookie among them);
  * the one that made the change stays signed in.
  */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<PasswordChangedAnswer> => {
   const user = await requireBrowserUser(event, 'change the password')
   const body = await validateBody(event, PasswordChangeBody)
   const db = useDb()

@@ -7,8 +7,9 @@
 import { eq } from 'drizzle-orm'
 import { SystemParams } from '#shared/utils/lab-schemas'
 import { LibraryMarkBody } from '#shared/utils/library-schemas'
+import type { LibraryMarkAnswer } from '#shared/types/lab'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<LibraryMarkAnswer> => {
   const params = validateParams(event, SystemParams)
   const { system, lab, user, latest } = await requireSystem(event, params.lab, params.system, 'editor')
   const { isLibrary } = await validateBody(event, LibraryMarkBody)
