@@ -23,10 +23,26 @@ export interface StudyShape {
    * no). Ranges start at a multiple of `align` points (a map: a row).
    */
   divisible?: { align(model: Model): number }
+  /**
+   * The kind of answer it stores (RunView.kind), when that is not `kind`: a
+   * Monte Carlo run stores the sweep or titration it draws.
+   */
+  answerKind?(model: Model): string
+  /** What its points are, for the progress line ("points" unless said). */
+  unit?: 'points' | 'draws'
+}
+
+/** A sweep or a titration curve that asks for `uncertainty draws N` and has a constant with a ± to draw. */
+function drawsConstants(model: Model): boolean {
+  if (!model.monteCarlo || model.map) return false
+  if (!model.sweep && !model.titration?.values) return false
+  return model.reactions.some((r) => typeof r.logKUncertainty === 'number' && Number.isFinite(r.logKUncertainty) && r.logKUncertainty > 0)
 }
 
 /** Every kind, the most specific first: the first whose `matches` holds takes a model (a map model may carry a sweep too). */
 export const STUDY_SHAPES: StudyShape[] = [
+  // Its points are the draws; the study itself is solved once more at the end (finish).
+  { kind: 'monte-carlo', matches: drawsConstants, points: (model) => model.monteCarlo?.draws ?? 0, answerKind: (model) => (model.titration ? 'titration' : 'sweep'), unit: 'draws' },
   { kind: 'map', matches: (model) => Boolean(model.map), points: (model) => (model.map?.x.values.length ?? 0) * (model.map?.y.values.length ?? 0), divisible: { align: (model) => model.map?.x.values.length ?? 1 } },
   { kind: 'titration', matches: (model) => Boolean(model.titration), points: (model) => Math.max(1, model.titration?.values?.length ?? 1) },
   { kind: 'sweep', matches: (model) => Boolean(model.sweep), points: (model) => model.sweep?.values.length ?? 0, divisible: { align: () => 1 } },

@@ -63,7 +63,7 @@ export async function claimJob(db: Database, runId: number, worker: string): Pro
   if (!row?.model) return null
   return {
     model: row.model,
-    kind: (row.options as { kind?: string }).kind ?? 'single',
+    kind: (row.options as { study?: string, kind?: string }).study ?? (row.options as { kind?: string }).kind ?? 'single',
     pointsTotal: row.pointsTotal,
     labId: row.labId,
     cancelRequested: row.cancelRequestedAt !== null,

@@ -11,7 +11,9 @@
 import type { Model } from '../../shared/poise/model'
 import { failedTitrationPoints, type MapAnswer, type MapAxis, type Result, type SweepResult, type TitrationResult } from '../../shared/types/result'
 import type { ModelSweep } from '../../shared/poise/model'
-import { solve, solveAtSweepValue, solveMap, sweep, titration, unsolvable, type SolveOptions } from '../solver/index'
+import { bareSweepPoints, solve, solveAtSweepValue, solveMap, sweep, titration, unsolvable, type SolveOptions } from '../solver/index'
+import { bareCurve } from '../solver/titration'
+import { bandsFromDraws, drawnModel, drawSample, drawShifts, type DrawSample } from '../solver/montecarlo'
 import { CANCELLED_CELL_REASON } from '../solver/map'
 import { ColumnsBuilder, failedPoints, joinColumns, pointTexts, sweepView, type PointParts } from '../../shared/results/sweep-columns'
 import { mapAnswerJson } from '../../shared/results/map-columns'
@@ -75,6 +77,12 @@ export interface StudyRunner {
    * counted from the slices.)
    */
   finish(model: Model, parts: StoredPart[], complete: boolean, solveOptions: SolveOptions): StudyAnswer
+  /**
+   * Points of the stored answer that did not converge, for a kind whose
+   * slices are not the answer's points (a Monte Carlo run's are draws);
+   * without it the slices' `failed` are counted.
+   */
+  failedOf?(model: Model, resultJson: string): number
 }
 
 /** A kind answered by one computation that cannot stop part-way (a single solve, a titration). */
@@ -214,8 +222,56 @@ export const mapRunner: StudyRunner = {
   },
 }
 
+/**
+ * A Monte Carlo run (`uncertainty draws N` on a sweep or a titration curve):
+ * its points are the draws. A slice makes draws from `from` on (the same
+ * deviates as at once: `drawShifts` skips the earlier ones) and stops
+ * between two draws; it is stored as text, a draw's values per point of the
+ * study (`drawSample`, JSON) a line. `finish` solves the study once without
+ * Monte Carlo and attaches the bands of the draws made (all of them, or
+ * those before a cancel, which the summary's note then says).
+ */
+export const monteCarloRunner: StudyRunner = {
+  run(model, from, to, ctx) {
+    const shifts = drawShifts(model, from)
+    const bare = (drawn: Model) => (model.titration ? bareCurve(drawn, model.titration.values ?? [], ctx.solveOptions) : bareSweepPoints(drawn, ctx.solveOptions))
+    const lines: string[] = []
+    for (let d = from; d < to; d++) {
+      // A draw that failed somewhere is left out there and counted in the bands' summary; the run's failed points are the study's (failedOf).
+      lines.push(JSON.stringify(drawSample(bare(drawnModel(model, shifts())))))
+      ctx.progress(lines.length)
+      if (d + 1 < to && ctx.shouldStop()) break
+    }
+    return { count: lines.length, answer: lines.join('\n'), failed: 0 }
+  },
+  finish(model, parts, complete, solveOptions) {
+    const samples: DrawSample[] = []
+    for (const part of parts) if ('text' in part && part.text) for (const line of part.text.split('\n')) samples.push(JSON.parse(line) as DrawSample)
+    // Cancelled before its first draw: nothing computed, as for any kind.
+    if (!samples.length) return null
+    const plain: Model = { ...model }
+    delete plain.monteCarlo
+    const draws = model.monteCarlo?.draws ?? 0
+    const note = complete ? null : `${samples.length} of ${draws} draws were made before the run was cancelled: the bands rest on fewer draws than asked.`
+    const bands = bandsFromDraws(model, samples, note)
+    if (model.titration) {
+      const result = titration(plain, solveOptions)
+      if ('points' in result) result.points.forEach((point, i) => bands.attach(point, i))
+      return JSON.stringify(result)
+    }
+    const result = sweep(plain, solveOptions)
+    result.points.forEach((point, i) => bands.attach(point, i))
+    return JSON.stringify(result)
+  },
+  failedOf(model, resultJson) {
+    const result = JSON.parse(resultJson) as SweepResult | TitrationResult
+    return model.titration ? failedTitrationPoints(result as TitrationResult) : (result as SweepResult).points.filter((p) => !p.converged).length
+  },
+}
+
 /** The runner of each kind of kinds.ts, by its name. */
 export const STUDY_RUNNERS: Record<string, StudyRunner> = {
+  'monte-carlo': monteCarloRunner,
   map: mapRunner,
   titration: titrationRunner,
   sweep: sweepRunner,

@@ -17,7 +17,7 @@ export type ThreadRequest =
 export type ThreadAnswer =
   | { id: number, type: 'progress', done: number }
   | { id: number, type: 'slice', slice: Slice }
-  | { id: number, type: 'finished', resultJson: string | null }
+  | { id: number, type: 'finished', resultJson: string | null, failed?: number }
   | { id: number, type: 'error', message: string }
 
 /** How often progress is posted to the main thread while a slice runs. */
@@ -47,7 +47,9 @@ export function serveStudies(port: MessagePort): void {
         })
         post({ id: request.id, type: 'slice', slice })
       } else {
-        post({ id: request.id, type: 'finished', resultJson: kind.finish(request.model, request.parts, request.complete, solveOptions) })
+        const resultJson = kind.finish(request.model, request.parts, request.complete, solveOptions)
+        const failed = resultJson !== null && kind.failedOf ? kind.failedOf(request.model, resultJson) : undefined
+        post({ id: request.id, type: 'finished', resultJson, ...(failed === undefined ? {} : { failed }) })
       }
     } catch (error) {
       post({ id: request.id, type: 'error', message: error instanceof Error ? error.message : String(error) })

@@ -74,10 +74,12 @@ class SolverThread {
     return (answer as Extract<ThreadAnswer, { type: 'slice' }>).slice
   }
 
-  async finish(kind: string, model: Model, parts: StoredPart[], complete: boolean): Promise<string | null> {
+  /** The stored answer, and its failed points when the kind counts them itself (`failedOf`). */
+  async finish(kind: string, model: Model, parts: StoredPart[], complete: boolean): Promise<{ resultJson: string | null, failed?: number }> {
     const answer = await this.ask({ op: 'finish', kind, model, parts, complete })
     if (answer.type === 'error') throw new Error(answer.message)
-    return (answer as Extract<ThreadAnswer, { type: 'finished' }>).resultJson
+    const { resultJson, failed } = answer as Extract<ThreadAnswer, { type: 'finished' }>
+    return { resultJson, failed }
   }
 
   close() {
@@ -163,9 +165,10 @@ async function runWorker(): Promise<void> {
     // The run ends when its last point is stored, or, cancelled, when its last range has stopped.
     if (!complete && !(await lastRangeEnded(runId, ranges) && cancelled)) return cancelled ? 'stopped' : 'range done'
     const { parts, points, failed } = await storedParts(db, runId)
-    const resultJson = await solver.finish(claimed.kind, model, parts, complete)
+    const finished = await solver.finish(claimed.kind, model, parts, complete)
+    const resultJson = finished.resultJson
     const ended = await endJob(db, runId, {
-      jobStatus: complete ? 'done' : 'cancelled', resultJson, failedPoints: failed, pointsDone: points,
+      jobStatus: complete ? 'done' : 'cancelled', resultJson, failedPoints: finished.failed ?? failed, pointsDone: points,
       solverVersion: SOLVER_VERSION, budgetBytes, labId: claimed.labId,
     })
     return ended ?? 'ended'

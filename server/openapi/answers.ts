@@ -47,6 +47,7 @@ export const JobProgressAnswer = z.object({
   total: z.int().meta({ description: 'Points the run computes (1 for a single solve)' }),
   elapsedMs: z.int().meta({ description: 'Milliseconds since a worker started it (to its end once ended); 0 while queued' }),
   remainingMs: z.int().nullable().meta({ description: 'Estimated milliseconds left at the rate so far; null while nothing is done or once it ended' }),
+  unit: z.enum(['points', 'draws']).optional().meta({ description: 'What done and total count: the study\'s points when absent; "draws" for a Monte Carlo run (uncertainty draws N), whose study is solved once more at the end' }),
 })
 
 export const RunAnswer = z.object({

@@ -522,7 +522,7 @@ export interface SweepOptions extends SolveOptions {
 export const MONTE_CARLO_SHARE = 0.8
 
 /** The points of a model's sweep and nothing else (no shortcut, no limit windows): one Monte Carlo draw. */
-function bareSweepPoints(model: Model, options: SolveOptions): Result[] {
+export function bareSweepPoints(model: Model, options: SolveOptions): Result[] {
   const sw = model.sweep!
   const built = buildProblem(model)
   if ('error' in built) return sw.values.map(() => unsolvable(model, built.error))

@@ -78,57 +78,75 @@ export interface MonteCarloBands {
   attach(point: Result, index: number): void
 }
 
+/** One draw's values, per point (null: the draw did not converge there), per quantity key (`pH`, `s:NAME`, `x:NAME`, `g:NAME`, `c:NAME`). */
+export type DrawSample = (Record<string, number> | null)[]
+
+/** The values a draw gives at each point of the study. */
+export function drawSample(points: Result[]): DrawSample {
+  return points.map((r) => {
+    if (!r.converged) return null
+    const out: Record<string, number> = {}
+    const put = (key: string, v: number | null | undefined) => { if (v !== null && v !== undefined) out[key] = v }
+    put('pH', r.pH)
+    for (const s of r.species) put(`s:${s.name}`, s.log10)
+    for (const s of r.solids) put(`x:${s.name}`, s.saturationIndex)
+    for (const g of r.gases ?? []) put(`g:${g.name}`, g.log10)
+    for (const c of r.components) put(`c:${c.name}`, c.dissolved)
+    return out
+  })
+}
+
 /**
- * Draws the constants `model.monteCarlo.draws` times and solves the study
- * with each (`run` gives the points of one study of a model); null when the
- * model asks for no Monte Carlo or no constant carries a ±. Draws stop at
- * `deadline` (a Date.now() value); the summary then says how many were made.
+ * The log K shifts of draws `from`, `from + 1`, … (one array per call, an
+ * entry per model.reactions): the same stream whether the draws are made at
+ * once or in slices, since every draw takes its deviates in one order.
  */
-export function monteCarloBands(model: Model, deadline: number, options: SolveOptions | undefined, run: (model: Model, options: SolveOptions) => Result[]): MonteCarloBands | null {
-  const mc = model.monteCarlo
+export function drawShifts(model: Model, from: number): () => Float64Array {
   const constants = uncertainConstants(model)
-  if (!mc || constants.length === 0) return null
-  const draws = mc.draws
-  const next = normalStream(mc.seed)
-  /** Per point, per quantity (`pH`, `s:NAME`, `x:NAME`, `g:NAME`, `c:NAME`), one value a draw (NaN where the draw failed). */
-  const samples: Map<string, Float64Array>[] = []
-  const record = (i: number, key: string, d: number, v: number | null | undefined) => {
-    if (v === null || v === undefined) return
-    let byKey = samples[i]
-    if (!byKey) { byKey = new Map(); samples[i] = byKey }
-    let arr = byKey.get(key)
-    if (!arr) { arr = new Float64Array(draws).fill(Number.NaN); byKey.set(key, arr) }
-    arr[d] = v
+  const next = normalStream(model.monteCarlo?.seed ?? 0)
+  for (let k = 0; k < from * constants.length; k++) next()
+  return () => {
+    const delta = new Float64Array(model.reactions.length)
+    for (const c of constants) delta[c.index] = c.sigma * next()
+    return delta
   }
+}
+
+/** The model a draw solves: no Monte Carlo, no limit windows, its constants moved. */
+export function drawnModel(model: Model, delta: ArrayLike<number>): Model {
   const base: Model = { ...model }
   delete base.monteCarlo
   delete base.limits
-  let made = 0
+  return modelWithLogKShifts(base, delta)
+}
+
+/**
+ * The bands from the draws made (`samples`, in draw order); `note` says why
+ * fewer draws than asked were made.
+ */
+export function bandsFromDraws(model: Model, samples: DrawSample[], note: string | null): MonteCarloBands {
+  const made = samples.length
+  const byPoint: Map<string, Float64Array>[] = []
   let failed = 0
-  const delta = new Float64Array(model.reactions.length)
-  for (let d = 0; d < draws; d++) {
-    // Every deviate of a draw is taken before any solve, so the stream does not depend on the solves.
-    for (const c of constants) delta[c.index] = c.sigma * next()
-    if (Date.now() > deadline) break
-    const points = run(modelWithLogKShifts(base, delta), { ...options, deadline })
-    made++
-    let anyFailed = false
-    points.forEach((r, i) => {
-      if (!r.converged) { anyFailed = true; return }
-      record(i, 'pH', d, r.pH)
-      for (const s of r.species) record(i, `s:${s.name}`, d, s.log10)
-      for (const s of r.solids) record(i, `x:${s.name}`, d, s.saturationIndex)
-      for (const g of r.gases ?? []) record(i, `g:${g.name}`, d, g.log10)
-      for (const c of r.components) record(i, `c:${c.name}`, d, c.dissolved)
+  samples.forEach((sample, d) => {
+    if (sample.some((p) => p === null)) failed++
+    sample.forEach((values, i) => {
+      if (!values) return
+      let byKey = byPoint[i]
+      if (!byKey) { byKey = new Map(); byPoint[i] = byKey }
+      for (const key in values) {
+        let arr = byKey.get(key)
+        if (!arr) { arr = new Float64Array(made).fill(Number.NaN); byKey.set(key, arr) }
+        arr[d] = values[key]!
+      }
     })
-    if (anyFailed) failed++
-  }
-  const summary: UncertaintySummary = { ...uncertaintySummary(model, 'monte-carlo'), samples: made, seed: mc.seed, failed }
-  if (made < draws) summary.note = `${made} of ${draws} draws were made before the time budget ran out: the bands rest on fewer draws than asked. Use fewer draws or points for the full number.`
+  })
+  const summary: UncertaintySummary = { ...uncertaintySummary(model, 'monte-carlo'), samples: made, seed: model.monteCarlo?.seed, failed }
+  if (note) summary.note = note
   return {
     summary,
     attach(point, i) {
-      const byKey = samples[i]
+      const byKey = byPoint[i]
       if (!point.converged || !byKey) return
       const get = (key: string) => { const v = byKey.get(key); return v ? band(v) : null }
       const pH = get('pH')
@@ -140,4 +158,28 @@ export function monteCarloBands(model: Model, deadline: number, options: SolveOp
       point.uncertainty = summary
     },
   }
+}
+
+/**
+ * Draws the constants `model.monteCarlo.draws` times and solves the study
+ * with each (`run` gives the points of one study of a model); null when the
+ * model asks for no Monte Carlo or no constant carries a ±. Draws stop at
+ * `deadline` (a Date.now() value); the summary then says how many were made.
+ * (A stored run makes its draws as a job instead, in slices: the
+ * `monte-carlo` study kind, server/jobs/studies.ts.)
+ */
+export function monteCarloBands(model: Model, deadline: number, options: SolveOptions | undefined, run: (model: Model, options: SolveOptions) => Result[]): MonteCarloBands | null {
+  const mc = model.monteCarlo
+  if (!mc || uncertainConstants(model).length === 0) return null
+  const draws = mc.draws
+  const shifts = drawShifts(model, 0)
+  const samples: DrawSample[] = []
+  for (let d = 0; d < draws; d++) {
+    // Every deviate of a draw is taken before any solve, so the stream does not depend on the solves.
+    const delta = shifts()
+    if (Date.now() > deadline) break
+    samples.push(drawSample(run(drawnModel(model, delta), { ...options, deadline })))
+  }
+  const made = samples.length
+  return bandsFromDraws(model, samples, made < draws ? `${made} of ${draws} draws were made before the time budget ran out: the bands rest on fewer draws than asked. Use fewer draws or points for the full number.` : null)
 }

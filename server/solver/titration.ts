@@ -222,7 +222,7 @@ export function titration(model: Model, options?: SolveOptions): TitrationResult
 const formatMl = (v: number) => `${Number(v.toPrecision(4))} mL`
 
 /** The points of a titration curve and nothing else (no slopes, end points or limits): one Monte Carlo draw. */
-function bareCurve(model: Model, values: number[], options: SolveOptions): Result[] {
+export function bareCurve(model: Model, values: number[], options: SolveOptions): Result[] {
   const built = buildProblem(model)
   if ('error' in built) return values.map(() => unsolvable(model, built.error))
   const p = built.problem

@@ -57,7 +57,9 @@ function tooManyJobs(event: H3Event, held: number): never {
  */
 export async function queueRun(event: H3Event, labId: number, revision: Revision, userId: number, model: Model): Promise<Run> {
   const pointsTotal = requireJobSize(model)
-  const kind = studyShapeOf(model).kind
+  const shape = studyShapeOf(model)
+  // The answer's kind (what the workbench shows); the study kind, when another, picks the workers' runner.
+  const kind = shape.answerKind?.(model) ?? shape.kind
   const modelJson = JSON.stringify(model)
   const modelBytes = Buffer.byteLength(modelJson)
   const budget = runStorageBudgetBytes()
@@ -78,7 +80,7 @@ export async function queueRun(event: H3Event, labId: number, revision: Revision
       number: counter!.number,
       solverVersion: '',
       compilerVersion: COMPILER_VERSION,
-      options: { kind, libraries: model.libraries, failedPoints: 0 },
+      options: { kind, ...(kind !== shape.kind ? { study: shape.kind } : {}), libraries: model.libraries, failedPoints: 0 },
       model: modelJson,
       result: null,
       storedBytes: modelBytes,

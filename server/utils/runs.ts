@@ -17,11 +17,14 @@ import type { AnswerKind } from '../../shared/types/result'
 import type { RunStatus, RunStorage, RunView } from '../../shared/types/system'
 import { jobIsActive, type JobProgress } from '../../shared/types/job'
 import { budgetMessage, labRunBytes, runBytes } from '../jobs/store'
+import { STUDY_SHAPES } from '../jobs/kinds'
 
 interface StoredOptions {
   kind?: AnswerKind
   libraries?: { name: string; revision: number }[]
   failedPoints?: number
+  /** The study kind (server/jobs/kinds.ts) when it is not `kind`: 'monte-carlo'. */
+  study?: string
 }
 
 type RunColumns = Omit<Run, 'model' | 'result'>
@@ -34,6 +37,11 @@ export function jobProgress(run: Pick<RunColumns, 'jobStatus' | 'pointsDone' | '
   const elapsedMs = started === undefined ? 0 : Math.max(0, (run.finishedAt?.getTime() ?? now) - started)
   const remainingMs = jobIsActive(run.jobStatus) && started !== undefined && done > 0 ? Math.round(elapsedMs / done * (total - done)) : null
   return { done, total, elapsedMs, remainingMs }
+}
+
+/** The progress unit of a study kind that does not count points. */
+function unitOf(study: string | undefined): { unit?: 'draws' } {
+  return STUDY_SHAPES.find((shape) => shape.kind === study)?.unit === 'draws' ? { unit: 'draws' } : {}
 }
 
 export function runView(run: RunColumns, revisionNumber: number, createdBy: string | null, bytes: number): RunView {
@@ -59,7 +67,7 @@ export function runView(run: RunColumns, revisionNumber: number, createdBy: stri
     startedAt: run.startedAt?.toISOString() ?? null,
     finishedAt: run.finishedAt?.toISOString() ?? null,
     worker: run.worker,
-    progress: jobProgress(run),
+    progress: { ...jobProgress(run), ...unitOf(options.study) },
     jobError: run.jobError,
   }
 }

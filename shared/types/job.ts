@@ -22,6 +22,8 @@ export interface JobProgress {
   elapsedMs: number
   /** Estimated milliseconds left at the rate so far; null until a point is done or once it ended. */
   remainingMs: number | null
+  /** What `done` and `total` count: the study's points (when absent) or, for a Monte Carlo run, its draws. */
+  unit?: 'points' | 'draws'
 }
 
 /** A duration for people: "0.4 s", "12 s", "3 min 05 s", "1 h 02 min". */
@@ -38,7 +40,7 @@ export function durationWords(ms: number): string {
 /** Where a job is, in one line: "Queued", "1,200 of 5,000 points · 4.1 s · about 13 s left". */
 export function progressWords(status: JobStatus, progress: JobProgress): string {
   if (status === 'queued') return 'Queued, waiting for a worker'
-  const points = progress.total > 1 ? `${progress.done.toLocaleString('en-US')} of ${progress.total.toLocaleString('en-US')} points · ` : ''
+  const points = progress.total > 1 ? `${progress.done.toLocaleString('en-US')} of ${progress.total.toLocaleString('en-US')} ${progress.unit ?? 'points'} · ` : ''
   const left = progress.remainingMs === null ? '' : ` · about ${durationWords(progress.remainingMs)} left`
   return `${points}${durationWords(progress.elapsedMs)}${left}`
 }

@@ -9,6 +9,7 @@ import { STUDY_RUNNERS, type Slice, type StoredPart } from '../../../server/jobs
 import { partOfBody, sliceBody } from '../../../server/jobs/store'
 import { ColumnsBuilder, joinColumns, pointTexts, toSweepColumns, type PointParts } from '../../../shared/results/sweep-columns'
 import type { MapAnswer, Result, SweepResult } from '../../../shared/types/result'
+import { studyShapeOf } from '../../../server/jobs/kinds'
 
 /** A slice as a worker stores it and reads it back (run_parts.body). */
 const stored = (slice: Slice): StoredPart => partOfBody(sliceBody(slice), slice.count)
@@ -146,5 +147,53 @@ describe('slices stored as columns', () => {
   it('refuses a range outside the columns, saying so', () => {
     const columns = toSweepColumns(sweep(vinegar, options))
     expect(() => joinColumns([{ columns, from: 290, to: 301 }])).toThrow(/points 290 to 301 asked of columns of 300 points/)
+  })
+})
+
+describe('a Monte Carlo run as a job', () => {
+  const mc = STUDY_RUNNERS['monte-carlo']!
+  // Acetic acid with a ± of our own on its pKa (tests/fixtures/studies.ts), 120 draws of an 11-point sweep.
+  const drawn = compile(vinegarWith('sweep pH from 3 to 8 points 11\nuncertainty draws 120 seed 5').replace('pKa 4.76', 'pKa 4.76 ± 0.05')).model!
+  const acidBand = (point: Result) => point.species.find((s) => s.name === 'CH3COOH')!.log10Uncertainty!
+
+  it('is the kind of a sweep that draws, storing a sweep, its progress counted in draws', () => {
+    const shape = studyShapeOf(drawn)
+    expect(shape.kind).toBe('monte-carlo')
+    expect(shape.points(drawn)).toBe(120)
+    expect(shape.answerKind?.(drawn)).toBe('sweep')
+    expect(shape.unit).toBe('draws')
+    // Without a ± there is nothing to draw: an ordinary sweep.
+    expect(studyShapeOf(compile(vinegarWith('sweep pH from 3 to 8 points 11\nuncertainty draws 120 seed 5')).model!).kind).toBe('sweep')
+  })
+
+  it('drawn in three slices, stored and read back, gives the bands the sweep gives when it draws at once', () => {
+    const parts: StoredPart[] = []
+    let reported = 0
+    for (const [from, to] of [[0, 50], [50, 51], [51, 120]] as const) {
+      const slice = mc.run(drawn, from, to, { ...everything, progress: (n) => { reported = n } })
+      expect(slice.count).toBe(to - from)
+      expect(reported).toBe(to - from)
+      parts.push(stored(slice))
+    }
+    const joined = JSON.parse(mc.finish(drawn, parts, true, options)!) as SweepResult
+    const once = sweep(drawn, options)
+    expect(joined.points).toHaveLength(11)
+    expect(mc.failedOf!(drawn, JSON.stringify(joined))).toBe(0)
+    for (const i of [0, 5, 10]) {
+      expect(joined.points[i]!.uncertainty).toMatchObject({ method: 'monte-carlo', samples: 120, seed: 5, failed: 0 })
+      expect(joined.points[i]!.pH).toBeCloseTo(once.points[i]!.pH, 12)
+      expect(acidBand(joined.points[i]!)).toEqual(acidBand(once.points[i]!))
+      expect(joined.points[i]!.pHUncertainty).toEqual(once.points[i]!.pHUncertainty)
+    }
+  })
+
+  it('stops between draws when asked; cancelled, the bands rest on the draws made and say so', () => {
+    let asked = 0
+    const slice = mc.run(drawn, 0, 120, { ...everything, shouldStop: () => ++asked >= 30 })
+    expect(slice.count).toBe(30)
+    const kept = JSON.parse(mc.finish(drawn, [stored(slice)], false, options)!) as SweepResult
+    expect(kept.points).toHaveLength(11)
+    expect(kept.points[4]!.uncertainty).toMatchObject({ samples: 30, note: '30 of 120 draws were made before the run was cancelled: the bands rest on fewer draws than asked.' })
+    expect(mc.finish(drawn, [], false, options)).toBeNull()
   })
 })
