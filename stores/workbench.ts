@@ -113,8 +113,6 @@ export function problemFrom(error: unknown): ServerProblem {
   return { status, message, diagnostics }
 }
 
-export { latestRunOf, richestComponent, startingComponent } from '../utils/picks'
-
 type Fetcher = <T>(url: string, options?: { method?: string; body?: unknown; headers?: Record<string, string> }) => Promise<T>
 
 /** Nuxt's global `$fetch` (stubbed in component tests). */

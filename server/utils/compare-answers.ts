@@ -13,7 +13,7 @@ import type { SolvedAnswer } from '../../shared/diff/results-diff'
 import type { CompareSide } from '../../shared/types/compare'
 import { COMPILER_VERSION } from '../../shared/poise/version'
 
-export interface RevisionAnswer {
+export interface ComparedRevision {
   side: CompareSide
   /** The model the answer belongs to; null when the revision does not compile (then `answer` is null unless stored). */
   model: Model | null
@@ -29,7 +29,7 @@ async function compiled(labId: number, revision: Revision, problems: string[]): 
   }
 }
 
-export async function answerForRevision(labId: number, revision: Revision, userId: number, problems: string[]): Promise<RevisionAnswer> {
+export async function answerForRevision(labId: number, revision: Revision, userId: number, problems: string[]): Promise<ComparedRevision> {
   const [stored] = await useDb().select().from(tables.runs)
     .where(and(eq(tables.runs.revisionId, revision.id), eq(tables.runs.jobStatus, 'done'), isNotNull(tables.runs.result)))
     .orderBy(desc(tables.runs.id))

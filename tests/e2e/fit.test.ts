@@ -2,7 +2,7 @@
 // listed with a preview, fits the constant the text marks `fit`, reads the
 // value ± standard error with the curve and residuals, and uses the values:
 // the new revision's constants table shows the fitted value, its ± and the
-// data set cited by name and SHA-256. The data are made here from pKa 4.76
+// data set cited by name and SHA-256. The data (tests/fixtures/fit.ts) are made from pKa 4.76
 // with a fixed alternating error of ±0.005.
 import { createHash } from 'node:crypto'
 import { mkdtempSync, writeFileSync } from 'node:fs'
@@ -12,28 +12,12 @@ import { describe, expect, it } from 'vitest'
 import { useBuiltServer } from '../setup/server'
 import { api, makeLab, signUp } from '../setup/accounts'
 import { openSignedIn, screenshot } from '../setup/browser'
-import { compile } from '../../shared/poise/index'
-import type { TitrationCurveResult } from '../../shared/types/result'
-import { titration } from '../../server/solver/index'
+import { WEAK_ACID_CSV, weakAcidTitration } from '../fixtures/fit'
 
 await useBuiltServer()
 
-const acid = (pKa: string) => `system "Weak acid, fitted"
-activity ideal
-component H+        balance
-component CH3COO-   total 10 mmol/L
-component Na+       total 0 mol/L
-reaction H2O <=> H+ + OH-           pKw 14.00  cite "from memory"
-reaction CH3COOH <=> CH3COO- + H+   pKa ${pKa}   cite "a first guess"
-sample volume 50 mL
-titrant Na+ 0.1 mol/L
-titrant OH- 0.1 mol/L
-titrate from 0 to 8 mL step 0.5
-`
-const volumes = Array.from({ length: 20 }, (_, i) => 0.3 * (i + 1))
-const truth = compile(acid('4.76')).model!
-const curve = titration({ ...truth, titration: { ...truth.titration!, values: volumes, targetPH: null } }) as TitrationCurveResult
-const CSV = 'volume mL,pH\n' + volumes.map((v, i) => `${v.toFixed(1)},${(curve.points[i]!.pH + (i % 2 ? 0.005 : -0.005)).toFixed(4)}`).join('\n') + '\n'
+const acid = weakAcidTitration
+const CSV = WEAK_ACID_CSV
 const SHA = createHash('sha256').update(CSV).digest('hex')
 
 describe('fitting in the workbench', () => {

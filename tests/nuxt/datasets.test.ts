@@ -3,7 +3,7 @@
  * with mistakes is refused whole, naming line and column), viewers list and
  * read it and fit with it, an editor applies the fit as the next revision
  * (value ± standard error and a citation of the data set) and deletes it;
- * the audit log has each write. Data generated here from pKa 4.76 with a
+ * the audit log has each write. Data (tests/fixtures/fit.ts) made from pKa 4.76 with a
  * fixed alternating error of ±0.005.
  */
 import mysql from 'mysql2/promise'
@@ -13,27 +13,12 @@ import { useBuiltServer } from '../setup/server'
 import { TEST_DATABASE_URL } from '../setup/test-database'
 import { api, makeLab, signUp, type SignedIn } from '../setup/accounts'
 import { compile } from '../../shared/poise/index'
-import type { TitrationCurveResult } from '../../shared/types/result'
-import { titration } from '../../server/solver/index'
+import { WEAK_ACID_CSV, weakAcidTitration } from '../fixtures/fit'
 
 await useBuiltServer()
 
-const acid = (pKa: string) => `system "A weak acid titrated with caustic"
-activity ideal
-component H+        balance
-component CH3COO-   total 10 mmol/L
-component Na+       total 0 mol/L
-reaction H2O <=> H+ + OH-           pKw 14.00  cite "from memory"
-reaction CH3COOH <=> CH3COO- + H+   pKa ${pKa}   cite "a first guess"
-sample volume 50 mL
-titrant Na+ 0.1 mol/L
-titrant OH- 0.1 mol/L
-titrate from 0 to 8 mL step 0.5
-`
-const volumes = Array.from({ length: 20 }, (_, i) => 0.3 * (i + 1))
-const truth = compile(acid('4.76')).model!
-const curve = titration({ ...truth, titration: { ...truth.titration!, values: volumes, targetPH: null } }) as TitrationCurveResult
-const CSV = 'volume mL,pH\n' + volumes.map((v, i) => `${v.toFixed(1)},${(curve.points[i]!.pH + (i % 2 ? 0.005 : -0.005)).toFixed(4)}`).join('\n') + '\n'
+const acid = weakAcidTitration
+const CSV = WEAK_ACID_CSV
 
 let owner: SignedIn
 let editor: SignedIn
